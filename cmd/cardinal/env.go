@@ -1,0 +1,31 @@
+package main
+
+import (
+	"io"
+	"os"
+	"time"
+
+	"github.com/mattn/go-isatty"
+)
+
+// env carries the streams, the clock and the store location, so that tests
+// can run commands against buffers and read both streams back.
+type env struct {
+	In       io.Reader
+	Out, Err io.Writer
+	// Terminal is true when Out is a terminal (tables read by people);
+	// false for pipes.
+	Terminal bool
+	Now      func() time.Time
+	// Getenv reads the environment (CARDINAL_DB, XDG_DATA_HOME, HOME).
+	Getenv func(string) string
+}
+
+func newEnv() *env {
+	return &env{
+		In: os.Stdin, Out: os.Stdout, Err: os.Stderr,
+		Terminal: isatty.IsTerminal(os.Stdout.Fd()),
+		Now:      time.Now,
+		Getenv:   os.Getenv,
+	}
+}

@@ -1,0 +1,55 @@
+package main
+
+import (
+	"fmt"
+	"strings"
+
+	"github.com/spf13/cobra"
+)
+
+// commands holds the constructors of the top-level commands; each command's
+// file adds its own in an init function.
+var commands []func(*env) *cobra.Command
+
+func newRootCmd(e *env) *cobra.Command {
+	root := &cobra.Command{
+		Use:   "cardinal",
+		Short: "Find stock lenses that meet first-order optical requirements",
+		Long: `cardinal keeps a catalog of lens prescriptions, computes every part's cardinal
+points (focal, principal, nodal and anti-principal points of the thick lens),
+and searches singlets and pairs of parts that meet a focal length, a
+conjugate (track and magnification) or a beam-expansion requirement.
+
+Lengths are in mm, wavelengths in nm; light travels left to right (+z).
+Paraxial figures hold near the axis; check real-ray figures before you build.`,
+		SilenceUsage:  true,
+		SilenceErrors: true,
+	}
+	root.SetOut(e.Out)
+	root.SetErr(e.Err)
+	root.SetIn(e.In)
+	root.SetFlagErrorFunc(func(c *cobra.Command, err error) error {
+		return usageErrorf("%v (see '%s --help')", err, c.CommandPath())
+	})
+	for _, c := range commands {
+		root.AddCommand(c(e))
+	}
+	return root
+}
+
+// execute runs the command line and returns the exit code; every message
+// printed is ours.
+func execute(args []string, e *env) int {
+	root := newRootCmd(e)
+	root.SetArgs(args)
+	err := root.Execute()
+	if err != nil {
+		msg := err.Error()
+		if strings.HasPrefix(msg, "unknown command") || strings.HasPrefix(msg, "unknown flag") ||
+			strings.Contains(msg, "accepts") && strings.Contains(msg, "arg(s)") {
+			err = usageErrorf("%s (see 'cardinal --help')", msg)
+		}
+		fmt.Fprintf(e.Err, "cardinal: %v\n", err)
+	}
+	return exitCode(err)
+}
