@@ -1,0 +1,22 @@
+package importers
+
+import "cardinal/optics"
+
+// An Entry is one row of a prescription file: a part, what its supplier
+// states about it, and what a purchase request needs.
+type Entry struct {
+	Part optics.Part
+	// Stated values from the supplier; zero means not stated.
+	StatedEFL, StatedBFD, StatedEdge float64
+	// StatedWavelength is the wavelength in nm of StatedEFL and StatedBFD;
+	// zero means 587.6 nm.
+	StatedWavelength float64
+	Price            float64 // per piece; zero means not stated
+	Currency         string
+	URL, Notes       string
+	// Line is the line of the source file the entry came from (0 if none).
+	Line int
+	// Warnings are problems that do not stop the part being used, such as a
+	// stated EFL that differs from the computed one by more than 1 %.
+	Warnings []string
+}
