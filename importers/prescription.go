@@ -1,0 +1,270 @@
+package importers
+
+import (
+	"cmp"
+	"fmt"
+	"io"
+	"math"
+	"regexp"
+	"slices"
+	"strconv"
+	"strings"
+
+	"cardinal/optics"
+)
+
+// MaxSurfaces is the most surfaces a row of the prescription CSV holds
+// (r1 ... r6).
+const MaxSurfaces = 6
+
+// DefaultStatedWavelength is the wavelength in nm at which stated EFL and BFD
+// are taken when a row does not say (DESIGN.md, neutral prescription CSV).
+const DefaultStatedWavelength = 587.6
+
+// prescriptionSchema is the column set of the neutral prescription CSV,
+// version 1 (DESIGN.md).
+var prescriptionSchema = schema{
+	known: func(name string) bool {
+		switch name {
+		case "supplier", "part", "description", "diameter", "clear_aperture",
+			"efl", "bfd", "edge_thickness", "stated_wavelength",
+			"price", "currency", "url", "notes":
+			return true
+		}
+		for _, p := range []struct {
+			prefix string
+			n      int
+		}{{"r", MaxSurfaces}, {"t", MaxSurfaces - 1}, {"glass", MaxSurfaces - 1}, {"conic", MaxSurfaces}, {"asph", MaxSurfaces}} {
+			if i, ok := indexed(name, p.prefix); ok && i <= p.n {
+				return true
+			}
+		}
+		return false
+	},
+	required: []string{"supplier", "part", "diameter", "r1", "r2", "t1", "glass1"},
+}
+
+// indexed splits "r3" into 3 for the prefix "r".
+func indexed(name, prefix string) (int, bool) {
+	rest, ok := strings.CutPrefix(name, prefix)
+	if !ok || len(rest) != 1 || rest[0] < '1' || rest[0] > '9' {
+		return 0, false
+	}
+	return int(rest[0] - '0'), true
+}
+
+// ReadPrescriptions reads a neutral prescription CSV (DESIGN.md, version 1)
+// into entries, resolving glass names through glasses (nil knows air and
+// six-digit glass codes only). file names the input in messages. The error,
+// when not nil, is a FileErrors listing every bad row and cell, and the
+// entries are then nil. Each entry's Warnings hold ComputedWarnings;
+// warnings about the file as a whole (unknown columns) are dropped here and
+// returned by ReadPrescriptionFile.
+func ReadPrescriptions(r io.Reader, file string, glasses optics.GlassTable) ([]Entry, error) {
+	f, err := ReadPrescriptionFile(r, file, glasses)
+	return f.Rows, err
+}
+
+// ReadPrescriptionFile is ReadPrescriptions with the file's own warnings.
+func ReadPrescriptionFile(r io.Reader, file string, glasses optics.GlassTable) (File[Entry], error) {
+	t := readTable(r, file, prescriptionSchema)
+	errs := t.errs
+	var entries []Entry
+	seen := map[string]int{}
+	for _, rec := range t.rows {
+		if !t.headerOK {
+			break
+		}
+		row := t.row(rec)
+		e := parseEntry(row, glasses)
+		if first, dup := seen[e.Part.ID()]; dup && e.Part.Supplier != "" && e.Part.Name != "" {
+			row.fail("part", "%s is already on line %d; supplier and part together must be unique", e.Part.ID(), first)
+		} else {
+			seen[e.Part.ID()] = rec.line
+		}
+		if len(row.errs) > 0 {
+			errs = append(errs, row.errs...)
+			continue
+		}
+		e.Warnings = ComputedWarnings(e)
+		entries = append(entries, e)
+	}
+	if len(errs) > 0 {
+		sortErrors(errs)
+		return File[Entry]{Warnings: t.warnings}, errs
+	}
+	return File[Entry]{Rows: entries, Warnings: t.warnings}, nil
+}
+
+// parseEntry reads one row; the row collects what is wrong. The part is
+// validated (optics.Part.Validate) only when every cell parsed.
+func parseEntry(r *row, glasses optics.GlassTable) Entry {
+	e := Entry{Line: r.rec.line}
+	p := &e.Part
+	p.Supplier = r.required("supplier")
+	if strings.ContainsRune(p.Supplier, ':') {
+		r.fail("supplier", "%q holds a colon, which separates supplier from part in SUPPLIER:PART", p.Supplier)
+	}
+	if strings.HasPrefix(p.Supplier, "#") {
+		r.fail("supplier", "%q starts with #, which marks a comment line", p.Supplier)
+	}
+	p.Name = r.required("part")
+	p.Description = r.text("description")
+	if r.text("diameter") == "" {
+		r.fail("diameter", "is empty but required")
+	}
+	p.Diameter = r.positive("diameter", "mm")
+	p.ClearAperture = r.positive("clear_aperture", "mm")
+	parseSurfaces(r, p, glasses)
+	parseStated(r, &e)
+	if len(r.errs) == 0 {
+		if err := p.Validate(); err != nil {
+			for _, pr := range err.(optics.Problems) {
+				r.fail(pr.Field, "%s", pr.Reason)
+			}
+		}
+	}
+	return e
+}
+
+// parseSurfaces reads r1..rN, t1..t(N-1), glass1..glass(N-1) and the
+// optional conic and asphere columns, where N is the highest i with ri
+// filled (DESIGN.md).
+func parseSurfaces(r *row, p *optics.Part, glasses optics.GlassTable) {
+	n := 0
+	for i := 1; i <= MaxSurfaces; i++ {
+		if r.text(col("r", i)) != "" {
+			n = i
+		}
+	}
+	if n < 2 {
+		r.fail("r2", "is empty: a part needs at least two surfaces (inf or plano for a flat)")
+		return
+	}
+	p.Surfaces = make([]optics.Surface, n)
+	p.Thickness = make([]float64, n-1)
+	p.Media = make([]optics.Medium, n-1)
+	for i := 1; i <= n; i++ {
+		p.Surfaces[i-1].Radius = parseRadius(r, col("r", i), n)
+	}
+	for i := 1; i < n; i++ {
+		if r.text(col("t", i)) == "" {
+			r.fail(col("t", i), "is empty, but the part has %d surfaces and needs t1 to t%d", n, n-1)
+		}
+		p.Thickness[i-1] = r.positive(col("t", i), "mm")
+	}
+	for i := 1; i < n; i++ {
+		p.Media[i-1] = parseGlass(r, col("glass", i), n, glasses)
+	}
+	if p.Media[0] == optics.Air || p.Media[n-2] == optics.Air {
+		r.fail(col("glass", 1), "a part cannot begin or end with air; name the glass of its first and last element")
+	}
+	for i := 1; i <= n; i++ {
+		p.Surfaces[i-1].Conic, _ = r.number(col("conic", i))
+	}
+	for i := 1; i <= n; i++ {
+		p.Surfaces[i-1].Asph = parseAsph(r, col("asph", i))
+	}
+	for i := n; i <= MaxSurfaces; i++ {
+		for _, c := range []string{col("t", i), col("glass", i), col("conic", i+1), col("asph", i+1)} {
+			if r.text(c) != "" {
+				r.fail(c, "is filled but the part has only %d surfaces (r%d is the last radius given)", n, n)
+			}
+		}
+	}
+}
+
+func col(prefix string, i int) string { return prefix + strconv.Itoa(i) }
+
+// parseRadius reads a radius in mm; inf, infinity or plano (any case, any
+// sign) is a flat, stored as +Inf.
+func parseRadius(r *row, c string, n int) float64 {
+	s := r.text(c)
+	switch strings.TrimLeft(strings.ToLower(s), "+-") {
+	case "":
+		r.fail(c, "is empty, but the part has %d surfaces; write inf or plano for a flat", n)
+		return math.Inf(1)
+	case "inf", "infinity", "plano":
+		return math.Inf(1)
+	}
+	v, ok := r.number(c)
+	if ok && v == 0 {
+		r.fail(c, "a radius of 0 is not a surface; write inf or plano for a flat")
+	}
+	if !ok {
+		return math.Inf(1)
+	}
+	return v
+}
+
+var equalsSpace = regexp.MustCompile(`\s*=\s*`)
+
+// parseAsph reads even-asphere coefficients written "a4=1.2e-6 a6=-3.1e-10"
+// (space, comma or semicolon between terms; a4 ... a16 of h^4 ... h^16, in
+// the form of ISO 10110-12).
+func parseAsph(r *row, c string) [7]float64 {
+	var a [7]float64
+	s := equalsSpace.ReplaceAllString(r.text(c), "=")
+	set := map[string]bool{}
+	for _, term := range strings.FieldsFunc(s, func(r rune) bool { return r == ' ' || r == '\t' || r == ',' || r == ';' }) {
+		key, val, ok := strings.Cut(term, "=")
+		key = strings.ToLower(key)
+		i, known := asphIndex[key]
+		v, err := strconv.ParseFloat(val, 64)
+		switch {
+		case !ok || !known:
+			r.fail(c, "%q is not a term like a4=1.2e-6 (even orders a4 to a16)", term)
+		case err != nil || math.IsNaN(v) || math.IsInf(v, 0):
+			r.fail(c, "%s: %q is not a finite number", key, val)
+		case set[key]:
+			r.fail(c, "%s is given twice", key)
+		default:
+			set[key] = true
+			a[i] = v
+		}
+	}
+	return a
+}
+
+var asphIndex = map[string]int{"a4": 0, "a6": 1, "a8": 2, "a10": 3, "a12": 4, "a14": 5, "a16": 6}
+
+func parseGlass(r *row, c string, n int, glasses optics.GlassTable) optics.Medium {
+	name := r.text(c)
+	if name == "" {
+		r.fail(c, "is empty, but the part has %d surfaces and needs glass1 to glass%d", n, n-1)
+		return nil
+	}
+	m, err := glasses.Lookup(name)
+	if err != nil {
+		r.fail(c, "%v", err)
+	}
+	return m
+}
+
+// parseStated reads the supplier's stated values and the purchase fields.
+func parseStated(r *row, e *Entry) {
+	if v, ok := r.number("efl"); ok && v == 0 {
+		r.fail("efl", "0 is not a focal length; leave the cell empty when not stated")
+	} else {
+		e.StatedEFL = v
+	}
+	e.StatedBFD, _ = r.number("bfd")
+	e.StatedEdge = r.positive("edge_thickness", "mm")
+	e.StatedWavelength = r.positive("stated_wavelength", "nm")
+	if v, ok := r.number("price"); ok && v < 0 {
+		r.fail("price", "must not be negative, not %s", formatFloat(v))
+	} else {
+		e.Price = v
+	}
+	e.Currency = r.text("currency")
+	e.URL = r.text("url")
+	e.Notes = r.text("notes")
+}
+
+// sortErrors orders problems by line, keeping the order within a line.
+func sortErrors(errs FileErrors) {
+	slices.SortStableFunc(errs, func(a, b LineError) int { return cmp.Compare(a.Line, b.Line) })
+}
+
+// describe is a short form of a number of mm for messages.
+func describe(v float64) string { return fmt.Sprintf("%.5g", v) }
