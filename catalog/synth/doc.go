@@ -10,7 +10,7 @@
 // nominal one. The stated EFL, BFD and edge thickness of each entry agree
 // with its prescription, so the files import without warnings.
 //
-// Supplier names, part numbers, prices (in XDM, an invented demo currency)
+// Supplier names, part numbers, prices (in XTS, the ISO 4217 code reserved for testing)
 // and URLs (example.com) are invented; no real catalog data is used.
 // Output is deterministic: the same seed and size give the same catalog.
 package synth

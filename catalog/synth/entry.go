@@ -3,16 +3,18 @@ package synth
 import (
 	"fmt"
 	"math"
-	"strings"
 
 	"cardinal/importers"
 	"cardinal/optics"
 )
 
-// Currency is the code of the invented demo money every generated price is
-// in: XDM is not a real currency (ISO 4217 keeps codes starting with X for
-// private use).
-const Currency = "XDM"
+// Currency is the code of every generated price: XTS, the ISO 4217 code
+// reserved for testing, so that no one mistakes a demo price for money (the
+// small demo file testdata/demo/lenses.csv uses it too).
+const Currency = "XTS"
+
+// Notes is the note on every generated entry.
+const Notes = "demo figures"
 
 // A coating names a variant of the same prescription, as suppliers sell
 // one lens uncoated and with several antireflection coatings.
@@ -50,9 +52,7 @@ func (s supplier) entry(sp Spec, variant int) (importers.Entry, error) {
 	}
 	return importers.Entry{Part: p, StatedEFL: sp.EFL, StatedBFD: stated(c.BFD()),
 		StatedEdge: roundTo(edge, 0.01), Price: s.price(sp, variant%len(coatings) != 0),
-		Currency: Currency,
-		URL:      "https://example.com/" + strings.ToLower(s.name) + "/" + strings.ToLower(p.Name),
-	}, nil
+		Currency: Currency, URL: s.site + p.Name, Notes: Notes}, nil
 }
 
 // suffix is the part-number suffix of a variant: "", -A1, -A2, -A3, -R2, -A1-R2, ...
@@ -79,12 +79,12 @@ func stated(v float64) float64 {
 }
 
 var (
-	kindPrice  = [numKinds]float64{30, 32, 46, 40, 32, 34, 42, 96}
+	kindPrice  = [numKinds]float64{24, 27, 38, 31, 25, 26, 34, 68}
 	glassPrice = map[string]float64{"517642": 1, "589613": 1.15, "620364": 1.2, "755276": 1.45,
 		"785258": 1.6, "847238": 1.8, "fused-silica": 2.1, "caf2": 4.6, "sapphire": 6.5}
 )
 
-// price is an invented list price in XDM that grows with the diameter, the
+// price is an invented list price in XTS that grows with the diameter, the
 // kind of part, the glass, a fast focal ratio and a coating.
 func (s supplier) price(sp Spec, coated bool) float64 {
 	g := glassFactor(sp.Glass)

@@ -26,7 +26,7 @@ func ExampleCatalog() {
 		fmt.Printf("%s: %s, %g %s\n", e.Part.ID(), e.Part.Description, e.Price, e.Currency)
 	}
 	// Output:
-	// DEMO:ACH-80-H-BS: Cemented achromatic doublet, glasses 517642/785258, EFL 80 mm, dia. 12.7 mm, uncoated, 70.5 XDM
-	// DEMO:BFX-900-CF: Best-form lens, CaF2, EFL 900 mm, dia. 25.4 mm, uncoated, 211.5 XDM
-	// DEMO:BFX-160: Best-form lens, glass 517642, EFL 160 mm, dia. 25.4 mm, uncoated, 46 XDM
+	// DEMO:ACH-80-H-BS: Cemented achromatic doublet, glasses 517642/785258, EFL 80 mm, dia. 12.7 mm, uncoated, 50 XTS
+	// DEMO:BFX-900-CF: Best-form lens, CaF2, EFL 900 mm, dia. 25.4 mm, uncoated, 175 XTS
+	// DEMO:BFX-160: Best-form lens, glass 517642, EFL 160 mm, dia. 25.4 mm, uncoated, 38 XTS
 }

@@ -14,20 +14,22 @@ type supplier struct {
 	glass     string    // default singlet glass
 	crown     string    // default achromat glasses
 	flint     string
-	metric    bool // metric diameters, KP-25-50 part numbers; else inch sizes, PCX-50-H
-	statedCA  bool // states an explicit clear aperture (diameter less 1 mm, 80 % below 10 mm)
+	metric    bool   // metric diameters, KP-25-50 part numbers; else inch sizes, PCX-50-H
+	statedCA  bool   // states an explicit clear aperture (diameter less 1 mm, 80 % below 10 mm)
+	site      string // URL prefix of its part pages, at a reserved example domain (RFC 2606)
 }
 
 // The two invented suppliers of the demo scenario.
 var (
 	demoSupplier = supplier{name: "DEMO", diameters: []float64{25.4, 12.7, 50.8},
-		glass: "517642", crown: "517642", flint: "620364"}
+		glass: "517642", crown: "517642", flint: "620364", site: "https://demo.example.com/"}
 	tarnwick = supplier{name: "TARNWICK", diameters: []float64{25, 12, 30, 6, 9, 50, 10, 40},
-		glass: "589613", crown: "589613", flint: "755276", metric: true, statedCA: true}
+		glass: "589613", crown: "589613", flint: "755276", metric: true, statedCA: true,
+		site: "https://tarnwick.example.org/"}
 )
 
 var (
-	inchPrefix  = [numKinds]string{"PCX", "BCX", "BFX", "PMN", "PCV", "BCV", "NMN", "ACH"}
+	inchPrefix  = [numKinds]string{"PCX", "DCX", "BFX", "MEN", "PCV", "DCV", "NMN", "ACH"}
 	metricLabel = [numKinds]string{"P", "B", "F", "M", "C", "D", "N", "A"}
 	glassTag    = map[string]string{"517642": "B", "589613": "K", "620364": "F", "755276": "H",
 		"785258": "S", "847238": "X", "fused-silica": "UV", "caf2": "CF", "sapphire": "SA"}
