@@ -13,7 +13,7 @@ import (
 	"cardinal/optics"
 )
 
-var update = flag.Bool("update", false, "rewrite testdata/demo/catalog.csv and drawer.csv from the generator")
+var update = flag.Bool("update", false, "rewrite testdata/demo/catalog.csv, drawer.csv and glasses.csv from the generator")
 
 var demoDir = filepath.Join("..", "..", "testdata", "demo")
 
@@ -29,12 +29,17 @@ const catalogHeader = `# cardinal demo catalog: an INVENTED scenario, written by
 # included as they are.
 `
 
+const glassesHeader = `# cardinal demo user glasses, written by catalog/synth: an example for
+# cardinal glass import. mgf2-o is a published formula (source column);
+# melt-7a is an invented melt of crown glass given by its nd and Vd.
+`
+
 const drawerHeader = `# cardinal demo drawer: an INVENTED lab drawer of parts from catalog.csv,
 # written by catalog/synth. Location: drawer letter and slot number.
 `
 
 // demoFiles renders the demo catalog and drawer as the files should read.
-func demoFiles(t *testing.T) (catalog, drawer []byte) {
+func demoFiles(t *testing.T) (catalog, drawer, glasses []byte) {
 	t.Helper()
 	entries := Demo(keptDemoParts(t))
 	var c, d bytes.Buffer
@@ -46,7 +51,12 @@ func demoFiles(t *testing.T) (catalog, drawer []byte) {
 	if err := importers.WriteDrawer(&d, DemoDrawer(entries)); err != nil {
 		t.Fatal(err)
 	}
-	return c.Bytes(), d.Bytes()
+	var g bytes.Buffer
+	g.WriteString(glassesHeader)
+	if err := importers.WriteGlasses(&g, DemoGlasses()); err != nil {
+		t.Fatal(err)
+	}
+	return c.Bytes(), d.Bytes(), g.Bytes()
 }
 
 // keptDemoParts reads the DEMO parts of the small demo file lenses.csv.
@@ -83,11 +93,11 @@ func readCatalog(t *testing.T, name string) []importers.Entry {
 // TestDemoFiles checks that the committed demo files are what the
 // generator makes; -update rewrites them.
 func TestDemoFiles(t *testing.T) {
-	catalog, drawer := demoFiles(t)
+	catalog, drawer, glasses := demoFiles(t)
 	for _, f := range []struct {
 		name string
 		want []byte
-	}{{"catalog.csv", catalog}, {"drawer.csv", drawer}} {
+	}{{"catalog.csv", catalog}, {"drawer.csv", drawer}, {"glasses.csv", glasses}} {
 		path := filepath.Join(demoDir, f.name)
 		if *update {
 			if err := os.WriteFile(path, f.want, 0o644); err != nil {
@@ -182,5 +192,40 @@ func TestDemoDrawer(t *testing.T) {
 		if !ids[it.ID()] || it.Quantity < 1 || it.Location == "" {
 			t.Errorf("line %d: %s quantity %d at %q: want a catalog part, at least one, a location", it.Line, it.ID(), it.Quantity, it.Location)
 		}
+	}
+}
+
+// TestDemoGlasses reads the committed glasses back and checks them against
+// handbook indices.
+func TestDemoGlasses(t *testing.T) {
+	f, err := os.Open(filepath.Join(demoDir, "glasses.csv"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	file, err := importers.ReadGlassFile(f, "glasses.csv")
+	if err != nil || len(file.Warnings) > 0 {
+		t.Fatalf("reading glasses.csv: %v %v", err, file.Warnings)
+	}
+	want := map[string]struct{ nd, vd, tol float64 }{
+		// Magnesium fluoride, ordinary ray: no = 1.378 at the d line and Vd
+		// about 106 (the usual handbook values for MgF2, from memory).
+		"mgf2-o": {1.378, 106, 5e-4},
+		// The melt sheet values the file states.
+		"melt-7a": {1.5172, 64.1, 1e-9},
+	}
+	for _, g := range file.Rows {
+		w, ok := want[g.Name]
+		if !ok {
+			t.Errorf("unexpected glass %s", g.Name)
+			continue
+		}
+		m := g.Medium()
+		nd := m.Index(optics.LineD)
+		checkNear(t, g.Name+" nd", nd, w.nd, w.tol, 0)
+		checkNear(t, g.Name+" Vd", (nd-1)/(m.Index(optics.LineF)-m.Index(optics.LineC)), w.vd, 0, 0.02)
+	}
+	if len(file.Rows) != len(want) {
+		t.Errorf("%d glasses, want %d", len(file.Rows), len(want))
 	}
 }
