@@ -28,7 +28,7 @@ func (s Surface) intersect(p, d Vec3) (float64, bool) {
 // meets the normal (-c x, -c y, 1 - c z) with d.n >= 0), in the form that
 // stays exact as c goes to 0 (G. H. Spencer and M. V. R. K. Murty, "General
 // ray-tracing procedure", J. Opt. Soc. Am. 52, 672-678 (1962); W. T.
-// Welford, Aberrations of Optical Systems, 1986, sec. 4.3): from the point
+// Welford, Aberrations of Optical Systems, 1986, ch. 4): from the point
 // p0 where the ray crosses the vertex plane,
 // t = F / (G + sqrt(G^2 - c F)), G = d_z - c p0.d, F = c p0.p0.
 func intersectSphere(c float64, p, d Vec3) (float64, bool) {
@@ -99,7 +99,7 @@ func (s Surface) normal(q Vec3) Vec3 {
 // refract bends the unit direction d at a surface of unit normal nrm from
 // index n1 into n2 by Snell's law in vector form,
 // n' r' = n r + (n' cos I' - n cos I) nrm (Welford, Aberrations of Optical
-// Systems, 1986, sec. 4.3; Spencer and Murty 1962). It returns false on
+// Systems, 1986, ch. 4; Spencer and Murty 1962). It returns false on
 // total internal reflection.
 func refract(d, nrm Vec3, n1, n2 float64) (Vec3, bool) {
 	mu := n1 / n2

@@ -76,8 +76,8 @@ func TestAplanaticPoints(t *testing.T) {
 	// of index n at R (n + n')/n from the vertex images, at every aperture
 	// and with no spherical aberration, to a virtual point R (n + n')/n'
 	// from the vertex (Born and Wolf, Principles of Optics, 7th ed.,
-	// sec. 4.2.3; Welford, Aberrations of Optical Systems, 1986, sec. 7.?
-	// on aplanatic surfaces). Here the glass is on the object side and the
+	// sec. 4.2.3; Welford, Aberrations of Optical Systems, 1986, ch. 7, on
+	// aplanatic surfaces). Here the glass is on the object side and the
 	// surface bulges toward +z (R < 0).
 	for _, tc := range []struct {
 		name         string
