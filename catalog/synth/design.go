@@ -23,10 +23,10 @@ type Spec struct {
 	ClearAperture float64
 }
 
-// Design returns the prescription of a part meeting the spec: radii in
-// 0.01 mm (0.1 mm past 100 mm, 1 mm past 1000 mm), centre thicknesses in
-// 0.1 mm, and a thick-lens EFL at the d line within 0.1 % of the nominal
-// one. Supplier and Name are left empty. A spec that no sensible stock part
+// Design returns the prescription of a part meeting the spec: radii to
+// four significant figures, centre thicknesses in 0.1 mm, and a thick-lens
+// EFL at the d line within 0.2 % of the nominal one (only the rounding of
+// the radii moves it). Supplier and Name are left empty. A spec that no sensible stock part
 // meets (a radius near the semi-diameter, a lens thicker than 0.6 of its
 // diameter) is an error.
 func Design(s Spec) (optics.Part, error) {

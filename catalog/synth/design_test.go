@@ -40,8 +40,9 @@ func TestDesignSinglets(t *testing.T) {
 			n := p.Media[0].Index(optics.LineD)
 			r1, r2, d := p.Surfaces[0].Radius, p.Surfaces[1].Radius, p.Thickness[0]
 			efl, bfd := thickLens(r1, r2, d, n)
-			// The radii are rounded to 0.01 mm, which moves the EFL by far
-			// less than the 1 % stock tolerance; 0.1 % is asked here.
+			// The radii are rounded to four significant figures, which
+			// moves the EFL by far less than the 1 % stock tolerance; 0.1 %
+			// is asked here.
 			checkNear(t, "thick-lens EFL (Hecht eq. 6.2)", efl, tc.spec.EFL, 0, 1e-3)
 			c := p.System(nil, nil).Cardinal(optics.LineD)
 			checkNear(t, "optics EFL", c.EFL, efl, 0, 1e-9)

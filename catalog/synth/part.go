@@ -16,19 +16,13 @@ func (l *layout) part(s Spec) optics.Part {
 		Surfaces: surf, Thickness: l.t, Media: l.media}
 }
 
-// roundRadius gives the radius of curvature c rounded as a drawing states
-// it: 0.01 mm below 100 mm, 0.1 mm below 1000 mm, else 1 mm; a flat is +Inf.
+// roundRadius gives the radius of curvature c to four significant figures,
+// as a drawing states it (0.001 mm below 10 mm, 0.01 mm below 100 mm, ...);
+// a flat is +Inf.
 func roundRadius(c float64) float64 {
 	if c == 0 {
 		return math.Inf(1)
 	}
 	r := 1 / c
-	switch a := math.Abs(r); {
-	case a < 100:
-		return roundTo(r, 0.01)
-	case a < 1000:
-		return roundTo(r, 0.1)
-	default:
-		return roundTo(r, 1)
-	}
+	return roundTo(r, math.Pow(10, math.Floor(math.Log10(math.Abs(r)))-3))
 }

@@ -30,6 +30,11 @@ func (l *layout) solve(phi, diameter float64) error {
 		}
 		l.t = t
 	}
+	// Should the 0.1 mm steps not settle, the power is still solved for
+	// the thicknesses kept (solving again from a solution costs one step).
+	if err := l.solveScale(phi); err != nil {
+		return err
+	}
 	for _, t := range l.t {
 		if t > 0.6*diameter {
 			return errors.New("too thick for a stock part: centre thickness over 0.6 of the diameter")
