@@ -1,0 +1,149 @@
+package search
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"strings"
+
+	"cardinal/importers"
+	"cardinal/optics"
+)
+
+// An Item is one catalog entry offered to the search, with the number of
+// pieces of it in the user's drawer.
+type Item struct {
+	Entry  importers.Entry
+	Drawer int
+}
+
+// cand is one part in one orientation, by its thick-lens cardinal points at
+// the search wavelength, in air.
+type cand struct {
+	item  int32 // index into the items
+	rev   bool
+	phi   float64 // power, 1/mm
+	f     float64 // EFL
+	L     float64 // first to last vertex
+	P, Pp float64 // principal points (front from the first vertex, back from the last)
+	F, Fp float64 // focal points, same references
+	delta float64 // L + Pp - P: from the front to the back principal point
+	m     optics.Mat2
+	semi  float64 // clear semi-aperture
+	first optics.Surface
+	last  optics.Surface
+	price float64 // price term of one piece (see score.go)
+	away  float64 // 1 when no piece is in the drawer, else 0
+	qty   int     // pieces in the drawer
+	key   int32   // rank of the part ID, for deterministic ties
+}
+
+// prepared holds the candidates of one search and what was set aside.
+type prepared struct {
+	items    []Item
+	cands    []cand // sorted by power
+	skipped  map[string]int
+	warnings []string
+	priceRef float64
+}
+
+// prepare filters the items by the requirement's part constraints and
+// computes the candidates at the requirement's wavelength.
+func prepare(items []Item, req Requirement) *prepared {
+	p := &prepared{items: items, skipped: map[string]int{}}
+	lambda := req.Lambda()
+	keys := idRanks(items)
+	warned := map[string]bool{}
+	for i, it := range items {
+		part := it.Entry.Part
+		if reason := p.filter(it, req); reason != "" {
+			p.skipped[reason]++
+			continue
+		}
+		for _, rev := range orientations(part) {
+			pp := part
+			if rev {
+				pp = part.Reversed()
+			}
+			sys := pp.System(nil, nil)
+			for _, w := range sys.RangeWarnings(lambda) {
+				if !warned[w] {
+					warned[w] = true
+					p.warnings = append(p.warnings, w)
+				}
+			}
+			c, ok := newCand(pp, sys.Cardinal(lambda))
+			if !ok {
+				p.skipped["no focusing power (afocal part)"]++
+				break
+			}
+			c.item, c.rev, c.key = int32(i), rev, keys[i]
+			c.qty = it.Drawer
+			if it.Drawer < 1 {
+				c.away = 1
+			}
+			p.cands = append(p.cands, c)
+		}
+	}
+	sort.Strings(p.warnings)
+	p.priceRef = priceReference(items)
+	for i := range p.cands {
+		p.cands[i].price = priceTerm(items[p.cands[i].item].Entry.Price, p.priceRef)
+	}
+	sort.SliceStable(p.cands, func(i, j int) bool { return p.cands[i].phi < p.cands[j].phi })
+	return p
+}
+
+// filter tells why an item takes no part in the search, or "".
+func (p *prepared) filter(it Item, req Requirement) string {
+	part := it.Entry.Part
+	switch {
+	case req.Supplier != "" && !strings.EqualFold(part.Supplier, req.Supplier):
+		return "other supplier"
+	case req.DrawerOnly && it.Drawer < 1:
+		return "not in the drawer"
+	case req.DiameterMax > 0 && part.Diameter > req.DiameterMax:
+		return fmt.Sprintf("diameter over %g mm", req.DiameterMax)
+	case part.Validate() != nil:
+		return "invalid prescription"
+	}
+	return ""
+}
+
+// orientations lists the orientations to try: a symmetric part once.
+func orientations(p optics.Part) []bool {
+	if p.Symmetric() {
+		return []bool{false}
+	}
+	return []bool{false, true}
+}
+
+func newCand(p optics.Part, c optics.Cardinal) (cand, bool) {
+	if c.Afocal || math.Abs(c.Power) < optics.AfocalPower {
+		return cand{}, false
+	}
+	return cand{
+		phi: c.Power, f: c.EFL, L: c.Length,
+		P: c.P, Pp: c.PPrime, F: c.F, Fp: c.FPrime,
+		delta: c.Length + c.PPrime - c.P,
+		m:     c.Matrix,
+		semi:  p.Aperture() / 2,
+		first: p.Surfaces[0], last: p.Surfaces[len(p.Surfaces)-1],
+	}, true
+}
+
+// idRanks gives each item the rank of its part ID in sorted order.
+func idRanks(items []Item) []int32 {
+	idx := make([]int, len(items))
+	for i := range idx {
+		idx[i] = i
+	}
+	sort.SliceStable(idx, func(a, b int) bool {
+		return items[idx[a]].Entry.Part.ID() < items[idx[b]].Entry.Part.ID()
+	})
+	r := make([]int32, len(items))
+	for rank, i := range idx {
+		r[i] = int32(rank)
+	}
+	return r
+}

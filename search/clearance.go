@@ -1,0 +1,74 @@
+package search
+
+import (
+	"math"
+
+	"cardinal/optics"
+)
+
+// edgeClearance is the least axial distance between the last surface of a
+// and the first surface of b, a gap apart at their vertices, over the
+// heights both clear apertures share. For two spheres the distance
+// gap - sagA(h) + sagB(h) is monotonic in h (the sag slope c h /
+// sqrt(1 - c^2 h^2) grows with the curvature c), so its least value is at
+// the axis or at the shared clear aperture; conics and aspheres are sampled.
+func edgeClearance(a, b *cand, gap float64) float64 {
+	h := math.Min(a.semi, b.semi)
+	at := func(h float64) float64 {
+		za, _ := a.last.Sag(h)
+		zb, _ := b.first.Sag(h)
+		return gap - za + zb
+	}
+	least := math.Min(gap, at(h))
+	if a.last.IsAsphere() || b.first.IsAsphere() {
+		const samples = 32
+		for i := 1; i < samples; i++ {
+			least = math.Min(least, at(h*float64(i)/samples))
+		}
+	}
+	return least
+}
+
+// ray is a paraxial ray in air: height and angle (reduced angle with n = 1).
+type ray struct{ y, u float64 }
+
+func (r ray) through(m optics.Mat2) ray {
+	y, u := m.Apply(r.y, r.u)
+	return ray{y, u}
+}
+
+func (r ray) travel(d float64) ray { return ray{r.y + d*r.u, r.u} }
+
+// rayHeights traces the paraxial marginal and chief rays through the layout
+// and records the largest height over clear semi-aperture at the outer
+// surfaces of each part. A collimated beam (focus, expand) enters at half
+// its diameter; for an image the marginal ray leaves the axial object point
+// at the NA and the chief ray leaves the edge of the field towards the first
+// vertex, where the aperture stop is taken to be.
+func (s *search) rayHeights(l *layout) {
+	var marg, chief ray
+	switch s.req.Kind {
+	case Image:
+		marg = ray{s.req.NA * l.wd, s.req.NA}
+		chief = ray{0, -s.req.ObjectHeight / l.wd}
+	default:
+		marg = ray{s.req.Beam / 2, 0}
+	}
+	parts := []int32{l.a}
+	if l.pair() {
+		parts = append(parts, l.b)
+	}
+	l.vigRatio, l.vigPart = 0, 0
+	for k, ci := range parts {
+		c := &s.c[ci]
+		if k > 0 {
+			marg, chief = marg.travel(l.gap), chief.travel(l.gap)
+		}
+		front := (math.Abs(marg.y) + math.Abs(chief.y)) / c.semi
+		marg, chief = marg.through(c.m), chief.through(c.m)
+		back := (math.Abs(marg.y) + math.Abs(chief.y)) / c.semi
+		if r := math.Max(front, back); r > l.vigRatio {
+			l.vigRatio, l.vigPart = r, int8(k)
+		}
+	}
+}

@@ -1,0 +1,41 @@
+package search
+
+import "math"
+
+// iv is a closed interval of real numbers, for the enclosures the pruning
+// relies on (R. E. Moore, Interval Analysis, Prentice-Hall 1966: the natural
+// interval extension of an expression encloses its range). No directed
+// rounding: callers widen the final test by a relative margin instead.
+type iv struct{ lo, hi float64 }
+
+func pt(x float64) iv { return iv{x, x} }
+
+func span(a, b float64) iv { return iv{math.Min(a, b), math.Max(a, b)} }
+
+func (a iv) add(b iv) iv { return iv{a.lo + b.lo, a.hi + b.hi} }
+
+func (a iv) sub(b iv) iv { return iv{a.lo - b.hi, a.hi - b.lo} }
+
+func (a iv) mul(b iv) iv {
+	p := [4]float64{a.lo * b.lo, a.lo * b.hi, a.hi * b.lo, a.hi * b.hi}
+	r := iv{p[0], p[0]}
+	for _, x := range p[1:] {
+		r.lo, r.hi = math.Min(r.lo, x), math.Max(r.hi, x)
+	}
+	return r
+}
+
+// sq is the range of x^2 over the interval, tighter than a.mul(a).
+func (a iv) sq() iv {
+	l, h := a.lo*a.lo, a.hi*a.hi
+	if a.lo <= 0 && a.hi >= 0 {
+		return iv{0, math.Max(l, h)}
+	}
+	return span(l, h)
+}
+
+// mag is the largest absolute value in the interval.
+func (a iv) mag() float64 { return math.Max(math.Abs(a.lo), math.Abs(a.hi)) }
+
+// holdsZero tells whether the interval, widened by margin, contains 0.
+func (a iv) holdsZero(margin float64) bool { return a.lo <= margin && a.hi >= -margin }

@@ -1,0 +1,120 @@
+package search
+
+import "math"
+
+// Checks a layout can fail, one bit each.
+const (
+	failTarget   uint16 = 1 << iota // EFL, magnification or expansion out of tolerance
+	failForm                        // Keplerian asked, Galilean found, or the other way
+	failBack                        // back clearance below the minimum
+	failWD                          // working distance below the minimum
+	failGap                         // facing surfaces closer than the gap minimum
+	failEnvelope                    // longer than the length maximum
+	failAperture                    // a ray height exceeds a part's clear aperture
+	failDrawer                      // the drawer holds fewer pieces than needed
+)
+
+// checkNames are the names of the checks in output, in bit order.
+var checkNames = []string{"target", "form", "back_clearance", "working_distance", "gap", "envelope", "aperture", "drawer"}
+
+// layout is one way to use one candidate or two: the solved distances, the
+// achieved first-order figure and the checks.
+type layout struct {
+	a, b  int32 // candidate indices; b < 0 for a singlet
+	root  int8  // which root of the solve (0 or 1)
+	gap   float64
+	wd    float64 // working distance; NaN for an object at infinity
+	bc    float64 // back clearance; NaN for an afocal system
+	env   float64 // envelope, first to last vertex
+	track float64 // object (or first vertex) to image; NaN for an afocal system
+	value float64 // achieved EFL, magnification or expansion
+	err   float64 // value - target
+	form  Form
+
+	edge     float64 // edge clearance between the facing surfaces (pairs)
+	vigRatio float64 // largest ray height over clear semi-aperture; 0 unchecked
+	vigPart  int8    // the part (0 or 1) where vigRatio occurs
+	fails    uint16
+	score    float64
+}
+
+func (l *layout) meets() bool  { return l.fails == 0 }
+func (l *layout) pair() bool   { return l.b >= 0 }
+func (l *layout) elements() int { return 1 + b2i(l.b >= 0) }
+
+func b2i(b bool) int {
+	if b {
+		return 1
+	}
+	return 0
+}
+
+// better is the ranking order: meets every check first, then the lower
+// score, then fewer parts, then the part IDs, orientations and root, so
+// that ties always fall the same way.
+func (s *search) better(x, y *layout) bool {
+	if x.meets() != y.meets() {
+		return x.meets()
+	}
+	if x.score != y.score {
+		return x.score < y.score
+	}
+	if x.elements() != y.elements() {
+		return x.elements() < y.elements()
+	}
+	if k, l := s.sortKey(x.a), s.sortKey(y.a); k != l {
+		return k < l
+	}
+	if x.b != y.b {
+		if x.b < 0 || y.b < 0 {
+			return x.b < y.b
+		}
+		if k, l := s.sortKey(x.b), s.sortKey(y.b); k != l {
+			return k < l
+		}
+	}
+	return x.root < y.root
+}
+
+// sortKey orders candidates by part ID, then orientation.
+func (s *search) sortKey(i int32) int64 {
+	c := &s.c[i]
+	return int64(c.key)*2 + int64(b2i(c.rev))
+}
+
+// finish applies the checks common to every kind and computes the score.
+func (s *search) finish(l *layout) {
+	r := &s.req
+	if math.Abs(l.err) > s.tol {
+		l.fails |= failTarget
+	}
+	if !math.IsNaN(l.bc) && l.bc < r.BFDMin {
+		l.fails |= failBack
+	}
+	if !math.IsNaN(l.wd) && l.wd < r.WDMin {
+		l.fails |= failWD
+	}
+	if r.LengthMax > 0 && l.env > r.LengthMax {
+		l.fails |= failEnvelope
+	}
+	a := &s.c[l.a]
+	if l.pair() {
+		b := &s.c[l.b]
+		l.edge = edgeClearance(a, b, l.gap)
+		if l.edge < r.GapMin {
+			l.fails |= failGap
+		}
+		if a.item == b.item && r.DrawerOnly && a.qty < 2 {
+			l.fails |= failDrawer
+		}
+		l.score = s.sc.pair(a, b, l.err, l.env, pairAway(a, b))
+	} else {
+		l.score = s.sc.singlet(a, l.err, l.env)
+	}
+	if r.ChecksAperture() {
+		s.rayHeights(l)
+		if l.vigRatio > 1 {
+			l.fails |= failAperture
+		}
+	}
+}

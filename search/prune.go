@@ -1,0 +1,176 @@
+package search
+
+import "math"
+
+// node is a node of the tree over the candidates sorted by power: the range
+// of its candidates and bounds on everything the pruning tests use.
+type node struct {
+	lo, hi       int32 // candidates [lo, hi)
+	left, right  int32 // children; -1 for a leaf
+	phiLo, phiHi float64
+	pMin, pMax   float64 // front principal point
+	ppMin, ppMax float64 // back principal point
+	lMin         float64 // length
+	dMin, dMax   float64 // principal-point separation
+	priceMin     float64
+	awayMin      float64
+}
+
+const leafSize = 8
+
+// buildTree builds the tree over cands[lo:hi] (all of one sign of power)
+// and returns its root, or -1 when the range is empty.
+func (s *search) buildTree(lo, hi int32) int32 {
+	if lo >= hi {
+		return -1
+	}
+	id := int32(len(s.nodes))
+	s.nodes = append(s.nodes, node{lo: lo, hi: hi, left: -1, right: -1})
+	if hi-lo > leafSize {
+		mid := (lo + hi) / 2
+		l := s.buildTree(lo, mid)
+		r := s.buildTree(mid, hi)
+		s.nodes[id].left, s.nodes[id].right = l, r
+		s.nodes[id].bounds(s.nodes[l], s.nodes[r])
+		return id
+	}
+	n := &s.nodes[id]
+	n.phiLo, n.phiHi = s.c[lo].phi, s.c[hi-1].phi
+	n.pMin, n.pMax, n.ppMin, n.ppMax = math.Inf(1), math.Inf(-1), math.Inf(1), math.Inf(-1)
+	n.lMin, n.dMin, n.dMax = math.Inf(1), math.Inf(1), math.Inf(-1)
+	n.priceMin, n.awayMin = math.Inf(1), math.Inf(1)
+	for i := lo; i < hi; i++ {
+		c := &s.c[i]
+		n.pMin, n.pMax = math.Min(n.pMin, c.P), math.Max(n.pMax, c.P)
+		n.ppMin, n.ppMax = math.Min(n.ppMin, c.Pp), math.Max(n.ppMax, c.Pp)
+		n.lMin = math.Min(n.lMin, c.L)
+		n.dMin, n.dMax = math.Min(n.dMin, c.delta), math.Max(n.dMax, c.delta)
+		n.priceMin, n.awayMin = math.Min(n.priceMin, c.price), math.Min(n.awayMin, c.away)
+	}
+	return id
+}
+
+func (n *node) bounds(l, r node) {
+	n.phiLo, n.phiHi = l.phiLo, r.phiHi
+	n.pMin, n.pMax = math.Min(l.pMin, r.pMin), math.Max(l.pMax, r.pMax)
+	n.ppMin, n.ppMax = math.Min(l.ppMin, r.ppMin), math.Max(l.ppMax, r.ppMax)
+	n.lMin = math.Min(l.lMin, r.lMin)
+	n.dMin, n.dMax = math.Min(l.dMin, r.dMin), math.Max(l.dMax, r.dMax)
+	n.priceMin, n.awayMin = math.Min(l.priceMin, r.priceMin), math.Min(l.awayMin, r.awayMin)
+}
+
+// margin widens every pruning test so that rounding never prunes a pair
+// the exhaustive search would keep.
+func margin(x float64) float64 { return 1e-9 * (1 + math.Abs(x)) }
+
+// restBound is the least score of any pair a then b with b in n, leaving
+// out the envelope and error terms.
+func (s *search) restBound(a *cand, n *node) float64 {
+	w := s.sc.w
+	return w.Elements + w.Price*(a.price+n.priceMin) + w.Drawer*(a.away+n.awayMin)/2
+}
+
+// open tells whether some candidate b in node n could, after a, give a
+// layout the search keeps: within the gap, envelope and clearance limits,
+// and with a score no worse than the current bound.
+func (s *search) open(a *cand, n *node) bool {
+	bound := s.bound()
+	rest := s.restBound(a, n)
+	if rest > bound+margin(bound) {
+		return false
+	}
+	// Envelope limit: the length maximum, and what the score bound allows.
+	envMax := s.lim.lengthMax
+	if !math.IsInf(bound, 1) {
+		envMax = math.Min(envMax, (bound+margin(bound)-rest)*s.sc.lref/s.sc.w.Envelope)
+	}
+	gMin := s.lim.gapMin
+	gMax := envMax - a.L - n.lMin
+	gMax += margin(gMax)
+	if gMax < gMin {
+		return false
+	}
+	f2 := span(1/n.phiLo, 1/n.phiHi)
+	switch s.req.Kind {
+	case Focus:
+		return s.openFocus(a, n, f2, gMin, gMax)
+	case Expand:
+		return s.openExpand(a, n, f2, gMin, gMax, bound, rest)
+	}
+	return s.openImage(a, n, gMin, gMax)
+}
+
+// openFocus: with e = f1 + f2 (1 - f1/f0) from Gullstrand's equation (see
+// spacingFor) the gap is linear in f2, and so is the back clearance
+// P'b + f2 (1 - f0/f1).
+func (s *search) openFocus(a *cand, n *node, f2 iv, gMin, gMax float64) bool {
+	f0 := s.req.EFL
+	e := pt(a.f).add(f2.mul(pt(1 - a.f/f0)))
+	g := e.sub(iv{n.pMin, n.pMax}).add(pt(a.Pp))
+	if g.hi+margin(g.hi) < gMin || g.lo-margin(g.lo) > gMax {
+		return false
+	}
+	bc := iv{n.ppMin, n.ppMax}.add(f2.mul(pt(1 - f0/a.f)))
+	return bc.hi+margin(bc.hi) >= s.lim.bfdMin
+}
+
+// openExpand: afocal, so the principal points are f1 + f2 apart and the
+// expansion is |f2/f1|.
+func (s *search) openExpand(a *cand, n *node, f2 iv, gMin, gMax, bound, rest float64) bool {
+	if a.phi < 0 && n.phiHi < 0 {
+		return false
+	}
+	if s.lim.form == Keplerian && (a.phi < 0 || n.phiHi < 0) || s.lim.form == Galilean && (a.phi > 0) == (n.phiLo > 0) {
+		return false
+	}
+	g := pt(a.f).add(f2).sub(iv{n.pMin, n.pMax}).add(pt(a.Pp))
+	if g.hi+margin(g.hi) < gMin || g.lo-margin(g.lo) > gMax {
+		return false
+	}
+	ratio := f2.mul(pt(1 / a.f))
+	e := span(math.Abs(ratio.lo), math.Abs(ratio.hi))
+	if ratio.lo < 0 && ratio.hi > 0 {
+		e.lo = 0
+	}
+	miss := math.Max(0, math.Max(e.lo-s.req.Expansion, s.req.Expansion-e.hi))
+	miss -= margin(s.req.Expansion)
+	if miss > s.lim.admit {
+		return false
+	}
+	if miss <= 0 {
+		return true
+	}
+	env := a.L + math.Max(gMin, g.lo) + n.lMin
+	lb := rest + s.sc.w.Envelope*env/s.sc.lref + s.sc.w.Error*s.sc.errTerm(miss)
+	return lb <= bound+margin(bound)
+}
+
+// openImage tests the relation every image layout of the pair satisfies:
+// with R = T - (principal-point separations of a and b), M = 2 - m - 1/m
+// and e the distance between the back principal point of a and the front
+// one of b, the track T = R + D_ab + ... reduces to
+//
+//	h = M - R (phi1 + phi2 - e phi1 phi2) - phi1 phi2 e^2 = 0,
+//
+// from T = (principal-point separation of the pair) + f (2 - m - 1/m)
+// (object and image distances f (1 - 1/m) and f (1 - m) from the principal
+// points; Smith, Modern Optical Engineering, 4th ed., ch. 2) and the pair's
+// principal-point separation from Gullstrand's equation (Hecht, Optics,
+// 5th ed., ch. 6). An afocal pair satisfies it too. The node stays open
+// when the interval of h over the node's bounds holds zero.
+func (s *search) openImage(a *cand, n *node, gMin, gMax float64) bool {
+	T, m := s.req.Track, s.req.Mag
+	gMax = math.Min(gMax, T-s.lim.wdMin-s.lim.bfdMin-a.L-n.lMin)
+	if gMax < gMin-margin(gMin) {
+		return false
+	}
+	e := iv{gMin + n.pMin - a.Pp, gMax + n.pMax - a.Pp}
+	R := iv{T - a.delta - n.dMax, T - a.delta - n.dMin}
+	phi1, phi2 := pt(a.phi), iv{n.phiLo, n.phiHi}
+	p12 := phi1.mul(phi2)
+	power := phi1.add(phi2).sub(e.mul(p12))
+	mm := 2 - m - 1/m
+	h := pt(mm).sub(R.mul(power)).sub(p12.mul(e.sq()))
+	scale := math.Abs(mm) + R.mag()*power.mag() + p12.mag()*e.sq().mag()
+	return h.holdsZero(1e-9 * scale)
+}

@@ -1,0 +1,250 @@
+package search
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"strings"
+
+	"cardinal/optics"
+)
+
+// Kind is what a requirement asks of the optics.
+type Kind string
+
+// The three requirement kinds (see DESIGN.md, "Requirement kinds").
+const (
+	Focus  Kind = "focus"  // infinite conjugate: an EFL, focusing a collimated beam
+	Image  Kind = "image"  // finite conjugate: a track and a magnification
+	Expand Kind = "expand" // afocal: a beam-expansion ratio
+)
+
+// Form is the kind of afocal pair a beam expander may be.
+type Form string
+
+// Expander forms; the empty Form accepts either.
+const (
+	AnyForm   Form = ""
+	Keplerian Form = "keplerian" // two positive parts, an internal focus
+	Galilean  Form = "galilean"  // a negative and a positive part, no internal focus
+)
+
+// Prefer shifts the ranking weights (see Weights).
+type Prefer string
+
+// Preferences; the empty one is the balanced default.
+const (
+	Balanced    Prefer = ""
+	PreferDraw  Prefer = "drawer"
+	PreferShort Prefer = "short"
+	PreferCheap Prefer = "cheap"
+)
+
+// DefaultGapMin is the edge clearance between facing parts that the command
+// line and spec files use when none is given, in mm.
+const DefaultGapMin = 0.5
+
+// DefaultTop is how many results the command line shows when not told.
+const DefaultTop = 10
+
+// A Requirement is what the user asks for. Lengths in mm, the wavelength in
+// nm. Zero values mean "not given" except where a field says otherwise.
+type Requirement struct {
+	Kind Kind `json:"kind"`
+
+	// Focus.
+	EFL    float64   `json:"efl_mm,omitempty"`
+	EFLTol Tolerance `json:"efl_tol"`
+
+	// Image: track (object plane to image plane) and signed magnification.
+	Track        float64   `json:"track_mm,omitempty"`
+	Mag          float64   `json:"magnification,omitempty"`
+	MagTol       Tolerance `json:"mag_tol"`
+	ObjectHeight float64   `json:"object_height_mm,omitempty"` // half the object field
+	NA           float64   `json:"na,omitempty"`               // object-space numerical aperture
+	WDMin        float64   `json:"wd_min_mm,omitempty"`        // working distance minimum
+
+	// Expand: output over input beam diameter, positive.
+	Expansion float64   `json:"expansion,omitempty"`
+	ExpandTol Tolerance `json:"expand_tol"`
+	Form      Form      `json:"form,omitempty"`
+
+	// Common.
+	Beam        float64 `json:"beam_mm,omitempty"`         // collimated input beam diameter (focus, expand)
+	BFDMin      float64 `json:"bfd_min_mm,omitempty"`      // back clearance minimum (focus, image)
+	LengthMax   float64 `json:"length_max_mm,omitempty"`   // envelope maximum; 0 none
+	DiameterMax float64 `json:"diameter_max_mm,omitempty"` // part diameter maximum; 0 none
+	GapMin      float64 `json:"gap_min_mm"`                // edge clearance between facing parts; zero is zero
+	Elements    int     `json:"elements,omitempty"`        // 1 singlets only; 2 (or 0) singlets and pairs
+	Wavelength  float64 `json:"wavelength_nm,omitempty"`   // 0 means the d line
+	Supplier    string  `json:"supplier,omitempty"`        // only this supplier's parts; "" all
+	DrawerOnly  bool    `json:"drawer_only,omitempty"`     // only parts in the drawer
+	Top         int     `json:"top"`                       // results to keep; 0 all that meet
+	Prefer      Prefer  `json:"prefer,omitempty"`
+}
+
+// Defaults returns the requirement the command line starts from: gap
+// minimum 0.5 mm, top 10, singlets and pairs, the d line.
+func Defaults() Requirement {
+	return Requirement{GapMin: DefaultGapMin, Top: DefaultTop, Elements: 2, Wavelength: optics.LineD}
+}
+
+// Lambda is the wavelength in nm, the d line when not given.
+func (r Requirement) Lambda() float64 {
+	if r.Wavelength == 0 {
+		return optics.LineD
+	}
+	return r.Wavelength
+}
+
+// MaxElements is 1 or 2.
+func (r Requirement) MaxElements() int {
+	if r.Elements == 1 {
+		return 1
+	}
+	return 2
+}
+
+// ChecksAperture tells whether ray heights are checked: only when a beam, an
+// NA or an object height is given.
+func (r Requirement) ChecksAperture() bool {
+	return r.Beam > 0 || r.NA > 0 || r.ObjectHeight > 0
+}
+
+// Laser tells whether the requirement mentions a laser: a beam, or a
+// wavelength outside the visible 400-700 nm.
+func (r Requirement) Laser() bool {
+	l := r.Lambda()
+	return r.Beam > 0 || l < 400 || l > 700
+}
+
+// Validate rejects impossible or contradictory requirements before any
+// search, every problem in one error.
+func (r Requirement) Validate() error {
+	var errs []string
+	bad := func(format string, a ...any) { errs = append(errs, fmt.Sprintf(format, a...)) }
+	for _, f := range r.numbers() {
+		if math.IsNaN(f.v) || math.IsInf(f.v, 0) {
+			bad("%s must be a finite number", f.name)
+		} else if f.v < 0 && f.name != "magnification" {
+			bad("%s is negative (%g)", f.name, f.v)
+		}
+	}
+	if len(errs) > 0 {
+		return joinProblems(errs)
+	}
+	switch r.Kind {
+	case Focus:
+		r.validateFocus(bad)
+	case Image:
+		r.validateImage(bad)
+	case Expand:
+		r.validateExpand(bad)
+	default:
+		bad("say what to find: an EFL (--efl), a track and magnification (--track, --mag), or a beam expansion (--expand)")
+	}
+	r.validateCommon(bad)
+	return joinProblems(errs)
+}
+
+type named struct {
+	name string
+	v    float64
+}
+
+func (r Requirement) numbers() []named {
+	return []named{{"efl", r.EFL}, {"efl tolerance", r.EFLTol.Value}, {"track", r.Track},
+		{"magnification", r.Mag}, {"magnification tolerance", r.MagTol.Value},
+		{"object height", r.ObjectHeight}, {"NA", r.NA}, {"working distance minimum", r.WDMin},
+		{"expansion", r.Expansion}, {"expansion tolerance", r.ExpandTol.Value}, {"beam", r.Beam},
+		{"back clearance minimum", r.BFDMin}, {"length maximum", r.LengthMax},
+		{"diameter maximum", r.DiameterMax}, {"gap minimum", r.GapMin}, {"wavelength", r.Wavelength}}
+}
+
+func (r Requirement) validateFocus(bad func(string, ...any)) {
+	if r.EFL <= 0 {
+		bad("a focus requirement needs a positive EFL (--efl); to spread a beam use --expand")
+	} else if r.EFLTol.Abs(r.EFL) >= r.EFL {
+		bad("the EFL tolerance %s is as large as the EFL itself", r.EFLTol)
+	}
+	r.notFor("focus", bad, named{"--track", r.Track}, named{"--mag", r.Mag}, named{"--na", r.NA},
+		named{"--object-height", r.ObjectHeight}, named{"--wd-min", r.WDMin}, named{"--expand", r.Expansion})
+	if r.Form != AnyForm {
+		bad("--galilean and --keplerian apply to --expand only")
+	}
+}
+
+func (r Requirement) validateImage(bad func(string, ...any)) {
+	switch {
+	case r.Track <= 0:
+		bad("an image requirement needs a positive track (--track), object plane to image plane")
+	case r.Mag == 0:
+		bad("an image requirement needs a non-zero magnification (--mag); an object at infinity is a focus requirement (--efl)")
+	case r.MagTol.Abs(r.Mag) >= math.Abs(r.Mag):
+		bad("the magnification tolerance %s is as large as the magnification itself", r.MagTol)
+	case r.WDMin+r.BFDMin >= r.Track:
+		bad("the working distance minimum %g mm and back clearance minimum %g mm leave nothing of the %g mm track", r.WDMin, r.BFDMin, r.Track)
+	case r.Mag > 0 && r.MaxElements() == 1:
+		bad("a single part forms an inverted real image (negative magnification); an erect image (%g) needs two elements", r.Mag)
+	}
+	if r.NA >= 1 {
+		bad("an NA in air must be below 1, not %g", r.NA)
+	}
+	r.notFor("image", bad, named{"--efl", r.EFL}, named{"--beam", r.Beam}, named{"--expand", r.Expansion})
+	if r.Form != AnyForm {
+		bad("--galilean and --keplerian apply to --expand only")
+	}
+}
+
+func (r Requirement) validateExpand(bad func(string, ...any)) {
+	switch {
+	case r.Expansion <= 0:
+		bad("a beam expansion (--expand) must be positive: output over input beam diameter")
+	case r.ExpandTol.Abs(r.Expansion) >= r.Expansion:
+		bad("the expansion tolerance %s is as large as the expansion itself", r.ExpandTol)
+	}
+	if r.MaxElements() == 1 {
+		bad("a beam expander needs two elements; drop --elements 1")
+	}
+	if r.Form != AnyForm && r.Form != Keplerian && r.Form != Galilean {
+		bad("unknown expander form %q: use keplerian or galilean", r.Form)
+	}
+	r.notFor("expand", bad, named{"--efl", r.EFL}, named{"--track", r.Track}, named{"--mag", r.Mag},
+		named{"--na", r.NA}, named{"--object-height", r.ObjectHeight}, named{"--wd-min", r.WDMin},
+		named{"--bfd-min", r.BFDMin})
+}
+
+func (r Requirement) notFor(kind string, bad func(string, ...any), fs ...named) {
+	for _, f := range fs {
+		if f.v != 0 {
+			bad("%s does not apply to a %s requirement", f.name, kind)
+		}
+	}
+}
+
+func (r Requirement) validateCommon(bad func(string, ...any)) {
+	if r.Elements != 0 && r.Elements != 1 && r.Elements != 2 {
+		bad("--elements must be 1 or 2, not %d", r.Elements)
+	}
+	if r.Top < 0 {
+		bad("--top must be 0 (all) or more, not %d", r.Top)
+	}
+	if l := r.Lambda(); l < 150 || l > 20000 {
+		bad("wavelength %g nm is outside 150-20000 nm", l)
+	}
+	switch r.Prefer {
+	case Balanced, PreferDraw, PreferShort, PreferCheap:
+	default:
+		bad("unknown preference %q: use drawer, short or cheap", r.Prefer)
+	}
+	if r.LengthMax > 0 && r.LengthMax <= r.GapMin && r.MaxElements() == 2 && r.Kind == Expand {
+		bad("the length maximum %g mm leaves no room for two parts %g mm apart", r.LengthMax, r.GapMin)
+	}
+}
+
+func joinProblems(errs []string) error {
+	if len(errs) == 0 {
+		return nil
+	}
+	return errors.New("requirement: " + strings.Join(errs, "; "))
+}

@@ -1,0 +1,135 @@
+package search
+
+import (
+	"math"
+	"sort"
+)
+
+// Weights of the ranking score. The score of a result is
+//
+//	Error * |achieved - target| / tolerance      (0 for a pair solved at the target)
+//	+ Envelope * envelope / reference length      (EFL for focus, track for image, 100 mm for expand)
+//	+ Elements * (number of parts - 1)
+//	+ Price * sum over pieces of price / median catalog price (unknown price counts as the median)
+//	+ Drawer * share of the pieces not available from the drawer
+//
+// Lower is better. Each term is a sum over the parts of something that can
+// only grow, which is what lets the search bound the score of the pairs it
+// has not evaluated (see prune.go).
+type Weights struct {
+	Error, Envelope, Elements, Price, Drawer float64
+}
+
+// WeightsFor returns the weights of a preference: the balanced default, or
+// one term made three times as heavy.
+func WeightsFor(p Prefer) Weights {
+	w := Weights{Error: 1, Envelope: 1, Elements: 0.5, Price: 0.5, Drawer: 0.5}
+	switch p {
+	case PreferDraw:
+		w.Drawer *= 3
+	case PreferShort:
+		w.Envelope *= 3
+	case PreferCheap:
+		w.Price *= 3
+	}
+	return w
+}
+
+// refLength is the length the envelope term is divided by.
+func refLength(r Requirement) float64 {
+	switch r.Kind {
+	case Focus:
+		return r.EFL
+	case Image:
+		return r.Track
+	}
+	return 100
+}
+
+// priceReference is the median of the stated prices, 1 when none is stated.
+func priceReference(items []Item) float64 {
+	var ps []float64
+	for _, it := range items {
+		if it.Entry.Price > 0 {
+			ps = append(ps, it.Entry.Price)
+		}
+	}
+	if len(ps) == 0 {
+		return 1
+	}
+	sort.Float64s(ps)
+	n := len(ps)
+	if n%2 == 1 {
+		return ps[n/2]
+	}
+	return (ps[n/2-1] + ps[n/2]) / 2
+}
+
+// priceTerm is the price of one piece over the reference; an unknown price
+// counts as the reference.
+func priceTerm(price, ref float64) float64 {
+	if !(price > 0) {
+		return 1
+	}
+	return price / ref
+}
+
+// scorer computes scores for one requirement.
+type scorer struct {
+	w    Weights
+	lref float64
+	tol  float64 // absolute tolerance of the first-order target
+}
+
+func newScorer(r Requirement) scorer {
+	return scorer{w: WeightsFor(r.Prefer), lref: refLength(r), tol: firstOrderTol(r)}
+}
+
+// errTerm is |error| / tolerance, 0 for no error.
+func (s scorer) errTerm(err float64) float64 {
+	if err == 0 {
+		return 0
+	}
+	if s.tol == 0 {
+		return math.Inf(1)
+	}
+	return math.Abs(err) / s.tol
+}
+
+// singlet scores one part.
+func (s scorer) singlet(c *cand, err, envelope float64) float64 {
+	return s.w.Error*s.errTerm(err) + s.w.Envelope*envelope/s.lref + s.w.Price*c.price + s.w.Drawer*c.away
+}
+
+// pair scores two parts; away is the number of pieces (0, 1 or 2) not
+// available from the drawer.
+func (s scorer) pair(a, b *cand, err, envelope, away float64) float64 {
+	return s.w.Error*s.errTerm(err) + s.w.Envelope*envelope/s.lref + s.w.Elements +
+		s.w.Price*(a.price+b.price) + s.w.Drawer*away/2
+}
+
+// pairAway counts the pieces of a pair not available from the drawer: the
+// same part twice needs two pieces.
+func pairAway(a, b *cand) float64 {
+	if a.item == b.item {
+		switch {
+		case a.qty >= 2:
+			return 0
+		case a.qty == 1:
+			return 1
+		}
+		return 2
+	}
+	return a.away + b.away
+}
+
+// firstOrderTol is the absolute tolerance on the requirement's target.
+func firstOrderTol(r Requirement) float64 {
+	switch r.Kind {
+	case Focus:
+		return r.EFLTol.Abs(r.EFL)
+	case Image:
+		return r.MagTol.Abs(r.Mag)
+	}
+	return r.ExpandTol.Abs(r.Expansion)
+}

@@ -1,0 +1,59 @@
+package search
+
+import "math"
+
+// singlet solves one candidate alone and emits what it admits.
+func (s *search) singlet(i int32, emit func(*layout)) {
+	switch s.req.Kind {
+	case Focus:
+		s.singletFocus(i, emit)
+	case Image:
+		s.singletImage(i, emit)
+	}
+}
+
+// singletFocus: the part's own EFL; the focus of a collimated beam lies at
+// its back focal point.
+func (s *search) singletFocus(i int32, emit func(*layout)) {
+	c := &s.c[i]
+	l := layout{a: i, b: -1, value: c.f, err: c.f - s.req.EFL,
+		bc: c.Fp, env: c.L, track: c.L + c.Fp, wd: math.NaN()}
+	if math.Abs(l.err) > s.lim.admit {
+		return
+	}
+	s.finish(&l)
+	emit(&l)
+}
+
+// singletImage finds both conjugates of a fixed track. With u and v the
+// object and image distances from the principal points, 1/u + 1/v = 1/f
+// (the Gaussian lens equation in air; Hecht, Optics, 5th ed., sec. 5.2.3)
+// and u + v = D = track - (principal-point separation), so u and v are the
+// roots of x^2 - D x + D f = 0, real when D >= 4f; m = -v/u.
+func (s *search) singletImage(i int32, emit func(*layout)) {
+	c := &s.c[i]
+	d := s.req.Track - c.delta
+	if c.f <= 0 || d <= 0 {
+		return
+	}
+	disc := d * (d - 4*c.f)
+	if disc < 0 {
+		return
+	}
+	u1 := (d + math.Sqrt(disc)) / 2
+	us := []float64{u1}
+	if u2 := d * c.f / u1; u2 != u1 {
+		us = append(us, u2) // product of the roots is D f (Vieta)
+	}
+	for r, u := range us {
+		v := d - u
+		l := layout{a: i, b: -1, root: int8(r), wd: u - c.P, bc: c.Pp + v, env: c.L,
+			track: s.req.Track, value: -v / u}
+		l.err = l.value - s.req.Mag
+		if l.wd <= 0 || l.bc <= 0 || math.Abs(l.err) > s.lim.admit {
+			continue
+		}
+		s.finish(&l)
+		emit(&l)
+	}
+}
