@@ -38,8 +38,8 @@ type layout struct {
 	score    float64
 }
 
-func (l *layout) meets() bool  { return l.fails == 0 }
-func (l *layout) pair() bool   { return l.b >= 0 }
+func (l *layout) meets() bool   { return l.fails == 0 }
+func (l *layout) pair() bool    { return l.b >= 0 }
 func (l *layout) elements() int { return 1 + b2i(l.b >= 0) }
 
 func b2i(b bool) int {

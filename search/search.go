@@ -48,15 +48,15 @@ func target(r Requirement) float64 {
 
 // search is one run of the solver.
 type search struct {
-	req   Requirement
-	lim   limits
-	c     []cand
-	sc    scorer
-	tol   float64 // the requirement's first-order tolerance, for the checks
-	top   int     // results to keep; 0 all
-	misses bool   // keep layouts that fail checks too (near-miss search)
-	nodes []node
-	roots []int32
+	req    Requirement
+	lim    limits
+	c      []cand
+	sc     scorer
+	tol    float64 // the requirement's first-order tolerance, for the checks
+	top    int     // results to keep; 0 all
+	misses bool    // keep layouts that fail checks too (near-miss search)
+	nodes  []node
+	roots  []int32
 
 	kept       layoutHeap
 	solved     int            // layouts that met the first-order target
