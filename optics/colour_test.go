@@ -59,7 +59,7 @@ func achromat(t *testing.T, phi, t1, t2 float64) System {
 func TestAchromatAxialColour(t *testing.T) {
 	// Thin: the Seidel CL of the cemented achromat vanishes (CL =
 	// y^2 sum phi_i/V_i, Welford 1986). Thick (4 mm crown, 2 mm flint):
-	// the F-to-C focal shift is a few per cent of a singlet's of the same
+	// the F-to-C focal shift is under a tenth of a singlet's of the same
 	// power.
 	obj := Object{Z: math.Inf(-1), Aperture: Aperture{Beam: 10}}
 	thin, _ := achromat(t, 0.01, 0, 0).Seidel(obj, 0, LineD, LineF, LineC)
@@ -74,7 +74,7 @@ func TestAchromatAxialColour(t *testing.T) {
 		t.Fatal(err)
 	}
 	cs, _ := singlet.Chromatic(obj, 0, band, 0)
-	if ratio := cd.FocalShift / cs.FocalShift; ratio > 0.05 {
+	if ratio := cd.FocalShift / cs.FocalShift; ratio > 0.1 {
 		t.Errorf("achromat focal shift %.4f mm is %.3f of the singlet's %.4f mm", cd.FocalShift, ratio, cs.FocalShift)
 	}
 	checkNear(t, "doublet EFL", doublet.Cardinal(LineD).EFL, 100, 0, 0.05)

@@ -23,7 +23,9 @@ type Focus struct {
 }
 
 // MarginalFocus traces the real marginal ray of the axial object point at
-// a wavelength and compares its focus with the paraxial image.
+// a wavelength and compares its focus with the paraxial image. Clear
+// apertures are not enforced here: this is the ray the aperture setting
+// asks for, and a bundle trace reports any clipping.
 func (s System) MarginalFocus(obj Object, wavelengthNm float64) (Focus, error) {
 	c := s.Cardinal(wavelengthNm)
 	zp, _, st := c.Image(obj.Z)
@@ -35,6 +37,7 @@ func (s System) MarginalFocus(obj Object, wavelengthNm float64) (Focus, error) {
 		return Focus{}, err
 	}
 	tr := s.Tracer(wavelengthNm)
+	tr.Unclipped = true
 	p := tr.Trace(b.Rays[0], zp)
 	if p.Status != Passed {
 		return Focus{}, fmt.Errorf("marginal ray: %w", p.Err())

@@ -164,4 +164,4 @@ func (sd Seidel) longitudinal(dw float64) float64 {
 	return -dw / (sd.NImage * sd.UImage * sd.UImage)
 }
 
-var errAfocal = errors.New("the system is afocal: it forms no image of an object at infinity")
+var errAfocal = errors.New("the system is afocal: it forms no focused image to judge; judge it by angles instead")

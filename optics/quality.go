@@ -1,0 +1,172 @@
+package optics
+
+import (
+	"errors"
+	"fmt"
+	"math"
+)
+
+// Conditions say how to judge a system's image: the object, the field
+// edge, the band and the image plane. The zero value of each optional
+// field is documented beside it.
+type Conditions struct {
+	Object Object
+	// Field is the field edge: object height in mm for a finite object,
+	// field angle in degrees for an object at infinity; 0 judges on axis
+	// only.
+	Field float64
+	// Reference is the wavelength of the spot and wavefront figures, nm;
+	// 0 means the d line.
+	Reference float64
+	// Band lists the wavelengths for the colour figures; empty means the
+	// reference wavelength alone.
+	Band []float64
+	// ImageZ is the image plane from the last vertex, used when
+	// FixedImage is true; otherwise the plane is the paraxial image at the
+	// reference wavelength.
+	ImageZ     float64
+	FixedImage bool
+	// Rings is the number of hexapolar rings per bundle; 0 means 12
+	// (468 rays).
+	Rings int
+}
+
+// Quality holds the real-ray figures of a system under given conditions.
+// Lengths are in mm.
+type Quality struct {
+	Wavelength float64 // the reference wavelength, nm
+	ImageZ     float64 // the image plane, from the last vertex
+	Focus      Focus   // the marginal ray against the paraxial focus
+	// Axis is the on-axis spot at its best focus; AxisAtImage the same
+	// bundle on the image plane.
+	Axis, AxisAtImage Spot
+	// Edge is the field-edge spot on the axis's best-focus plane (zero
+	// when Field is 0).
+	Edge Spot
+	// BestFocusShift is Axis.Z - ImageZ.
+	BestFocusShift float64
+	AiryRadius     float64
+	// Wavefront is the on-axis RMS wavefront error against the best
+	// reference sphere (tilt and defocus removed).
+	Wavefront          Wavefront
+	DiffractionLimited bool // Wavefront.RMS <= MarechalRMS
+	Colour             Chromatic
+	// Seidel holds the third-order sums at the reference wavelength, with
+	// colour between the band's shortest and longest wavelengths.
+	Seidel   Seidel
+	Warnings []string
+}
+
+// Assess traces the system under the conditions and gathers the figures
+// a ranking needs: spot on axis and at the field edge, Airy radius,
+// wavefront, colour and the Seidel estimate.
+func (s System) Assess(c Conditions) (Quality, error) {
+	wl := c.Reference
+	if wl == 0 {
+		wl = LineD
+	}
+	card := s.Cardinal(wl)
+	if card.Afocal {
+		return Quality{}, errAfocal
+	}
+	q := Quality{Wavelength: wl, ImageZ: c.ImageZ}
+	if !c.FixedImage {
+		z, _, st := card.Image(c.Object.Z)
+		if st != Solved {
+			return Quality{}, fmt.Errorf("the paraxial image is %v", st)
+		}
+		q.ImageZ = z
+	}
+	if err := q.axis(s, c, wl); err != nil {
+		return Quality{}, err
+	}
+	if err := q.edge(s, c, wl); err != nil {
+		return Quality{}, err
+	}
+	return q, q.colour(s, c, wl)
+}
+
+func rings(c Conditions) int {
+	if c.Rings > 0 {
+		return c.Rings
+	}
+	return 12
+}
+
+// axis fills the on-axis figures.
+func (q *Quality) axis(s System, c Conditions, wl float64) error {
+	b, err := s.Bundle(c.Object, 0, wl, Hexapolar(rings(c)))
+	if err != nil {
+		return err
+	}
+	tr := s.Tracer(wl).TraceBundle(b, q.ImageZ)
+	q.noteLost("on axis", tr)
+	q.AxisAtImage, q.Axis = tr.SpotAt(q.ImageZ), tr.BestFocus()
+	if q.Axis.Passed == 0 {
+		return errors.New("no ray on axis reaches the image")
+	}
+	q.BestFocusShift = q.Axis.Z - q.ImageZ
+	if q.Focus, err = s.MarginalFocus(c.Object, wl); err != nil {
+		return err
+	}
+	q.AiryRadius = AiryRadius(wl, q.Focus.NA)
+	centre := Vec3{X: q.Axis.CentroidX, Y: q.Axis.CentroidY, Z: tr.Tracer.LastVertex() + q.Axis.Z}
+	if q.Wavefront, err = tr.BestWavefront(centre); err != nil {
+		return err
+	}
+	q.DiffractionLimited = q.Wavefront.DiffractionLimited()
+	return nil
+}
+
+// edge fills the field-edge spot on the on-axis best-focus plane.
+func (q *Quality) edge(s System, c Conditions, wl float64) error {
+	if c.Field == 0 {
+		return nil
+	}
+	b, err := s.Bundle(c.Object, c.Field, wl, Hexapolar(rings(c)))
+	if err != nil {
+		return err
+	}
+	tr := s.Tracer(wl).TraceBundle(b, q.ImageZ)
+	q.noteLost("at the field edge", tr)
+	q.Edge = tr.SpotAt(q.Axis.Z)
+	if q.Edge.Passed == 0 {
+		return errors.New("no ray from the field edge reaches the image")
+	}
+	return nil
+}
+
+// colour fills the band figures and the Seidel sums.
+func (q *Quality) colour(s System, c Conditions, wl float64) error {
+	band := c.Band
+	if len(band) == 0 {
+		band = []float64{wl}
+	}
+	var err error
+	if q.Colour, err = s.Chromatic(c.Object, c.Field, band, q.ImageZ); err != nil {
+		return err
+	}
+	lo, hi := math.Inf(1), math.Inf(-1)
+	for _, w := range band {
+		lo, hi = math.Min(lo, w), math.Max(hi, w)
+	}
+	q.Seidel, err = s.Seidel(c.Object, c.Field, wl, lo, hi)
+	return err
+}
+
+// noteLost adds a warning for each kind of ray loss in the bundle.
+func (q *Quality) noteLost(where string, tr Traced) {
+	counts := map[[2]int]int{}
+	for _, p := range tr.Paths {
+		if p.Status != Passed {
+			counts[[2]int{int(p.Status), p.Surface}]++
+		}
+	}
+	for st := Missed; st <= Clipped; st++ {
+		for i := range tr.Tracer.Vertex {
+			if n := counts[[2]int{int(st), i}]; n > 0 {
+				q.Warnings = append(q.Warnings, fmt.Sprintf("%s, %d of %d rays stop at surface %d: %v", where, n, len(tr.Paths), i+1, st))
+			}
+		}
+	}
+}
