@@ -1,0 +1,66 @@
+package catalog
+
+import (
+	"crypto/sha256"
+	"encoding/hex"
+	"math"
+	"strconv"
+	"strings"
+
+	"cardinal/importers"
+)
+
+// fingerprint is a hash of every field of an entry that the catalog
+// stores, so that a re-imported row that has not changed is left alone.
+// Floats are written in the shortest form that reads back exactly. The
+// warnings that the prescription itself gives are left out: they follow
+// from the other fields.
+func fingerprint(e importers.Entry) string {
+	var b strings.Builder
+	str := func(s string) { b.WriteString(strconv.Quote(s)); b.WriteByte(',') }
+	num := func(v float64) {
+		if v == 0 || math.IsInf(v, 0) {
+			v = math.Abs(v) // -0 and 0, -Inf and +Inf are stored alike
+		}
+		b.WriteString(strconv.FormatFloat(v, 'g', -1, 64))
+		b.WriteByte(',')
+	}
+	p := e.Part
+	str(p.Supplier)
+	str(p.Name)
+	str(p.Description)
+	num(p.Diameter)
+	num(p.ClearAperture)
+	for i, s := range p.Surfaces {
+		b.WriteString("|s")
+		num(planeAsInf(s.Radius))
+		num(s.Conic)
+		for _, a := range s.Asph {
+			num(a)
+		}
+		if i < len(p.Thickness) {
+			num(p.Thickness[i])
+			str(mediumName(p.Media[i]))
+		}
+	}
+	b.WriteString("|e")
+	for _, v := range []float64{e.StatedEFL, e.StatedBFD, e.StatedEdge, e.StatedWavelength, e.Price} {
+		num(v)
+	}
+	str(e.Currency)
+	str(e.URL)
+	str(e.Notes)
+	for _, w := range otherWarnings(e) {
+		str(w)
+	}
+	sum := sha256.Sum256([]byte(b.String()))
+	return hex.EncodeToString(sum[:])
+}
+
+// planeAsInf stores every plane alike: a radius of 0 or -Inf as +Inf.
+func planeAsInf(r float64) float64 {
+	if r == 0 || math.IsInf(r, 0) {
+		return math.Inf(1)
+	}
+	return r
+}
