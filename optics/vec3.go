@@ -32,4 +32,4 @@ func (v Vec3) Unit() Vec3 {
 }
 
 // Height is the distance from the axis, sqrt(x^2 + y^2).
-func (v Vec3) Height() float64 { return math.Hypot(v.X, v.Y) }
+func (v Vec3) Height() float64 { return math.Sqrt(v.X*v.X + v.Y*v.Y) }
