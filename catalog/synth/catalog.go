@@ -71,12 +71,13 @@ func (d *drawer) next() (importers.Entry, bool) {
 	if !sensible(sp) {
 		return importers.Entry{}, false
 	}
-	base := s.name + ":" + s.partName(sp)
-	e, err := s.entry(sp, d.used[base])
+	base := s.partName(sp)
+	id := s.name + ":" + base
+	e, err := s.entry(sp, base, d.used[id])
 	if err != nil {
 		return importers.Entry{}, false
 	}
-	d.used[base]++
+	d.used[id]++
 	return e, true
 }
 

@@ -64,7 +64,7 @@ func Demo(keep []importers.Entry) []importers.Entry {
 				if !sensible(sp) {
 					continue
 				}
-				e, err := l.s.entry(sp, 0)
+				e, err := l.s.entry(sp, l.s.partName(sp), 0)
 				if err != nil || repeats(e, keep) {
 					continue // too strong or too thick for the diameter, or kept already
 				}

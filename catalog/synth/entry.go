@@ -28,10 +28,11 @@ var kindText = [numKinds]string{"Plano-convex lens", "Biconvex lens", "Best-form
 	"Positive meniscus lens", "Plano-concave lens", "Biconcave lens", "Negative meniscus lens",
 	"Cemented achromatic doublet"}
 
-// entry designs the part of sp and fills in what the supplier states about
-// it. variant 0 is the uncoated part; 1-3 the coated ones; from 4 on the
+// entry designs the part of sp, numbered base (the supplier's partName)
+// plus a variant suffix, and fills in what the supplier states about it.
+// variant 0 is the uncoated part; 1-3 the coated ones; from 4 on the
 // coatings repeat as later revisions with their own part numbers.
-func (s supplier) entry(sp Spec, variant int) (importers.Entry, error) {
+func (s supplier) entry(sp Spec, base string, variant int) (importers.Entry, error) {
 	sp.ClearAperture = s.clearAperture(sp.Diameter)
 	p, err := Design(sp)
 	if err != nil {
@@ -39,7 +40,7 @@ func (s supplier) entry(sp Spec, variant int) (importers.Entry, error) {
 	}
 	coat := coatings[variant%len(coatings)]
 	p.Supplier = s.name
-	p.Name = s.partName(sp) + suffix(variant)
+	p.Name = base + suffix(variant)
 	p.Description = fmt.Sprintf("%s, %s, EFL %s mm, dia. %s mm, %s", kindText[sp.Kind],
 		glassText(sp), num(sp.EFL), num(sp.Diameter), coat.text)
 	if variant >= len(coatings) {
