@@ -1,8 +1,10 @@
 package search
 
 import (
+	"cmp"
 	"fmt"
 	"math"
+	"slices"
 	"sort"
 	"strings"
 
@@ -50,7 +52,7 @@ type prepared struct {
 // prepare filters the items by the requirement's part constraints and
 // computes the candidates at the requirement's wavelength.
 func prepare(items []Item, req Requirement) *prepared {
-	p := &prepared{items: items, skipped: map[string]int{}}
+	p := &prepared{items: items, skipped: map[string]int{}, cands: make([]cand, 0, 2*len(items))}
 	lambda := req.Lambda()
 	keys := idRanks(items)
 	warned := map[string]bool{}
@@ -66,11 +68,8 @@ func prepare(items []Item, req Requirement) *prepared {
 				pp = part.Reversed()
 			}
 			sys := pp.System(nil, nil)
-			for _, w := range sys.RangeWarnings(lambda) {
-				if !warned[w] {
-					warned[w] = true
-					p.warnings = append(p.warnings, w)
-				}
+			if !rev {
+				p.warn(sys, lambda, warned)
 			}
 			c, ok := newCand(pp, sys.Cardinal(lambda))
 			if !ok {
@@ -90,8 +89,21 @@ func prepare(items []Item, req Requirement) *prepared {
 	for i := range p.cands {
 		p.cands[i].price = priceTerm(items[p.cands[i].item].Entry.Price, p.priceRef)
 	}
-	sort.SliceStable(p.cands, func(i, j int) bool { return p.cands[i].phi < p.cands[j].phi })
+	p.cands = byPower(p.cands)
 	return p
+}
+
+// warn notes, once each, the media used outside their dispersion range.
+func (p *prepared) warn(sys optics.System, lambda float64, warned map[string]bool) {
+	for _, m := range sys.Media {
+		if warned[m.Name()] {
+			continue
+		}
+		warned[m.Name()] = true
+		if w := optics.RangeWarning(m, lambda); w != "" {
+			p.warnings = append(p.warnings, w)
+		}
+	}
 }
 
 // filter tells why an item takes no part in the search, or "".
@@ -132,14 +144,38 @@ func newCand(p optics.Part, c optics.Cardinal) (cand, bool) {
 	}, true
 }
 
+// byPower returns the candidates sorted by power, ties in their first
+// order; sorting indices keeps the large structs from being moved twice.
+func byPower(cs []cand) []cand {
+	idx := make([]int32, len(cs))
+	for i := range idx {
+		idx[i] = int32(i)
+	}
+	slices.SortFunc(idx, func(a, b int32) int {
+		if c := cmp.Compare(cs[a].phi, cs[b].phi); c != 0 {
+			return c
+		}
+		return cmp.Compare(a, b)
+	})
+	out := make([]cand, len(cs))
+	for k, i := range idx {
+		out[k] = cs[i]
+	}
+	return out
+}
+
 // idRanks gives each item the rank of its part ID in sorted order.
 func idRanks(items []Item) []int32 {
-	idx := make([]int, len(items))
-	for i := range idx {
-		idx[i] = i
+	ids := make([]string, len(items))
+	idx := make([]int32, len(items))
+	for i, it := range items {
+		ids[i], idx[i] = it.Entry.Part.ID(), int32(i)
 	}
-	sort.SliceStable(idx, func(a, b int) bool {
-		return items[idx[a]].Entry.Part.ID() < items[idx[b]].Entry.Part.ID()
+	slices.SortFunc(idx, func(a, b int32) int {
+		if c := strings.Compare(ids[a], ids[b]); c != 0 {
+			return c
+		}
+		return cmp.Compare(a, b)
 	})
 	r := make([]int32, len(items))
 	for rank, i := range idx {

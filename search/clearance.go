@@ -54,12 +54,9 @@ func (s *search) rayHeights(l *layout) {
 	default:
 		marg = ray{s.req.Beam / 2, 0}
 	}
-	parts := []int32{l.a}
-	if l.pair() {
-		parts = append(parts, l.b)
-	}
+	parts := [2]int32{l.a, l.b}
 	l.vigRatio, l.vigPart = 0, 0
-	for k, ci := range parts {
+	for k, ci := range parts[:l.elements()] {
 		c := &s.c[ci]
 		if k > 0 {
 			marg, chief = marg.travel(l.gap), chief.travel(l.gap)

@@ -103,16 +103,16 @@ func (s *search) pairImage(i, j int32, emit func(*layout)) {
 	T, m, f1, f2 := s.req.Track, s.req.Mag, a.f, b.f
 	k := -a.F + a.L + a.Fp - b.F + b.L + b.Fp
 	qa, qb, qc := 1+m*f2/f1, T-k, f1*(f1+f2/m)
-	roots, family := quadRoots(qa, qb, qc, 1+math.Abs(m*f2/f1),
+	roots, n, family := quadRoots(qa, qb, qc, 1+math.Abs(m*f2/f1),
 		math.Abs(T)+math.Abs(a.F)+a.L+math.Abs(a.Fp)+math.Abs(b.F)+b.L+math.Abs(b.Fp),
 		f1*f1+math.Abs(f1*f2/m))
 	if family {
 		// Every object position works (an afocal relay at m = -f2/f1 whose
 		// track is its own): take the object at the front focal point, the
 		// telecentric 4f arrangement.
-		roots = []float64{0}
+		roots[0], n = 0, 1
 	}
-	for r, x := range roots {
+	for r, x := range roots[:n] {
 		d := qb + qa*x
 		l := layout{a: i, b: j, root: int8(r), wd: -a.F - x, gap: d - b.F + a.Fp, bc: b.Fp - m*f2*x/f1}
 		if l.wd <= 0 || l.gap < 0 || l.bc <= 0 {

@@ -10,15 +10,15 @@ import "math"
 // discriminant negative only by rounding is taken as zero (a double root).
 // An equation whose coefficients are all zero within rounding (every x is a
 // root) reports degenerate and no roots.
-func quadRoots(a, b, c, scaleA, scaleB, scaleC float64) (roots []float64, degenerate bool) {
+func quadRoots(a, b, c, scaleA, scaleB, scaleC float64) (roots [2]float64, n int, degenerate bool) {
 	const tiny = 64 * 2.220446049250313e-16
 	if math.Abs(a) <= tiny*scaleA && math.Abs(b) <= tiny*scaleB && math.Abs(c) <= tiny*scaleC {
-		return nil, true
+		return roots, 0, true
 	}
 	disc := b*b - 4*a*c
 	if disc < 0 {
 		if -disc > tiny*(b*b+4*math.Abs(a*c)) {
-			return nil, false
+			return roots, 0, false
 		}
 		disc = 0
 	}
@@ -27,17 +27,12 @@ func quadRoots(a, b, c, scaleA, scaleB, scaleC float64) (roots []float64, degene
 		s = -s
 	}
 	q := -(b + s) / 2
-	var out []float64
 	add := func(x float64) {
-		if math.IsNaN(x) || math.IsInf(x, 0) {
+		if math.IsNaN(x) || math.IsInf(x, 0) || n == 1 && roots[0] == x {
 			return
 		}
-		for _, y := range out {
-			if y == x {
-				return
-			}
-		}
-		out = append(out, x)
+		roots[n] = x
+		n++
 	}
 	if q == 0 {
 		// b = 0 and ac = 0: with a != 0 the roots are both 0; with a = 0
@@ -45,14 +40,14 @@ func quadRoots(a, b, c, scaleA, scaleB, scaleC float64) (roots []float64, degene
 		if a != 0 {
 			add(0)
 		}
-		return out, false
+		return roots, n, false
 	}
 	if a != 0 {
 		add(q / a)
 	}
 	add(c / q)
-	if len(out) == 2 && out[0] > out[1] {
-		out[0], out[1] = out[1], out[0]
+	if n == 2 && roots[0] > roots[1] {
+		roots[0], roots[1] = roots[1], roots[0]
 	}
-	return out, false
+	return roots, n, false
 }

@@ -27,7 +27,8 @@ func TestQuadRoots(t *testing.T) {
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
-			got, deg := quadRoots(tt.a, tt.b, tt.c, 1, 1, 1)
+			roots, n, deg := quadRoots(tt.a, tt.b, tt.c, 1, 1, 1)
+			got := roots[:n]
 			if deg != tt.degenerate || len(got) != len(tt.want) {
 				t.Fatalf("roots %v degenerate %v, want %v %v", got, deg, tt.want, tt.degenerate)
 			}
