@@ -1,0 +1,431 @@
+package main
+
+import (
+	"bytes"
+	"errors"
+	"fmt"
+	"io"
+	"io/fs"
+	"math"
+	"os"
+	"sort"
+	"strconv"
+	"strings"
+
+	"github.com/spf13/cobra"
+
+	"cardinal"
+	"cardinal/importers"
+	"cardinal/optics"
+)
+
+// inspectOptions are the flags of `cardinal inspect`. The zero value is not
+// used; the flag defaults are the useful ones.
+type inspectOptions struct {
+	env *env
+	// File is a prescription CSV; "" means the built-in demo lenses.
+	File string
+	// Parts are SUPPLIER:PART names; none means every part of the file.
+	Parts               []string
+	Reverse             bool
+	Wavelength          float64 // nm
+	MediumIn, MediumOut string  // glass names of object and image space
+	Format              string
+}
+
+func init() {
+	commands = append(commands, func(e *env) *cobra.Command { return newInspectCmd(e, runInspect) })
+}
+
+func newInspectCmd(e *env, run func(*inspectOptions) error) *cobra.Command {
+	opts := &inspectOptions{env: e}
+	cmd := &cobra.Command{
+		Use:   "inspect",
+		Short: "Print every cardinal point of stock parts",
+		Long: `Print the first-order properties of each part of a prescription CSV: EFL,
+front and back focal lengths, FFD and BFD, the focal, principal, nodal,
+anti-principal and anti-nodal points, length, power, edge thickness and the
+indices used.
+
+Front points are measured from the first vertex, back points from the last
+vertex, both in mm and positive toward the image (light travels left to
+right). Without --file the built-in demo lenses (invented parts) are used.`,
+		Example: `  cardinal inspect
+  cardinal inspect --file lenses.csv --part DEMO:PCX-50 --reverse --wavelength 632.8 --format json
+  cardinal inspect --file lenses.csv --medium-in water`,
+		Args: cobra.NoArgs,
+		RunE: func(*cobra.Command, []string) error {
+			if err := opts.validate(); err != nil {
+				return err
+			}
+			return run(opts)
+		},
+	}
+	f := cmd.Flags()
+	f.StringVar(&opts.File, "file", "", "prescription CSV to read (default: the built-in demo lenses)")
+	f.StringSliceVar(&opts.Parts, "part", nil, "part to inspect as SUPPLIER:PART; repeat or separate with commas (default: all)")
+	f.BoolVar(&opts.Reverse, "reverse", false, "turn the parts around")
+	f.Float64Var(&opts.Wavelength, "wavelength", optics.LineD, "wavelength in nm")
+	f.StringVar(&opts.MediumIn, "medium-in", "air", "medium of object space: air, a glass name or a six-digit glass code")
+	f.StringVar(&opts.MediumOut, "medium-out", "air", "medium of image space")
+	f.StringVar(&opts.Format, "format", "table", "output format: table, json, csv or md")
+	return cmd
+}
+
+func (o *inspectOptions) validate() error {
+	if err := checkFormat(o.Format); err != nil {
+		return err
+	}
+	if !(o.Wavelength > 0) || math.IsInf(o.Wavelength, 0) {
+		return usageErrorf("--wavelength %g: give a wavelength in nm, such as 587.5618 (the d line) or 632.8", o.Wavelength)
+	}
+	return nil
+}
+
+func runInspect(o *inspectOptions) error {
+	glasses := optics.BuiltinGlasses()
+	in, err := glasses.Lookup(o.MediumIn)
+	if err != nil {
+		return usageErrorf("--medium-in: %v", err)
+	}
+	out, err := glasses.Lookup(o.MediumOut)
+	if err != nil {
+		return usageErrorf("--medium-out: %v", err)
+	}
+	entries, err := loadInspectEntries(o, glasses)
+	if err != nil {
+		return err
+	}
+	if entries, err = selectParts(entries, o.Parts); err != nil {
+		return err
+	}
+	results := make([]inspection, len(entries))
+	for i, e := range entries {
+		results[i] = inspect(e, o.Reverse, o.Wavelength, in, out)
+		for _, w := range results[i].Warnings {
+			fmt.Fprintf(o.env.Err, "cardinal: warning: %s: %s\n", results[i].id(), w)
+		}
+	}
+	return writeInspections(o.env.Out, o.Format, results)
+}
+
+// loadInspectEntries reads the parts to inspect: the --file, or the
+// built-in demo lenses when there is none.
+func loadInspectEntries(o *inspectOptions, glasses optics.GlassTable) ([]importers.Entry, error) {
+	name := o.File
+	var data []byte
+	var err error
+	if name == "" {
+		name = "demo lenses.csv"
+		fmt.Fprintln(o.env.Err, "cardinal: no --file given: inspecting the built-in demo lenses (invented parts); use --file to read your own")
+		data, err = fs.ReadFile(cardinal.Demo, "testdata/demo/lenses.csv")
+	} else {
+		data, err = os.ReadFile(name)
+	}
+	switch {
+	case errors.Is(err, fs.ErrNotExist):
+		return nil, notFoundErrorf("--file %s: no such file; give the path of a prescription CSV", name)
+	case err != nil:
+		return nil, usageErrorf("--file %s: %v", name, err)
+	}
+	f, err := importers.ReadPrescriptionFile(bytes.NewReader(data), name, glasses)
+	if err != nil {
+		return nil, usageErrorf("%s cannot be read; fix these lines and try again:\n%v", name, err)
+	}
+	for _, w := range f.Warnings {
+		fmt.Fprintf(o.env.Err, "cardinal: warning: %v\n", w)
+	}
+	return f.Rows, nil
+}
+
+// selectParts picks the named parts in the order asked, matching
+// SUPPLIER:PART exactly, then ignoring case, then PART alone when one
+// supplier has it. Every name that matches nothing is reported, with the
+// closest names in the file.
+func selectParts(entries []importers.Entry, names []string) ([]importers.Entry, error) {
+	if len(names) == 0 {
+		return entries, nil
+	}
+	ids := make([]string, len(entries))
+	for i, e := range entries {
+		ids[i] = e.Part.ID()
+	}
+	var picked []importers.Entry
+	var missing []string
+	seen := map[int]bool{}
+	for _, n := range names {
+		n = strings.TrimSpace(n)
+		i := findPart(ids, n)
+		switch {
+		case i < 0:
+			missing = append(missing, notFoundLine(n, ids))
+		case !seen[i]:
+			seen[i] = true
+			picked = append(picked, entries[i])
+		}
+	}
+	switch len(missing) {
+	case 0:
+		return picked, nil
+	case 1:
+		return nil, notFoundErrorf("%s", missing[0])
+	}
+	return nil, notFoundErrorf("%d parts not found:\n  %s", len(missing), strings.Join(missing, "\n  "))
+}
+
+func findPart(ids []string, name string) int {
+	match := func(eq func(id string) bool) int {
+		found := -1
+		for i, id := range ids {
+			if eq(id) {
+				if found >= 0 {
+					return -1 // ambiguous
+				}
+				found = i
+			}
+		}
+		return found
+	}
+	if i := match(func(id string) bool { return id == name }); i >= 0 {
+		return i
+	}
+	if i := match(func(id string) bool { return strings.EqualFold(id, name) }); i >= 0 {
+		return i
+	}
+	return match(func(id string) bool {
+		_, part, _ := strings.Cut(id, ":")
+		return !strings.Contains(name, ":") && strings.EqualFold(part, name)
+	})
+}
+
+func notFoundLine(name string, ids []string) string {
+	close := closeNames(name, ids, 3)
+	if len(close) == 0 {
+		return fmt.Sprintf("no part %q among the %d parts; run without --part to list them", name, len(ids))
+	}
+	return fmt.Sprintf("no part %q; did you mean %s?", name, strings.Join(close, ", "))
+}
+
+// closeNames returns up to n names nearest to want by edit distance
+// (ignoring case, and to the part name alone when want has no supplier),
+// those that contain it first, none farther than a third of its length
+// (or 2).
+func closeNames(want string, names []string, n int) []string {
+	w := strings.ToLower(want)
+	type scored struct {
+		name string
+		d    int
+	}
+	var c []scored
+	for _, name := range names {
+		l := strings.ToLower(name)
+		d := editDistance(w, l)
+		if _, part, ok := strings.Cut(l, ":"); ok && !strings.Contains(w, ":") {
+			d = min(d, editDistance(w, part)) // PART alone, without its supplier
+		}
+		if strings.Contains(l, w) || strings.Contains(w, l) {
+			d = 0
+		}
+		if d <= max(2, len(w)/3) {
+			c = append(c, scored{name, d})
+		}
+	}
+	sort.SliceStable(c, func(i, j int) bool { return c[i].d < c[j].d })
+	var out []string
+	for i := 0; i < len(c) && i < n; i++ {
+		out = append(out, c[i].name)
+	}
+	return out
+}
+
+// editDistance is the Levenshtein distance between a and b, in runes
+// (V. I. Levenshtein, Soviet Physics Doklady 10, 707 (1966); the two-row
+// dynamic programme of Wagner and Fischer, J. ACM 21, 168 (1974)).
+func editDistance(a, b string) int {
+	ra, rb := []rune(a), []rune(b)
+	prev := make([]int, len(rb)+1)
+	cur := make([]int, len(rb)+1)
+	for j := range prev {
+		prev[j] = j
+	}
+	for i := 1; i <= len(ra); i++ {
+		cur[0] = i
+		for j := 1; j <= len(rb); j++ {
+			cost := 1
+			if ra[i-1] == rb[j-1] {
+				cost = 0
+			}
+			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
+		}
+		prev, cur = cur, prev
+	}
+	return prev[len(rb)]
+}
+
+// An inspection is the figures of one part at one wavelength. The JSON keys
+// are those of issue 2; focal quantities are null for an afocal part.
+type inspection struct {
+	Supplier             string   `json:"supplier"`
+	Part                 string   `json:"part"`
+	Reversed             bool     `json:"reversed"`
+	WavelengthNm         float64  `json:"wavelength_nm"`
+	LengthMm             float64  `json:"length_mm"`
+	EFLMm                *float64 `json:"efl_mm"`
+	FFrontMm             *float64 `json:"f_front_mm"`
+	FBackMm              *float64 `json:"f_back_mm"`
+	FFDMm                *float64 `json:"ffd_mm"`
+	BFDMm                *float64 `json:"bfd_mm"`
+	FocalMm              *float64 `json:"focal_mm"`
+	FocalPrimeMm         *float64 `json:"focal_prime_mm"`
+	PrincipalMm          *float64 `json:"principal_mm"`
+	PrincipalPrimeMm     *float64 `json:"principal_prime_mm"`
+	NodalMm              *float64 `json:"nodal_mm"`
+	NodalPrimeMm         *float64 `json:"nodal_prime_mm"`
+	AntiPrincipalMm      *float64 `json:"antiprincipal_mm"`
+	AntiPrincipalPrimeMm *float64 `json:"antiprincipal_prime_mm"`
+	AntiNodalMm          *float64 `json:"antinodal_mm"`
+	AntiNodalPrimeMm     *float64 `json:"antinodal_prime_mm"`
+	EdgeThicknessMm      float64  `json:"edge_thickness_mm"`
+	Warnings             []string `json:"warnings"`
+	description          string
+	diameter             float64
+	card                 optics.Cardinal
+	media                []optics.Medium // object space, each gap, image space
+	indices              []float64
+}
+
+func (r inspection) id() string { return r.Supplier + ":" + r.Part }
+
+// inspect computes the figures of one entry.
+func inspect(e importers.Entry, reverse bool, wl float64, in, out optics.Medium) inspection {
+	p := e.Part
+	if reverse {
+		p = p.Reversed()
+	}
+	sys := p.System(in, out)
+	c := sys.Cardinal(wl)
+	edge, err := p.EdgeThickness()
+	warnings := append([]string{}, e.Warnings...)
+	if err != nil {
+		warnings = append(warnings, fmt.Sprintf("edge thickness: %v", err))
+	}
+	warnings = append(warnings, sys.RangeWarnings(wl)...)
+	r := inspection{Supplier: p.Supplier, Part: p.Name, Reversed: reverse, WavelengthNm: wl,
+		LengthMm: c.Length, EdgeThicknessMm: edge, description: p.Description, diameter: p.Diameter,
+		card: c, media: append(append([]optics.Medium{in}, p.Media...), out), indices: sys.Indices(wl)}
+	if c.Afocal {
+		warnings = append(warnings, fmt.Sprintf("afocal at %s nm: angular magnification %.6g; the part has no focal, principal or nodal points", formatNm(wl), c.AngularMagnification))
+	} else {
+		v := func(x float64) *float64 { return &x }
+		r.EFLMm, r.FFrontMm, r.FBackMm = v(c.EFL), v(c.FFront), v(c.FBack)
+		r.FFDMm, r.BFDMm, r.FocalMm, r.FocalPrimeMm = v(c.F), v(c.FPrime), v(c.F), v(c.FPrime)
+		r.PrincipalMm, r.PrincipalPrimeMm, r.NodalMm, r.NodalPrimeMm = v(c.P), v(c.PPrime), v(c.N), v(c.NPrime)
+		r.AntiPrincipalMm, r.AntiPrincipalPrimeMm, r.AntiNodalMm, r.AntiNodalPrimeMm = v(c.AP), v(c.APPrime), v(c.AN), v(c.ANPrime)
+	}
+	r.Warnings = warnings
+	return r
+}
+
+func formatNm(wl float64) string { return strconv.FormatFloat(wl, 'g', -1, 64) }
+
+// writeInspections prints the results: JSON, one CSV row per part, or for
+// people (table, md) one "figure | value | unit" block per part, which reads
+// in 100 columns.
+func writeInspections(w io.Writer, format string, rs []inspection) error {
+	switch format {
+	case "json":
+		return render(w, format, grid{}, rs)
+	case "csv":
+		return render(w, format, inspectionGrid(rs), nil)
+	}
+	for i, r := range rs {
+		if i > 0 {
+			fmt.Fprintln(w)
+		}
+		title := inspectionTitle(r)
+		if format == "md" {
+			title = "### " + title + "\n"
+		}
+		fmt.Fprintln(w, title)
+		if err := render(w, format, figureGrid(r), nil); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
+func inspectionTitle(r inspection) string {
+	t := r.id()
+	if r.Reversed {
+		t += " (reversed)"
+	}
+	if r.description != "" {
+		t += ": " + r.description
+	}
+	return fmt.Sprintf("%s\nat %s nm, object space %s, image space %s", t, formatNm(r.WavelengthNm), r.media[0].Name(), r.media[len(r.media)-1].Name())
+}
+
+// figureGrid is the vertical layout of one part for people.
+func figureGrid(r inspection) grid {
+	c := r.card
+	g := grid{Header: []string{"figure", "value", "unit"}}
+	add := func(figure, value, unit string) { g.Rows = append(g.Rows, []string{figure, value, unit}) }
+	const front, back = "mm from first vertex", "mm from last vertex"
+	add("length, vertex to vertex", mm(c.Length), "mm")
+	add("power", fixed(c.Dioptres(), 4), "dioptres")
+	if c.Afocal {
+		add("angular magnification", fixed(c.AngularMagnification, 6), "(afocal)")
+		add("lateral magnification", fixed(c.LateralMagnification, 6), "(afocal)")
+	} else {
+		add("EFL", mm(c.EFL), "mm")
+		add("front focal length f, P to F", mm(c.FFront), "mm")
+		add("back focal length f', P' to F'", mm(c.FBack), "mm")
+		add("focal point F (FFD)", mm(c.F), front)
+		add("focal point F' (BFD)", mm(c.FPrime), back)
+		add("principal point P", mm(c.P), front)
+		add("principal point P'", mm(c.PPrime), back)
+		add("nodal point N", mm(c.N), front)
+		add("nodal point N'", mm(c.NPrime), back)
+		add("anti-principal point, front", mm(c.AP), front)
+		add("anti-principal point, back", mm(c.APPrime), back)
+		add("anti-nodal point, front", mm(c.AN), front)
+		add("anti-nodal point, back", mm(c.ANPrime), back)
+	}
+	add("edge thickness", mm(r.EdgeThicknessMm), "mm at "+strconv.FormatFloat(r.diameter, 'g', -1, 64)+" mm diameter")
+	for i, m := range r.media {
+		where := fmt.Sprintf("index, surface %d to %d", i, i+1)
+		switch i {
+		case 0:
+			where = "index of object space"
+		case len(r.media) - 1:
+			where = "index of image space"
+		}
+		add(where, fixed(r.indices[i], 6), m.Name())
+	}
+	return g
+}
+
+// inspectionGrid is one row per part with the JSON keys as header; numbers
+// in full precision, empty for an afocal part's focal quantities.
+func inspectionGrid(rs []inspection) grid {
+	g := grid{Header: []string{"supplier", "part", "reversed", "wavelength_nm", "length_mm", "efl_mm", "f_front_mm", "f_back_mm",
+		"ffd_mm", "bfd_mm", "focal_mm", "focal_prime_mm", "principal_mm", "principal_prime_mm", "nodal_mm", "nodal_prime_mm",
+		"antiprincipal_mm", "antiprincipal_prime_mm", "antinodal_mm", "antinodal_prime_mm", "edge_thickness_mm", "warnings"}}
+	num := func(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
+	opt := func(p *float64) string {
+		if p == nil {
+			return ""
+		}
+		return num(*p)
+	}
+	for _, r := range rs {
+		row := []string{r.Supplier, r.Part, strconv.FormatBool(r.Reversed), num(r.WavelengthNm), num(r.LengthMm)}
+		for _, p := range []*float64{r.EFLMm, r.FFrontMm, r.FBackMm, r.FFDMm, r.BFDMm, r.FocalMm, r.FocalPrimeMm,
+			r.PrincipalMm, r.PrincipalPrimeMm, r.NodalMm, r.NodalPrimeMm, r.AntiPrincipalMm, r.AntiPrincipalPrimeMm,
+			r.AntiNodalMm, r.AntiNodalPrimeMm} {
+			row = append(row, opt(p))
+		}
+		g.Rows = append(g.Rows, append(row, num(r.EdgeThicknessMm), strings.Join(r.Warnings, "; ")))
+	}
+	return g
+}
