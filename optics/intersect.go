@@ -55,7 +55,7 @@ func intersectSphere(c float64, p, d Vec3) (float64, bool) {
 
 // newton refines t so that p + t d lies on the surface z = sag(h), by
 // Newton's method on g(t) = z(t) - sag(h(t)), whose derivative is
-// d_z - sag'(h) (x d_x + y d_y) / h (Spencer and Murty 1962, sec. 3).
+// d_z - sag'(h) (x d_x + y d_y) / h (Spencer and Murty 1962).
 func (s Surface) newton(p, d Vec3, t float64) (float64, bool) {
 	for i := 0; i < newtonSteps; i++ {
 		q := p.Add(d.Scale(t))

@@ -19,7 +19,7 @@ type PupilPoint struct{ X, Y, Weight float64 }
 // nodes and weights in rho^2 (the pupil's area variable), so that weighted
 // sums integrate polynomial aberrations over the disc exactly up to
 // rho^(4 rings - 2) in radius and azimuthal order below 6 (Abramowitz and
-// Stegun, Handbook of Mathematical Functions, 1964, eq. 25.4.29, with the
+// Stegun, Handbook of Mathematical Functions, 1964, sec. 25.4, with the
 // change of variable t = rho^2). Nodes from gonum's quad.Legendre. The
 // outermost ring lies just inside the pupil's edge; use Bundle.Marginal
 // for the edge ray itself.

@@ -83,7 +83,7 @@ func TestBestFormShape(t *testing.T) {
 
 // goldenMin is a plain golden-section search for the minimum of a
 // unimodal f on [a, b] (Press et al., Numerical Recipes, 3rd ed.,
-// sec. 10.2).
+// ch. 10).
 func goldenMin(f func(float64) float64, a, b, tol float64) float64 {
 	g := (math.Sqrt(5) - 1) / 2
 	c, d := b-g*(b-a), a+g*(b-a)

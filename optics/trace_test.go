@@ -21,7 +21,7 @@ func lineDistance(v, p, d Vec3) float64 {
 
 func TestRefractSnell(t *testing.T) {
 	// Snell's law n sin I = n' sin I', with the refracted ray in the plane
-	// of incidence (Hecht, Optics, 5th ed., sec. 4.4), for random
+	// of incidence (Hecht, Optics, 5th ed., ch. 4), for random
 	// directions and normals.
 	rng := rand.New(rand.NewPCG(1, 2))
 	for i := 0; i < 1000; i++ {
@@ -52,7 +52,7 @@ func cross(a, b Vec3) Vec3 {
 func TestRayThroughCentreUndeviated(t *testing.T) {
 	// A ray aimed at the centre of curvature meets the sphere along the
 	// normal and goes on undeviated (Snell's law with I = 0; e.g. Hecht,
-	// Optics, 5th ed., sec. 5.2).
+	// Optics, 5th ed., ch. 5).
 	rng := rand.New(rand.NewPCG(3, 4))
 	for i := 0; i < 500; i++ {
 		r := 20 + 200*rng.Float64()
@@ -76,7 +76,7 @@ func TestAplanaticPoints(t *testing.T) {
 	// of index n at R (n + n')/n from the vertex images, at every aperture
 	// and with no spherical aberration, to a virtual point R (n + n')/n'
 	// from the vertex (Born and Wolf, Principles of Optics, 7th ed.,
-	// sec. 4.2.3; Welford, Aberrations of Optical Systems, 1986, ch. 7, on
+	// ch. 4; Welford, Aberrations of Optical Systems, 1986, ch. 7, on
 	// aplanatic surfaces). Here the glass is on the object side and the
 	// surface bulges toward +z (R < 0).
 	for _, tc := range []struct {
@@ -147,7 +147,7 @@ func TestCartesianEllipsoid(t *testing.T) {
 	// An ellipsoid of eccentricity 1/n (conic k = -1/n^2) brings a
 	// collimated beam in air to a perfect focus inside glass of index n, at
 	// n R / (n - 1) from the vertex (Descartes' ovals; Hecht, Optics, 5th
-	// ed., sec. 5.2.1). Exercises the Newton intersection on a conic.
+	// ed., ch. 5). Exercises the Newton intersection on a conic.
 	for _, n := range []float64{1.5, 1.8} {
 		r := 20.0
 		s := Surface{Radius: r, Conic: -1 / (n * n)}
