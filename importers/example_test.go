@@ -51,3 +51,12 @@ silica,sellmeier,0.6961663 0.004679148 0.4079426 0.01351206 0.8974794 97.934,210
 	// Output:
 	// silica nd = 1.45846
 }
+
+func ExampleReadDrawer() {
+	csv := "supplier,part,quantity,location\nDEMO,PCX-50,3,B2\nDEMO,PCX-50,1,B3\nDEMO,ACH-100,two,\n"
+	_, err := importers.ReadDrawer(strings.NewReader(csv), "drawer.csv")
+	fmt.Println(err)
+	// Output:
+	// drawer.csv:3: part: DEMO:PCX-50 is already on line 2; list each part once
+	// drawer.csv:4: quantity: "two" is not a whole number >= 0
+}
