@@ -46,6 +46,7 @@ type prepared struct {
 	cands    []cand // sorted by power
 	skipped  map[string]int
 	warnings []string
+	outside  []string // media used outside their dispersion range
 	priceRef float64
 }
 
@@ -84,7 +85,11 @@ func prepare(items []Item, req Requirement) *prepared {
 			p.cands = append(p.cands, c)
 		}
 	}
-	sort.Strings(p.warnings)
+	if len(p.outside) > 0 {
+		sort.Strings(p.outside)
+		p.warnings = append(p.warnings, fmt.Sprintf("%g nm is outside the range of the dispersion formulas of %s: their indices are extrapolated",
+			lambda, strings.Join(p.outside, ", ")))
+	}
 	p.priceRef = priceReference(items)
 	for i := range p.cands {
 		p.cands[i].price = priceTerm(items[p.cands[i].item].Entry.Price, p.priceRef)
@@ -93,15 +98,15 @@ func prepare(items []Item, req Requirement) *prepared {
 	return p
 }
 
-// warn notes, once each, the media used outside their dispersion range.
+// warn notes the media used outside their dispersion range, once each.
 func (p *prepared) warn(sys optics.System, lambda float64, warned map[string]bool) {
 	for _, m := range sys.Media {
 		if warned[m.Name()] {
 			continue
 		}
 		warned[m.Name()] = true
-		if w := optics.RangeWarning(m, lambda); w != "" {
-			p.warnings = append(p.warnings, w)
+		if lo, hi := m.Range(); optics.RangeWarning(m, lambda) != "" {
+			p.outside = append(p.outside, fmt.Sprintf("%s (%.0f-%.0f nm)", m.Name(), lo, hi))
 		}
 	}
 }

@@ -83,10 +83,13 @@ type Requirement struct {
 	Prefer      Prefer  `json:"prefer,omitempty"`
 }
 
-// Defaults returns the requirement the command line starts from: gap
-// minimum 0.5 mm, top 10, singlets and pairs, the d line.
+// Defaults returns the requirement the command line and spec files start
+// from: tolerances 1 %, gap minimum 0.5 mm, top 10, singlets and pairs, the
+// d line.
 func Defaults() Requirement {
-	return Requirement{GapMin: DefaultGapMin, Top: DefaultTop, Elements: 2, Wavelength: optics.LineD}
+	one := Tolerance{Value: 1, Percent: true}
+	return Requirement{EFLTol: one, MagTol: one, ExpandTol: one,
+		GapMin: DefaultGapMin, Top: DefaultTop, Elements: 2, Wavelength: optics.LineD}
 }
 
 // Lambda is the wavelength in nm, the d line when not given.

@@ -1,0 +1,328 @@
+package main
+
+import (
+	"context"
+	"encoding/json"
+	"fmt"
+
+	"strings"
+
+	"github.com/spf13/cobra"
+	"github.com/spf13/pflag"
+
+	"cardinal/catalog"
+	"cardinal/search"
+)
+
+// findOptions are the flags of `cardinal find`, bound as given; Req is the
+// requirement they describe once validate has run.
+type findOptions struct {
+	env   *env
+	db    string
+	flags *pflag.FlagSet
+
+	EFL, Beam, BFDMin, Wavelength  float64
+	EFLTol, MagTol, ExpandTol      string
+	Track, Mag, ObjectHeight, NA   float64
+	WDMin, Expand                  float64
+	Galilean, Keplerian            bool
+	LengthMax, DiameterMax, GapMin float64
+	Elements, Top                  int
+	Supplier, Prefer, Spec, Format string
+	DrawerOnly                     bool
+
+	Req search.Requirement
+}
+
+func init() {
+	commands = append(commands, func(e *env) *cobra.Command { return newFindCmd(e, runFind) })
+}
+
+func newFindCmd(e *env, run func(*findOptions) error) *cobra.Command {
+	opts := &findOptions{env: e}
+	cmd := &cobra.Command{
+		Use:   "find",
+		Short: "Find stock singlets and pairs that meet first-order requirements",
+		Long: `Find single parts and pairs of parts from the catalog that meet one of three
+first-order requirements, using each part's thick-lens cardinal points at the
+wavelength, in both orientations:
+
+  focus   --efl: focus a collimated beam (EFL, back clearance)
+  image   --track and --mag: image an object plane onto an image plane
+  expand  --expand: an afocal pair that expands (or reduces) a beam
+
+Pairs are solved at the target (the gap absorbs the difference); a single
+part or an expander is admitted within the tolerance and its error shown.
+Lengths in mm: working distance is object plane to first vertex, back
+clearance last vertex to image (or focal) plane, envelope first to last
+vertex, gap between the facing vertices. Results meeting every constraint are
+ranked by a score (error against tolerance, envelope, number of parts, price,
+parts in the drawer; --prefer shifts it). Every run is saved; its id is
+printed on stderr.
+
+Paraxial results: check real-ray figures before you build.`,
+		Example: `  cardinal find --efl 75 --efl-tol 1% --beam 6 --bfd-min 40 --wavelength 1064
+  cardinal find --track 300 --mag -0.36 --mag-tol 2% --object-height 5 --na 0.02 --wd-min 60 --bfd-min 15
+  cardinal find --expand 5 --expand-tol 2% --beam 2 --galilean --length-max 150
+  cardinal find --spec relay.json --top 3 --format json`,
+		Args: cobra.NoArgs,
+		RunE: func(c *cobra.Command, _ []string) error {
+			opts.db = dbFlag(c)
+			opts.flags = c.Flags()
+			if err := opts.validate(); err != nil {
+				return err
+			}
+			return run(opts)
+		},
+	}
+	f := cmd.Flags()
+	f.Float64Var(&opts.EFL, "efl", 0, "focus: effective focal length to reach, mm")
+	f.StringVar(&opts.EFLTol, "efl-tol", "1%", "EFL tolerance: percent (1%) or mm (0.5mm)")
+	f.Float64Var(&opts.Beam, "beam", 0, "collimated input beam diameter, mm (checks ray heights)")
+	f.Float64Var(&opts.BFDMin, "bfd-min", 0, "least back clearance, last vertex to the focal or image plane, mm")
+	f.Float64Var(&opts.Wavelength, "wavelength", 587.5618, "wavelength, nm")
+	f.Float64Var(&opts.Track, "track", 0, "image: object plane to image plane, mm")
+	f.Float64Var(&opts.Mag, "mag", 0, "image: signed magnification (-0.5: inverted, half size)")
+	f.StringVar(&opts.MagTol, "mag-tol", "1%", "magnification tolerance: percent (2%) or absolute (0.01)")
+	f.Float64Var(&opts.ObjectHeight, "object-height", 0, "image: half the object field, mm (checks ray heights)")
+	f.Float64Var(&opts.NA, "na", 0, "image: object-space numerical aperture (checks ray heights)")
+	f.Float64Var(&opts.WDMin, "wd-min", 0, "image: least working distance, mm")
+	f.Float64Var(&opts.Expand, "expand", 0, "expand: output over input beam diameter")
+	f.StringVar(&opts.ExpandTol, "expand-tol", "1%", "expansion tolerance: percent (2%) or absolute (0.05)")
+	f.BoolVar(&opts.Galilean, "galilean", false, "expand: negative and positive part, no internal focus")
+	f.BoolVar(&opts.Keplerian, "keplerian", false, "expand: two positive parts, an internal focus")
+	f.Float64Var(&opts.LengthMax, "length-max", 0, "longest envelope, first to last vertex, mm (0: no limit)")
+	f.Float64Var(&opts.DiameterMax, "diameter-max", 0, "largest part diameter, mm (0: no limit)")
+	f.Float64Var(&opts.GapMin, "gap-min", search.DefaultGapMin, "least edge clearance between facing parts, mm")
+	f.IntVar(&opts.Elements, "elements", 2, "1: single parts only; 2: single parts and pairs")
+	f.StringVar(&opts.Supplier, "supplier", "", "only parts of this supplier")
+	f.BoolVar(&opts.DrawerOnly, "drawer-only", false, "only parts in the drawer")
+	f.IntVar(&opts.Top, "top", search.DefaultTop, "results to show (0: all that meet the requirement)")
+	f.StringVar(&opts.Prefer, "prefer", "", "rank weight to raise: drawer, short or cheap")
+	f.StringVar(&opts.Spec, "spec", "", "JSON requirement file; flags given override it")
+	f.StringVar(&opts.Format, "format", "table", "output format: table, json, csv or md")
+	return cmd
+}
+
+// validate builds the requirement from the spec file and the flags given,
+// and checks it.
+func (o *findOptions) validate() error {
+	if err := checkFormat(o.Format); err != nil {
+		return err
+	}
+	req := search.Defaults()
+	if o.Spec != "" {
+		b, err := readInputFile(o.Spec, o.env)
+		if err != nil {
+			return err
+		}
+		if req, err = search.ReadSpec(strings.NewReader(string(b)), o.Spec); err != nil {
+			return usageErrorf("%v", err)
+		}
+	}
+	if err := o.apply(&req); err != nil {
+		return err
+	}
+	if err := req.Validate(); err != nil {
+		return usageErrorf("%v", err)
+	}
+	o.Req = req
+	return nil
+}
+
+// apply lays the flags given on the command line over the requirement.
+func (o *findOptions) apply(req *search.Requirement) error {
+	set := func(name string) bool { return o.flags != nil && o.flags.Changed(name) }
+	if err := o.applyKind(req, set); err != nil {
+		return err
+	}
+	floats := map[string]*float64{"efl": &req.EFL, "beam": &req.Beam, "bfd-min": &req.BFDMin,
+		"wavelength": &req.Wavelength, "track": &req.Track, "mag": &req.Mag,
+		"object-height": &req.ObjectHeight, "na": &req.NA, "wd-min": &req.WDMin, "expand": &req.Expansion,
+		"length-max": &req.LengthMax, "diameter-max": &req.DiameterMax, "gap-min": &req.GapMin}
+	values := map[string]float64{"efl": o.EFL, "beam": o.Beam, "bfd-min": o.BFDMin,
+		"wavelength": o.Wavelength, "track": o.Track, "mag": o.Mag,
+		"object-height": o.ObjectHeight, "na": o.NA, "wd-min": o.WDMin, "expand": o.Expand,
+		"length-max": o.LengthMax, "diameter-max": o.DiameterMax, "gap-min": o.GapMin}
+	for name, p := range floats {
+		if set(name) {
+			*p = values[name]
+		}
+	}
+	tols := []struct {
+		flag, value, unit string
+		dst               *search.Tolerance
+	}{{"efl-tol", o.EFLTol, "mm", &req.EFLTol}, {"mag-tol", o.MagTol, "", &req.MagTol}, {"expand-tol", o.ExpandTol, "", &req.ExpandTol}}
+	for _, t := range tols {
+		if set(t.flag) {
+			v, err := search.ParseTolerance(t.value, t.unit)
+			if err != nil {
+				return usageErrorf("--%s: %v", t.flag, err)
+			}
+			*t.dst = v
+		}
+	}
+	o.applyRest(req, set)
+	return nil
+}
+
+// applyKind sets the kind from the target flags given: at most one kind,
+// and the spec file's own if none.
+func (o *findOptions) applyKind(req *search.Requirement, set func(string) bool) error {
+	var kinds []search.Kind
+	if set("efl") {
+		kinds = append(kinds, search.Focus)
+	}
+	if set("track") || set("mag") {
+		kinds = append(kinds, search.Image)
+	}
+	if set("expand") {
+		kinds = append(kinds, search.Expand)
+	}
+	switch {
+	case len(kinds) > 1:
+		return usageErrorf("give one requirement: --efl (focus), --track and --mag (image) or --expand, not several")
+	case len(kinds) == 1 && req.Kind != "" && req.Kind != kinds[0]:
+		return usageErrorf("the spec file %s asks for %s; its target flags cannot turn it into %s", o.Spec, req.Kind, kinds[0])
+	case len(kinds) == 1:
+		req.Kind = kinds[0]
+	}
+	return nil
+}
+
+func (o *findOptions) applyRest(req *search.Requirement, set func(string) bool) {
+	if set("elements") {
+		req.Elements = o.Elements
+	}
+	if set("top") {
+		req.Top = o.Top
+	}
+	if set("supplier") {
+		req.Supplier = o.Supplier
+	}
+	if set("drawer-only") {
+		req.DrawerOnly = o.DrawerOnly
+	}
+	if set("prefer") {
+		req.Prefer = search.Prefer(o.Prefer)
+	}
+	switch {
+	case o.Galilean && o.Keplerian:
+		req.Form = "both" // Validate rejects it with the list of forms
+	case o.Galilean:
+		req.Form = search.Galilean
+	case o.Keplerian:
+		req.Form = search.Keplerian
+	}
+}
+
+// findOutput is the JSON document: the requirement and the results, with
+// why nothing met it and the nearest misses when nothing did.
+type findOutput struct {
+	Requirement search.Requirement `json:"requirement"`
+	Results     []search.Result    `json:"results"`
+	Why         []string           `json:"why,omitempty"`
+	Misses      []search.Result    `json:"misses,omitempty"`
+	Notes       []string           `json:"notes,omitempty"`
+}
+
+func runFind(o *findOptions) error {
+	e := o.env
+	st, err := openForRead(o.db, e)
+	if err != nil {
+		return err
+	}
+	defer st.Close()
+	ctx := context.Background()
+	items, err := loadItems(ctx, st, o.Req)
+	if err != nil {
+		return err
+	}
+	out, err := search.Find(items, o.Req)
+	if err != nil {
+		return usageErrorf("%v", err)
+	}
+	doc := findOutput{Requirement: out.Requirement, Results: out.Results, Why: out.Why, Misses: out.Misses, Notes: out.Notes}
+	if err := saveSearch(ctx, st, e, doc); err != nil {
+		return err
+	}
+	printCautions(e, o.Req, out)
+	if err := render(e.Out, o.Format, resultGrid(o.Req, out.Results), doc); err != nil {
+		return err
+	}
+	if len(out.Results) > 0 {
+		return nil
+	}
+	return noResult(e, o, out)
+}
+
+// loadItems reads the parts the requirement may use, with the drawer.
+func loadItems(ctx context.Context, st *catalog.Store, req search.Requirement) ([]search.Item, error) {
+	entries, err := st.Entries(ctx, catalog.Filter{InDrawer: req.DrawerOnly})
+	if err != nil {
+		return nil, catalogError(err)
+	}
+	drawer, err := st.Drawer(ctx)
+	if err != nil {
+		return nil, catalogError(err)
+	}
+	return search.Items(entries, drawer), nil
+}
+
+// saveSearch stores the run and says its id on stderr.
+func saveSearch(ctx context.Context, st *catalog.Store, e *env, doc findOutput) error {
+	req, err := json.Marshal(doc.Requirement)
+	if err != nil {
+		return err
+	}
+	res, err := json.Marshal(doc.Results)
+	if err != nil {
+		return err
+	}
+	id, err := st.SaveSearch(ctx, string(doc.Requirement.Kind), req, res, e.Now())
+	if err != nil {
+		return catalogError(err)
+	}
+	if st.Path() == catalog.Memory {
+		fmt.Fprintf(e.Err, "saved as search %d in the built-in demo catalog, which is not kept after this run\n", id)
+		return nil
+	}
+	fmt.Fprintf(e.Err, "saved as search %d\n", id)
+	return nil
+}
+
+// laserCaution is printed whenever a requirement mentions a laser.
+const laserCaution = "caution: focused laser beams and ghost foci can burn skin, eyes and parts; " +
+	"check coatings and damage thresholds; follow your local laser safety rules and your laser safety officer"
+
+// printCautions writes the notes and, for a laser, the safety caution.
+func printCautions(e *env, req search.Requirement, out search.Outcome) {
+	for _, n := range out.Notes {
+		fmt.Fprintln(e.Err, "note:", n)
+	}
+	if !req.Laser() {
+		return
+	}
+	fmt.Fprintln(e.Err, laserCaution)
+	if req.Kind == search.Expand && req.Form != search.Galilean {
+		fmt.Fprintln(e.Err, "caution: a Keplerian expander brings the beam to a focus between its parts; mind the damage threshold and air breakdown there")
+	}
+}
+
+// noResult prints why nothing met the requirement and the nearest misses
+// (for people; JSON carries both already) and returns the no-result error.
+func noResult(e *env, o *findOptions, out search.Outcome) error {
+	if o.Format == "json" {
+		return noResultErrorf("nothing meets the requirement (see \"why\" and \"misses\")")
+	}
+	for _, w := range out.Why {
+		fmt.Fprintln(e.Err, w)
+	}
+	if len(out.Misses) > 0 {
+		fmt.Fprintln(e.Err, "nearest misses:")
+		if err := render(e.Err, "table", resultGrid(o.Req, out.Misses), nil); err != nil {
+			return err
+		}
+	}
+	return noResultErrorf("nothing meets the requirement: loosen a limit above and search again")
+}

@@ -1,0 +1,89 @@
+package main
+
+import (
+	"fmt"
+	"math"
+	"strings"
+
+	"cardinal/search"
+)
+
+// resultGrid lays results out for a terminal: short columns, parts as
+// SUPPLIER:PART with "(rev)" when turned around.
+func resultGrid(req search.Requirement, rs []search.Result) grid {
+	target := map[search.Kind]string{search.Focus: "EFL", search.Image: "mag", search.Expand: "expansion"}[req.Kind]
+	g := grid{Header: []string{"#", "parts", "wd", "gap", "back", "envelope", "track", target, "error", "checks", "price", "drawer", "why"}}
+	for _, r := range rs {
+		g.Rows = append(g.Rows, []string{
+			fmt.Sprint(r.Rank), partsCell(r.Parts), findMM(r.WorkingDistance), findMM(r.Gap), findMM(r.BackClearance),
+			fixed(r.Envelope, 2), findMM(r.Track), targetCell(req, r), errorCell(req, r), checksCell(r),
+			priceCell(r), yesNo(r.InDrawer), r.Reason})
+	}
+	return g
+}
+
+func partsCell(ps []search.PartUse) string {
+	s := make([]string, len(ps))
+	for i, p := range ps {
+		s[i] = p.ID()
+		if p.Reversed {
+			s[i] += " (rev)"
+		}
+	}
+	return strings.Join(s, " + ")
+}
+
+// findMM prints a length in mm with two decimals, "-" where it does not apply.
+func findMM(v *float64) string {
+	if v == nil {
+		return "-"
+	}
+	return fixed(*v, 2)
+}
+
+func targetCell(req search.Requirement, r search.Result) string {
+	switch {
+	case r.EFL != nil:
+		return fixed(*r.EFL, 3)
+	case r.Magnification != nil:
+		return fixed(*r.Magnification, 4)
+	case r.Expansion != nil:
+		return fixed(*r.Expansion, 3) + " " + string(r.Form)
+	}
+	return "-"
+}
+
+// errorCell is the error in percent of the target; "0" within rounding.
+func errorCell(req search.Requirement, r search.Result) string {
+	if math.Abs(r.ErrorPct) < 5e-4 {
+		return "0"
+	}
+	return fmt.Sprintf("%+.2g%%", r.ErrorPct)
+}
+
+func checksCell(r search.Result) string {
+	var bad []string
+	for _, c := range r.Checks {
+		if !c.OK {
+			bad = append(bad, c.Name)
+		}
+	}
+	if len(bad) == 0 {
+		return "all ok"
+	}
+	return "fails " + strings.Join(bad, ",")
+}
+
+func priceCell(r search.Result) string {
+	if r.Price == nil {
+		return "?"
+	}
+	return strings.TrimSpace(fixed(*r.Price, 2) + " " + r.Currency)
+}
+
+func yesNo(b bool) string {
+	if b {
+		return "yes"
+	}
+	return "no"
+}
