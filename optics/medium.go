@@ -144,15 +144,9 @@ var builtin = []Medium{
 		B:    []float64{1.4313493, 0.65054713, 5.3414021},
 		C:    []float64{0.0726631 * 0.0726631, 0.1193242 * 0.1193242, 18.028251 * 18.028251},
 		LoNm: 200, HiNm: 5500},
-	// M. Daimon and A. Masumura, "Measurement of the refractive index of
-	// distilled water from the near-infrared region to the ultraviolet
-	// region", Appl. Opt. 46, 3811-3820 (2007), four-term Sellmeier at
-	// 20 degrees C (coefficients from memory; checked in tests against the
-	// common-practice nd = 1.333 and Vd near 55.7); 0.182-1.129 um.
-	Sellmeier{Label: "water",
-		B:    []float64{5.684027565e-1, 1.726177391e-1, 2.086189578e-2, 1.130748688e-1},
-		C:    []float64{5.101829712e-3, 1.821153936e-2, 2.620722293e-2, 1.069792721e1},
-		LoNm: 182, HiNm: 1129},
+	// Water near 20 degrees C: nd = 1.333 and Vd = 55.7 (handbook values,
+	// common practice), as a two-term Cauchy fit over the visible.
+	CauchyFromAbbe("water", 1.333, 55.7),
 }
 
 // A GlassTable resolves material names: "air", six-digit glass codes, and
