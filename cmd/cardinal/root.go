@@ -34,6 +34,9 @@ Paraxial figures hold near the axis; check real-ray figures before you build.`,
 	for _, c := range commands {
 		root.AddCommand(c(e))
 	}
+	for _, h := range rootHooks { // db.go: the persistent --db flag
+		h(root, e)
+	}
 	return root
 }
 

@@ -1,0 +1,194 @@
+package main
+
+import (
+	"errors"
+	"fmt"
+	"io"
+	"io/fs"
+	"os"
+	"path/filepath"
+	"strings"
+
+	"github.com/spf13/cobra"
+
+	"cardinal/catalog"
+	"cardinal/importers"
+)
+
+// rootHooks run on the root command once it is built (root.go calls them);
+// this file adds the persistent --db flag through one.
+var rootHooks []func(root *cobra.Command, e *env)
+
+func init() {
+	rootHooks = append(rootHooks, func(root *cobra.Command, e *env) {
+		root.PersistentFlags().String("db", "", "catalog file (default: $CARDINAL_DB, else $XDG_DATA_HOME/cardinal/catalog.db, else ~/.local/share/cardinal/catalog.db)")
+	})
+}
+
+// dbFlag reads the persistent --db flag of the command line, "" if unset
+// or if the command runs without the root command (in tests).
+func dbFlag(cmd *cobra.Command) string {
+	if f := cmd.Flag("db"); f != nil {
+		return f.Value.String()
+	}
+	return ""
+}
+
+// A catalogLocation is where the catalog file is, and whether the user
+// named it (--db or CARDINAL_DB) or it is the default in the data directory.
+type catalogLocation struct {
+	Path     string
+	Explicit bool
+}
+
+// locateCatalog finds the catalog file: --db, then $CARDINAL_DB, then
+// $XDG_DATA_HOME/cardinal/catalog.db, then ~/.local/share/cardinal/catalog.db
+// (XDG Base Directory Specification 0.8: data files go under
+// $XDG_DATA_HOME, by default $HOME/.local/share; a relative
+// XDG_DATA_HOME is ignored).
+func locateCatalog(flag string, e *env) (catalogLocation, error) {
+	if flag != "" {
+		return catalogLocation{flag, true}, nil
+	}
+	if p := e.Getenv("CARDINAL_DB"); p != "" {
+		return catalogLocation{p, true}, nil
+	}
+	if d := e.Getenv("XDG_DATA_HOME"); filepath.IsAbs(d) {
+		return catalogLocation{filepath.Join(d, "cardinal", "catalog.db"), false}, nil
+	}
+	if h := e.Getenv("HOME"); h != "" {
+		return catalogLocation{filepath.Join(h, ".local", "share", "cardinal", "catalog.db"), false}, nil
+	}
+	return catalogLocation{}, usageErrorf("no place for the catalog: neither --db, CARDINAL_DB, XDG_DATA_HOME nor HOME is set; give --db PATH")
+}
+
+// exists tells whether the catalog file is there.
+func (l catalogLocation) exists() (bool, error) {
+	_, err := os.Stat(l.Path)
+	if errors.Is(err, fs.ErrNotExist) {
+		return false, nil
+	}
+	if err != nil {
+		return false, usageErrorf("catalog %s: %v", l.Path, err)
+	}
+	return true, nil
+}
+
+// openForRead opens the user's catalog or, when there is none yet, the
+// built-in demo catalog, saying so in one line on stderr. Every read
+// command (list, export, find, inspect PART) opens the catalog this way.
+func openForRead(flag string, e *env) (*catalog.Store, error) {
+	loc, err := locateCatalog(flag, e)
+	if err != nil {
+		return nil, err
+	}
+	ok, err := loc.exists()
+	if err != nil {
+		return nil, err
+	}
+	if !ok {
+		fmt.Fprintf(e.Err, "cardinal: no catalog at %s yet: using the built-in demo catalog (invented parts); add your own with 'cardinal catalog import FILE'\n", loc.Path)
+		s, err := catalog.OpenDemo()
+		return s, catalogError(err)
+	}
+	s, err := catalog.Open(loc.Path)
+	return s, catalogError(err)
+}
+
+// openForWrite opens the user's catalog to change it. With create, a
+// missing file is created (and the default data directory with it);
+// otherwise a missing file is an error, so that a command with nothing to
+// change leaves no empty catalog behind.
+func openForWrite(flag string, e *env, create bool) (*catalog.Store, error) {
+	loc, err := locateCatalog(flag, e)
+	if err != nil {
+		return nil, err
+	}
+	ok, err := loc.exists()
+	if err != nil {
+		return nil, err
+	}
+	if !ok && !create {
+		return nil, notFoundErrorf("no catalog at %s yet: import one first with 'cardinal catalog import FILE'", loc.Path)
+	}
+	if !ok {
+		if err := prepareDir(loc); err != nil {
+			return nil, err
+		}
+	}
+	s, err := catalog.Open(loc.Path)
+	return s, catalogError(err)
+}
+
+// prepareDir creates the default data directory; a directory the user
+// named must exist already.
+func prepareDir(loc catalogLocation) error {
+	dir := filepath.Dir(loc.Path)
+	if !loc.Explicit {
+		if err := os.MkdirAll(dir, 0o755); err != nil {
+			return usageErrorf("cannot create the catalog directory %s: %v; give another place with --db or CARDINAL_DB", dir, err)
+		}
+		return nil
+	}
+	st, err := os.Stat(dir)
+	if err != nil || !st.IsDir() {
+		return usageErrorf("catalog %s: the directory %s does not exist; create it or choose another path", loc.Path, dir)
+	}
+	return nil
+}
+
+// catalogError maps the catalog's errors to exit codes: a file that cannot
+// be used and bad input rows are usage errors, a missing part or search is
+// not found.
+func catalogError(err error) error {
+	var nf *catalog.NotFoundError
+	var oe *catalog.OpenError
+	var ie *catalog.ImportError
+	var fe importers.FileErrors
+	var ce *cmdError
+	switch {
+	case err == nil:
+		return nil
+	case errors.As(err, &ce):
+		return err
+	case errors.As(err, &nf):
+		return &cmdError{exitNotFound, err}
+	case errors.As(err, &oe), errors.As(err, &ie), errors.As(err, &fe):
+		return &cmdError{exitUsage, err}
+	}
+	return err
+}
+
+// importErrorf reports the rows that stopped an import, one per line as
+// FILE:LINE: SUPPLIER:PART: column: reason, and that nothing changed.
+func importErrorf(file string, err error) error {
+	var ie *catalog.ImportError
+	if !errors.As(err, &ie) {
+		return catalogError(err)
+	}
+	lines := make([]string, len(ie.Rows))
+	for i, r := range ie.Rows {
+		r2 := r
+		r2.Line = 0
+		lines[i] = fmt.Sprintf("%s:%d: %s", file, r.Line, r2.Error())
+	}
+	return usageErrorf("%s: %d problem(s); nothing was changed. Fix these and import again:\n%s", file, len(lines), strings.Join(lines, "\n"))
+}
+
+// readInputFile reads a file to import; "-" is standard input.
+func readInputFile(name string, e *env) ([]byte, error) {
+	var b []byte
+	var err error
+	if name == "-" {
+		b, err = io.ReadAll(e.In)
+	} else {
+		b, err = os.ReadFile(name)
+	}
+	switch {
+	case errors.Is(err, fs.ErrNotExist):
+		return nil, notFoundErrorf("%s: no such file", name)
+	case err != nil:
+		return nil, usageErrorf("%s: %v", name, err)
+	}
+	return b, nil
+}

@@ -1,0 +1,132 @@
+package main
+
+import (
+	"bytes"
+	"errors"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+	"time"
+)
+
+// storeEnv is an env for the catalog commands: buffers for the streams and
+// an environment of its own, HOME in a fresh directory and nothing else.
+func storeEnv(t *testing.T, vars map[string]string) (*env, *bytes.Buffer, *bytes.Buffer) {
+	t.Helper()
+	home := t.TempDir()
+	var out, errb bytes.Buffer
+	e := &env{In: strings.NewReader(""), Out: &out, Err: &errb,
+		Now: func() time.Time { return time.Date(2025, 1, 2, 3, 4, 5, 0, time.UTC) },
+		Getenv: func(k string) string {
+			if v, ok := vars[k]; ok {
+				return v
+			}
+			if k == "HOME" {
+				return home
+			}
+			return ""
+		}}
+	return e, &out, &errb
+}
+
+// runCLI runs a command line against e and returns the exit code, with the
+// streams reset first.
+func runCLI(e *env, args ...string) int {
+	e.Out.(*bytes.Buffer).Reset()
+	e.Err.(*bytes.Buffer).Reset()
+	return execute(args, e)
+}
+
+const demoLensesCSV = "../../testdata/demo/lenses.csv"
+
+func TestLocateCatalog(t *testing.T) {
+	for _, tc := range []struct {
+		name     string
+		flag     string
+		vars     map[string]string
+		want     string
+		explicit bool
+		err      bool
+	}{
+		{"--db wins", "/x/a.db", map[string]string{"CARDINAL_DB": "/y/b.db", "XDG_DATA_HOME": "/z", "HOME": "/h"}, "/x/a.db", true, false},
+		{"CARDINAL_DB next", "", map[string]string{"CARDINAL_DB": "/y/b.db", "XDG_DATA_HOME": "/z", "HOME": "/h"}, "/y/b.db", true, false},
+		// XDG Base Directory Specification: $XDG_DATA_HOME, else
+		// $HOME/.local/share; a relative path is ignored.
+		{"XDG_DATA_HOME", "", map[string]string{"XDG_DATA_HOME": "/z", "HOME": "/h"}, "/z/cardinal/catalog.db", false, false},
+		{"relative XDG_DATA_HOME ignored", "", map[string]string{"XDG_DATA_HOME": "rel", "HOME": "/h"}, "/h/.local/share/cardinal/catalog.db", false, false},
+		{"HOME", "", map[string]string{"HOME": "/h"}, "/h/.local/share/cardinal/catalog.db", false, false},
+		{"nothing set", "", map[string]string{"HOME": ""}, "", false, true},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			e, _, _ := storeEnv(t, tc.vars)
+			loc, err := locateCatalog(tc.flag, e)
+			if tc.err {
+				if exitCode(err) != exitUsage {
+					t.Errorf("error %v, want a usage error", err)
+				}
+				return
+			}
+			if err != nil || loc.Path != tc.want || loc.Explicit != tc.explicit {
+				t.Errorf("locateCatalog = %+v, %v; want %s (explicit %v)", loc, err, tc.want, tc.explicit)
+			}
+		})
+	}
+}
+
+func TestOpenForRead(t *testing.T) {
+	e, _, errb := storeEnv(t, nil)
+	s, err := openForRead("", e)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer s.Close()
+	if lines := strings.Count(errb.String(), "\n"); lines != 1 || !strings.Contains(errb.String(), "built-in demo catalog") {
+		t.Errorf("stderr %q, want one line about the demo catalog", errb.String())
+	}
+	home := e.Getenv("HOME")
+	if _, err := os.Stat(filepath.Join(home, ".local")); !errors.Is(err, os.ErrNotExist) {
+		t.Errorf("a read command created %s/.local (%v)", home, err)
+	}
+}
+
+func TestOpenForWrite(t *testing.T) {
+	e, _, _ := storeEnv(t, nil)
+	if _, err := openForWrite("", e, false); exitCode(err) != exitNotFound {
+		t.Errorf("no catalog, no create: %v, want not found", err)
+	}
+	s, err := openForWrite("", e, true)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s.Close()
+	if _, err := os.Stat(filepath.Join(e.Getenv("HOME"), ".local/share/cardinal/catalog.db")); err != nil {
+		t.Errorf("default catalog not created: %v", err)
+	}
+	missing := filepath.Join(t.TempDir(), "no", "such", "dir", "c.db")
+	if _, err := openForWrite(missing, e, true); exitCode(err) != exitUsage || !strings.Contains(err.Error(), "does not exist") {
+		t.Errorf("explicit path in a missing directory: %v", err)
+	}
+}
+
+func TestDBFlagAndEnvironment(t *testing.T) {
+	dir := t.TempDir()
+	byFlag, byEnv := filepath.Join(dir, "flag.db"), filepath.Join(dir, "env.db")
+	e, out, errb := storeEnv(t, map[string]string{"CARDINAL_DB": byEnv})
+	if code := runCLI(e, "--db", byFlag, "catalog", "import", demoLensesCSV); code != 0 {
+		t.Fatalf("exit %d: %s", code, errb)
+	}
+	if !strings.Contains(out.String(), byFlag) {
+		t.Errorf("import output %q does not name %s", out, byFlag)
+	}
+	if _, err := os.Stat(byEnv); !errors.Is(err, os.ErrNotExist) {
+		t.Errorf("--db did not take precedence over CARDINAL_DB")
+	}
+	// The flag goes after the subcommand too (a persistent flag).
+	if code := runCLI(e, "catalog", "import", demoLensesCSV, "--db", byEnv); code != 0 {
+		t.Fatalf("exit %d: %s", code, errb)
+	}
+	if code := runCLI(e, "catalog", "list", "--format", "csv"); code != 0 || errb.Len() != 0 {
+		t.Errorf("list from CARDINAL_DB: exit %d, stderr %q", code, errb)
+	}
+}

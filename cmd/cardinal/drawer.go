@@ -1,0 +1,207 @@
+package main
+
+import (
+	"bytes"
+	"context"
+	"fmt"
+	"strconv"
+
+	"github.com/spf13/cobra"
+
+	"cardinal/catalog"
+	"cardinal/importers"
+)
+
+func init() {
+	commands = append(commands, func(e *env) *cobra.Command {
+		cmd := &cobra.Command{
+			Use:   "drawer",
+			Short: "Record which catalog parts you have at hand, how many and where",
+			Long: `The drawer is the lenses you hold: for each catalog part, a quantity and a
+location. 'cardinal find --in-drawer' and 'catalog list --in-drawer' use it.`,
+		}
+		cmd.AddCommand(newDrawerImportCmd(e, runDrawerImport), newDrawerSetCmd(e, runDrawerSet), newDrawerListCmd(e, runDrawerList))
+		return cmd
+	})
+}
+
+// drawerImportOptions are the arguments of `drawer import`.
+type drawerImportOptions struct {
+	env    *env
+	DB     string
+	File   string
+	DryRun bool
+}
+
+func newDrawerImportCmd(e *env, run func(*drawerImportOptions) error) *cobra.Command {
+	o := &drawerImportOptions{env: e}
+	cmd := &cobra.Command{
+		Use:   "import FILE",
+		Short: "Set quantities and locations from a drawer CSV (supplier, part, quantity, location)",
+		Long: `Read a drawer CSV (columns supplier, part, quantity, location) and set each
+part's quantity and location. Every part must be in the catalog; a file with
+any bad row changes nothing. Parts the file does not name keep their entries.`,
+		Example: `  cardinal drawer import drawer.csv`,
+		Args:    cobra.ExactArgs(1),
+		RunE: func(cmd *cobra.Command, args []string) error {
+			o.DB, o.File = dbFlag(cmd), args[0]
+			return run(o)
+		},
+	}
+	cmd.Flags().BoolVar(&o.DryRun, "dry-run", false, "check the file and report what would change, changing nothing")
+	return cmd
+}
+
+func runDrawerImport(o *drawerImportOptions) error {
+	data, err := readInputFile(o.File, o.env)
+	if err != nil {
+		return err
+	}
+	f, err := importers.ReadDrawerFile(bytes.NewReader(data), o.File)
+	if err != nil {
+		return usageErrorf("%s cannot be imported; nothing was changed. Fix these lines and import again:\n%v", o.File, err)
+	}
+	for _, w := range f.Warnings {
+		fmt.Fprintf(o.env.Err, "cardinal: warning: %v\n", w)
+	}
+	s, err := openForWrite(o.DB, o.env, false)
+	if err != nil {
+		return err
+	}
+	defer s.Close()
+	rep, err := s.ImportDrawer(context.Background(), f.Rows, o.DryRun)
+	if err != nil {
+		return importErrorf(o.File, err)
+	}
+	printChanges(o.env, s.Path(), o.File, "drawer entries", rep.Added, rep.Updated, len(rep.Unchanged), 0, o.DryRun)
+	return nil
+}
+
+// drawerSetOptions are the arguments of `drawer set`.
+type drawerSetOptions struct {
+	env      *env
+	DB       string
+	Part     string
+	Quantity int
+	Location string
+	// KeepLocation is true when --location was not given.
+	KeepLocation bool
+}
+
+func newDrawerSetCmd(e *env, run func(*drawerSetOptions) error) *cobra.Command {
+	o := &drawerSetOptions{env: e}
+	cmd := &cobra.Command{
+		Use:   "set SUPPLIER:PART --quantity N [--location L]",
+		Short: "Set how many of a part you have and where",
+		Example: `  cardinal drawer set DEMO:PCX-50 --quantity 3 --location B2
+  cardinal drawer set DEMO:PCX-50 --quantity 0`,
+		Args: cobra.ExactArgs(1),
+		RunE: func(cmd *cobra.Command, args []string) error {
+			o.DB, o.Part = dbFlag(cmd), args[0]
+			o.KeepLocation = !cmd.Flags().Changed("location")
+			if !cmd.Flags().Changed("quantity") {
+				return usageErrorf("give --quantity N (0 when none are left)")
+			}
+			if o.Quantity < 0 {
+				return usageErrorf("--quantity %d: give a whole number >= 0", o.Quantity)
+			}
+			return run(o)
+		},
+	}
+	cmd.Flags().IntVar(&o.Quantity, "quantity", 0, "pieces at hand (0 when none are left)")
+	cmd.Flags().StringVar(&o.Location, "location", "", "where they are, such as B2 (default: keep the stored one)")
+	return cmd
+}
+
+func runDrawerSet(o *drawerSetOptions) error {
+	s, err := openForWrite(o.DB, o.env, false)
+	if err != nil {
+		return err
+	}
+	defer s.Close()
+	it, err := s.SetDrawer(context.Background(), o.Part, o.Quantity, o.Location, o.KeepLocation)
+	if err != nil {
+		return catalogError(err)
+	}
+	fmt.Fprintf(o.env.Out, "%s: %d in the drawer", it.ID(), it.Quantity)
+	if it.Location != "" {
+		fmt.Fprintf(o.env.Out, " at %s", it.Location)
+	}
+	fmt.Fprintln(o.env.Out)
+	return nil
+}
+
+// drawerListOptions are the flags of `drawer list`.
+type drawerListOptions struct {
+	env    *env
+	DB     string
+	Format string
+}
+
+func newDrawerListCmd(e *env, run func(*drawerListOptions) error) *cobra.Command {
+	o := &drawerListOptions{env: e}
+	cmd := &cobra.Command{
+		Use:     "list",
+		Short:   "List the parts in the drawer with their focal lengths",
+		Example: `  cardinal drawer list --format csv > drawer.csv`,
+		Args:    cobra.NoArgs,
+		RunE: func(cmd *cobra.Command, _ []string) error {
+			o.DB = dbFlag(cmd)
+			if err := checkFormat(o.Format); err != nil {
+				return err
+			}
+			return run(o)
+		},
+	}
+	cmd.Flags().StringVar(&o.Format, "format", "table", "output format: table, json, csv or md (csv is a drawer CSV that 'drawer import' reads)")
+	return cmd
+}
+
+// A drawerEntry is one row of `drawer list --format json`.
+type drawerEntry struct {
+	Supplier    string   `json:"supplier"`
+	Part        string   `json:"part"`
+	Quantity    int      `json:"quantity"`
+	Location    string   `json:"location"`
+	Description string   `json:"description"`
+	EFLMm       *float64 `json:"efl_mm"`
+	DiameterMm  float64  `json:"diameter_mm"`
+}
+
+func runDrawerList(o *drawerListOptions) error {
+	ctx := context.Background()
+	s, err := openForRead(o.DB, o.env)
+	if err != nil {
+		return err
+	}
+	defer s.Close()
+	items, err := s.DrawerItems(ctx)
+	if err != nil {
+		return catalogError(err)
+	}
+	if o.Format == "csv" {
+		return importers.WriteDrawer(o.env.Out, items)
+	}
+	rows, err := s.Computed(ctx, catalog.Filter{})
+	if err != nil {
+		return catalogError(err)
+	}
+	byID := map[string]catalog.PartRow{}
+	for _, r := range rows {
+		byID[r.ID()] = r
+	}
+	out := make([]drawerEntry, len(items))
+	g := grid{Header: []string{"part", "quantity", "location", "EFL mm", "diameter mm", "description"}}
+	for i, it := range items {
+		r := byID[it.ID()]
+		d := drawerEntry{Supplier: it.Supplier, Part: it.Part, Quantity: it.Quantity, Location: it.Location,
+			Description: r.Description, DiameterMm: r.Diameter}
+		if !r.Forward.Afocal {
+			efl := r.Forward.EFL
+			d.EFLMm = &efl
+		}
+		out[i] = d
+		g.Rows = append(g.Rows, []string{it.ID(), strconv.Itoa(it.Quantity), it.Location, optMM(d.EFLMm), mm(d.DiameterMm), d.Description})
+	}
+	return render(o.env.Out, o.Format, g, out)
+}
