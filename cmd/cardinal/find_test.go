@@ -1,0 +1,275 @@
+package main
+
+import (
+	"context"
+	"encoding/json"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"cardinal/catalog"
+	"cardinal/search"
+)
+
+// parseFind runs the command line through a root command whose find
+// captures its options instead of running.
+func parseFind(args []string) (*findOptions, error) {
+	e, _, _ := testEnv()
+	root := newRootCmd(e)
+	for _, c := range root.Commands() {
+		if c.Name() == "find" {
+			root.RemoveCommand(c)
+		}
+	}
+	var got *findOptions
+	root.AddCommand(newFindCmd(e, func(o *findOptions) error { got = o; return nil }))
+	root.SetArgs(append([]string{"find"}, args...))
+	err := root.Execute()
+	return got, err
+}
+
+func writeSpec(t *testing.T, body string) string {
+	t.Helper()
+	p := filepath.Join(t.TempDir(), "relay.json")
+	if err := os.WriteFile(p, []byte(body), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	return p
+}
+
+func TestFindFlags(t *testing.T) {
+	spec := writeSpec(t, `{"kind": "image", "track_mm": 400, "magnification": -1, "mag_tol": "0.5%", "wd_min_mm": 20}`)
+	badSpec := writeSpec(t, `{"kind": "image", "track": 400}`)
+	tests := []struct {
+		name    string
+		args    []string
+		check   func(search.Requirement) bool
+		errText string // part of the usage error, "" for none
+	}{
+		{"focus example", []string{"--efl", "75", "--efl-tol", "1%", "--beam", "6", "--bfd-min", "40", "--wavelength", "1064"},
+			func(r search.Requirement) bool {
+				return r.Kind == search.Focus && r.EFL == 75 && r.EFLTol == (search.Tolerance{Value: 1, Percent: true}) &&
+					r.Beam == 6 && r.BFDMin == 40 && r.Wavelength == 1064 && r.GapMin == 0.5 && r.Top == 10 && r.Elements == 2
+			}, ""},
+		{"efl tolerance in mm", []string{"--efl", "50", "--efl-tol", "0.4mm"},
+			func(r search.Requirement) bool { return r.EFLTol == search.Tolerance{Value: 0.4} }, ""},
+		{"image example", []string{"--track", "300", "--mag", "-0.36", "--mag-tol", "2%", "--object-height", "5", "--na", "0.02", "--wd-min", "60", "--bfd-min", "15"},
+			func(r search.Requirement) bool {
+				return r.Kind == search.Image && r.Track == 300 && r.Mag == -0.36 && r.NA == 0.02 && r.ObjectHeight == 5 && r.WDMin == 60
+			}, ""},
+		{"expand example", []string{"--expand", "5", "--expand-tol", "2%", "--beam", "2", "--galilean", "--length-max", "150"},
+			func(r search.Requirement) bool {
+				return r.Kind == search.Expand && r.Expansion == 5 && r.Form == search.Galilean && r.LengthMax == 150
+			}, ""},
+		{"common constraints", []string{"--efl", "100", "--diameter-max", "25.4", "--gap-min", "1", "--elements", "1", "--supplier", "DEMO", "--drawer-only", "--top", "0", "--prefer", "cheap"},
+			func(r search.Requirement) bool {
+				return r.DiameterMax == 25.4 && r.GapMin == 1 && r.Elements == 1 && r.Supplier == "DEMO" && r.DrawerOnly && r.Top == 0 && r.Prefer == search.PreferCheap
+			}, ""},
+		{"spec file", []string{"--spec", spec},
+			func(r search.Requirement) bool {
+				return r.Kind == search.Image && r.Track == 400 && r.Mag == -1 && r.MagTol == (search.Tolerance{Value: 0.5, Percent: true}) && r.WDMin == 20 && r.GapMin == 0.5
+			}, ""},
+		{"flags override the spec file", []string{"--spec", spec, "--track", "420", "--wd-min", "0"},
+			func(r search.Requirement) bool { return r.Track == 420 && r.WDMin == 0 && r.Mag == -1 }, ""},
+		{"spec file of another kind", []string{"--spec", spec, "--efl", "50"}, nil, "asks for image"},
+		{"misspelt spec key", []string{"--spec", badSpec}, nil, `unknown field "track"`},
+		{"missing spec file", []string{"--spec", "no-such.json"}, nil, "no such file"},
+		{"no requirement", nil, nil, "say what to find"},
+		{"two requirements", []string{"--efl", "50", "--expand", "3"}, nil, "give one requirement"},
+		{"negative track", []string{"--track", "-10", "--mag", "-1"}, nil, "track is negative"},
+		{"negative tolerance", []string{"--efl", "50", "--efl-tol", "-1%"}, nil, "below zero"},
+		{"tolerance not a number", []string{"--efl", "50", "--efl-tol", "lots"}, nil, "want a percentage"},
+		{"both expander forms", []string{"--expand", "3", "--galilean", "--keplerian"}, nil, "unknown expander form"},
+		{"beam on an image", []string{"--track", "200", "--mag", "-1", "--beam", "3"}, nil, "--beam does not apply"},
+		{"margins eat the track", []string{"--track", "100", "--mag", "-1", "--wd-min", "60", "--bfd-min", "50"}, nil, "leave nothing"},
+		{"erect image from one part", []string{"--track", "300", "--mag", "0.5", "--elements", "1"}, nil, "needs two elements"},
+		{"expander of one part", []string{"--expand", "3", "--elements", "1"}, nil, "needs two elements"},
+		{"unknown preference", []string{"--efl", "50", "--prefer", "pretty"}, nil, "unknown preference"},
+		{"unknown format", []string{"--efl", "50", "--format", "xml"}, nil, `unknown --format "xml"`},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			o, err := parseFind(tc.args)
+			if tc.errText != "" {
+				if err == nil || !strings.Contains(err.Error(), tc.errText) {
+					t.Fatalf("got error %v, want one containing %q", err, tc.errText)
+				}
+				if code := exitCode(err); code != exitUsage && code != exitNotFound {
+					t.Errorf("exit code %d, want a usage or not-found code", code)
+				}
+				return
+			}
+			if err != nil {
+				t.Fatal(err)
+			}
+			if !tc.check(o.Req) {
+				t.Errorf("requirement %+v", o.Req)
+			}
+		})
+	}
+}
+
+// findRun parses args, runs find against the catalog at db (the demo when
+// the file does not exist) and returns stdout, stderr and the exit code.
+func findRun(t *testing.T, db string, args ...string) (string, string, int) {
+	t.Helper()
+	o, err := parseFind(args)
+	if err != nil {
+		t.Fatal(err)
+	}
+	e, out, errb := testEnv()
+	o.env, o.db = e, db
+	err = runFind(o)
+	if err != nil {
+		errb.WriteString("cardinal: " + err.Error() + "\n")
+	}
+	return out.String(), errb.String(), exitCode(err)
+}
+
+func TestRunFind(t *testing.T) {
+	demo := filepath.Join(t.TempDir(), "none.db")
+	tests := []struct {
+		name      string
+		args      []string
+		code      int
+		stdoutIn  []string
+		stderrIn  []string
+		stderrOut []string
+	}{
+		{"focus at 1064 nm", []string{"--efl", "75", "--beam", "6", "--bfd-min", "40", "--wavelength", "1064"}, 0,
+			[]string{"EFL", "75.000", "(rev)", "all ok"},
+			[]string{"saved as search 1", "laser safety officer", "built-in demo catalog", "extrapolated"},
+			[]string{"clear apertures not checked"}},
+		{"image", []string{"--track", "300", "--mag", "-0.36", "--mag-tol", "2%", "--object-height", "5", "--na", "0.02", "--wd-min", "60", "--bfd-min", "15", "--format", "md"}, 0,
+			[]string{"| # | parts | wd |", "-0.3600"}, []string{"aperture stop at the first part"}, []string{"laser"}},
+		{"expand as csv", []string{"--expand", "5", "--expand-tol", "2%", "--galilean", "--length-max", "150", "--format", "csv"}, 0,
+			[]string{"#,parts,wd,gap,back,envelope,track,expansion", "galilean"},
+			[]string{"clear apertures not checked"}, []string{"laser"}},
+		{"keplerian at 1064 nm warns of the internal focus", []string{"--expand", "3", "--expand-tol", "3%", "--keplerian", "--wavelength", "1064"}, 0,
+			[]string{"keplerian"}, []string{"focus between its parts"}, nil},
+		{"nothing that short", []string{"--efl", "75", "--length-max", "0.8"}, exitNoResult,
+			nil, []string{"none meets every constraint", "longer than the length maximum", "nearest misses", "fails envelope"}, nil},
+		{"no part strong enough", []string{"--track", "20", "--mag", "-1", "--elements", "1"}, exitNoResult,
+			nil, []string{"no part is strong enough for a 20 mm track"}, nil},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			out, errs, code := findRun(t, demo, tc.args...)
+			if code != tc.code {
+				t.Fatalf("exit code %d, want %d\nstderr: %s", code, tc.code, errs)
+			}
+			for _, s := range tc.stdoutIn {
+				if !strings.Contains(out, s) {
+					t.Errorf("stdout lacks %q:\n%s", s, out)
+				}
+			}
+			for _, s := range tc.stderrIn {
+				if !strings.Contains(errs, s) {
+					t.Errorf("stderr lacks %q:\n%s", s, errs)
+				}
+			}
+			for _, s := range tc.stderrOut {
+				if strings.Contains(errs, s) {
+					t.Errorf("stderr has %q:\n%s", s, errs)
+				}
+			}
+		})
+	}
+}
+
+// The JSON document is {"requirement": {...}, "results": [...]} with the
+// keys issue 4 names.
+func TestFindJSON(t *testing.T) {
+	demo := filepath.Join(t.TempDir(), "none.db")
+	out, errs, code := findRun(t, demo, "--efl", "75", "--efl-tol", "2%", "--top", "0", "--length-max", "8", "--format", "json")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	var doc struct {
+		Requirement map[string]any   `json:"requirement"`
+		Results     []map[string]any `json:"results"`
+	}
+	if err := json.Unmarshal([]byte(out), &doc); err != nil {
+		t.Fatal(err)
+	}
+	if doc.Requirement["kind"] != "focus" || doc.Requirement["efl_mm"] != 75.0 || doc.Requirement["efl_tol"] != "2%" {
+		t.Errorf("requirement %v", doc.Requirement)
+	}
+	singlets, pairs := 0, 0
+	for _, r := range doc.Results {
+		for _, k := range []string{"rank", "parts", "working_distance_mm", "back_clearance_mm", "envelope_mm", "track_mm", "efl_mm", "meets", "checks", "reason"} {
+			if _, ok := r[k]; !ok {
+				t.Fatalf("result lacks %q: %v", k, r)
+			}
+		}
+		if r["working_distance_mm"] != nil {
+			t.Errorf("working distance of an object at infinity is %v, want null", r["working_distance_mm"])
+		}
+		parts := r["parts"].([]any)
+		for _, p := range parts {
+			m := p.(map[string]any)
+			if _, ok := m["reversed"].(bool); !ok || m["supplier"] == "" || m["part"] == "" {
+				t.Errorf("part %v", m)
+			}
+		}
+		_, hasGap := r["gap_mm"]
+		if len(parts) == 2 != hasGap {
+			t.Errorf("%d parts, gap_mm present %v", len(parts), hasGap)
+		}
+		if len(parts) == 1 {
+			singlets++
+		} else {
+			pairs++
+		}
+	}
+	if singlets == 0 || pairs == 0 {
+		t.Errorf("%d singlets and %d pairs: the demo has both for a 75 mm EFL at 2 %%", singlets, pairs)
+	}
+}
+
+// A run is saved in the user's catalog and can be read back as "last".
+func TestFindSaves(t *testing.T) {
+	path := filepath.Join(t.TempDir(), "catalog.db")
+	demo, err := catalog.OpenDemo()
+	if err != nil {
+		t.Fatal(err)
+	}
+	ctx := context.Background()
+	entries, err := demo.Entries(ctx, catalog.Filter{})
+	demo.Close()
+	if err != nil {
+		t.Fatal(err)
+	}
+	st, err := catalog.Open(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := st.Import(ctx, entries, false); err != nil {
+		t.Fatal(err)
+	}
+	st.Close()
+	for want := 1; want <= 2; want++ {
+		_, errs, code := findRun(t, path, "--expand", "4", "--expand-tol", "3%")
+		if code != 0 || !strings.Contains(errs, "saved as search "+string(rune('0'+want))+"\n") {
+			t.Fatalf("exit %d, stderr %q", code, errs)
+		}
+	}
+	st, err = catalog.Open(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer st.Close()
+	s, err := st.LoadSearch(ctx, "last")
+	if err != nil {
+		t.Fatal(err)
+	}
+	var req search.Requirement
+	var res []search.Result
+	if err := json.Unmarshal(s.Requirement, &req); err != nil || json.Unmarshal(s.Results, &res) != nil {
+		t.Fatalf("saved search does not decode: %v", err)
+	}
+	if s.ID != 2 || s.Kind != "expand" || req.Expansion != 4 || len(res) == 0 {
+		t.Errorf("saved %d %q %+v with %d results", s.ID, s.Kind, req, len(res))
+	}
+}
