@@ -1,6 +1,7 @@
 package main
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"io"
@@ -191,4 +192,33 @@ func readInputFile(name string, e *env) ([]byte, error) {
 		return nil, usageErrorf("%s: %v", name, err)
 	}
 	return b, nil
+}
+
+// catalogEntries reads the named parts (SUPPLIER:PART, or PART alone when
+// one supplier has it) from the catalog opened for reading, in the order
+// given; every name the catalog lacks is reported with close names.
+func catalogEntries(flag string, e *env, ids []string) ([]importers.Entry, error) {
+	s, err := openForRead(flag, e)
+	if err != nil {
+		return nil, err
+	}
+	defer s.Close()
+	var out []importers.Entry
+	var missing []string
+	for _, id := range ids {
+		en, err := s.Part(context.Background(), id)
+		var nf *catalog.NotFoundError
+		switch {
+		case errors.As(err, &nf):
+			missing = append(missing, nf.Error())
+		case err != nil:
+			return nil, catalogError(err)
+		default:
+			out = append(out, en)
+		}
+	}
+	if len(missing) > 0 {
+		return nil, notFoundErrorf("%s", strings.Join(missing, "\n"))
+	}
+	return out, nil
 }

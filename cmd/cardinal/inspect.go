@@ -26,7 +26,11 @@ type inspectOptions struct {
 	// File is a prescription CSV; "" means the built-in demo lenses.
 	File string
 	// Parts are SUPPLIER:PART names; none means every part of the file.
-	Parts               []string
+	Parts []string
+	// CatalogParts are the SUPPLIER:PART arguments: parts taken from the
+	// catalog (db.go) instead of a file.
+	CatalogParts        []string
+	db                  string
 	Reverse             bool
 	Wavelength          float64 // nm
 	MediumIn, MediumOut string  // glass names of object and image space
@@ -49,12 +53,16 @@ indices used.
 
 Front points are measured from the first vertex, back points from the last
 vertex, both in mm and positive toward the image (light travels left to
-right). Without --file the built-in demo lenses (invented parts) are used.`,
+right). Parts named as arguments come from your catalog (or the built-in demo
+catalog until you have one). Without --file or arguments the built-in demo
+lenses (invented parts) are used.`,
 		Example: `  cardinal inspect
+  cardinal inspect DEMO:PCX-50 --reverse
   cardinal inspect --file lenses.csv --part DEMO:PCX-50 --reverse --wavelength 632.8 --format json
   cardinal inspect --file lenses.csv --medium-in water`,
-		Args: cobra.NoArgs,
-		RunE: func(*cobra.Command, []string) error {
+		Args: cobra.ArbitraryArgs,
+		RunE: func(c *cobra.Command, args []string) error {
+			opts.CatalogParts, opts.db = args, dbFlag(c)
 			if err := opts.validate(); err != nil {
 				return err
 			}
@@ -73,6 +81,9 @@ right). Without --file the built-in demo lenses (invented parts) are used.`,
 }
 
 func (o *inspectOptions) validate() error {
+	if len(o.CatalogParts) > 0 && (o.File != "" || len(o.Parts) > 0) {
+		return usageErrorf("name parts either as arguments (from the catalog) or with --file and --part, not both")
+	}
 	if err := checkFormat(o.Format); err != nil {
 		return err
 	}
@@ -112,6 +123,9 @@ func runInspect(o *inspectOptions) error {
 // loadInspectEntries reads the parts to inspect: the --file, or the
 // built-in demo lenses when there is none.
 func loadInspectEntries(o *inspectOptions, glasses optics.GlassTable) ([]importers.Entry, error) {
+	if len(o.CatalogParts) > 0 {
+		return catalogEntries(o.db, o.env, o.CatalogParts)
+	}
 	name := o.File
 	var data []byte
 	var err error

@@ -70,7 +70,9 @@ func TestInspectFlags(t *testing.T) {
 		{name: "infinite wavelength", args: []string{"--wavelength", "inf"}, errCode: exitUsage, errText: "--wavelength +Inf"},
 		{name: "wavelength not a number", args: []string{"--wavelength", "red"}, errCode: exitUsage, errText: "invalid argument"},
 		{name: "unknown flag", args: []string{"--colour"}, errCode: exitUsage, errText: "unknown flag: --colour"},
-		{name: "argument", args: []string{"DEMO:PCX-50"}, errText: "unknown command"},
+		{name: "catalog part arguments", args: []string{"DEMO:PCX-50", "PCV-50"},
+			check: func(o *inspectOptions) bool { return slices.Equal(o.CatalogParts, []string{"DEMO:PCX-50", "PCV-50"}) }},
+		{name: "catalog part and --file", args: []string{"DEMO:PCX-50", "--file", "x.csv"}, errCode: exitUsage, errText: "not both"},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
