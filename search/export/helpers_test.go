@@ -1,0 +1,88 @@
+package export
+
+import (
+	"math"
+	"testing"
+
+	"cardinal/importers"
+	"cardinal/optics"
+	"cardinal/search"
+)
+
+// testEntries is a small catalog for the drawing and plot tests: stock-like
+// prescriptions written for these tests (plano-convex, biconcave and a
+// cemented achromat in two six-digit glasses). They are fixtures, not
+// check values: the checks compare the drawing with the search's own
+// solution and with Snell's and Newton's equations.
+func testEntries(t *testing.T) []importers.Entry {
+	t.Helper()
+	crown, err := optics.GlassCode("517642")
+	if err != nil {
+		t.Fatal(err)
+	}
+	flint, err := optics.GlassCode("620364")
+	if err != nil {
+		t.Fatal(err)
+	}
+	inf := math.Inf(1)
+	part := func(name string, d float64, radii, thick []float64, media ...optics.Medium) importers.Entry {
+		p := optics.Part{Supplier: "TEST", Name: name, Diameter: d, Thickness: thick, Media: media}
+		for _, r := range radii {
+			p.Surfaces = append(p.Surfaces, optics.Sphere(r))
+		}
+		if err := p.Validate(); err != nil {
+			t.Fatalf("%s: %v", name, err)
+		}
+		return importers.Entry{Part: p, Price: 20, Currency: "XTS"}
+	}
+	return []importers.Entry{
+		part("PCX-100", 25.4, []float64{51.7, inf}, []float64{4}, crown),
+		part("PCX-50", 25.4, []float64{25.84, inf}, []float64{5.3}, crown),
+		part("BCC-50", 12.7, []float64{-51.7, 51.7}, []float64{2}, crown),
+		part("ACH-100", 25.4, []float64{60.46, -35.06, -138.46}, []float64{6, 2.5}, crown, flint),
+	}
+}
+
+func entryMap(es []importers.Entry) map[string]importers.Entry {
+	m := map[string]importers.Entry{}
+	for _, e := range es {
+		m[e.Part.ID()] = e
+	}
+	return m
+}
+
+// solve runs the search over the test catalog and rebuilds its results.
+func solve(t *testing.T, req search.Requirement) []Solution {
+	t.Helper()
+	es := testEntries(t)
+	items := search.Items(es, nil)
+	out, err := search.Find(items, req)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(out.Results) == 0 {
+		t.Fatalf("no result for %+v: %v", req, out.Why)
+	}
+	var sols []Solution
+	for _, r := range out.Results {
+		s, err := NewSolution(req, r, entryMap(es))
+		if err != nil {
+			t.Fatal(err)
+		}
+		sols = append(sols, s)
+	}
+	return sols
+}
+
+// testRequirements are one of each kind, met by the test catalog.
+func testRequirements() map[string]search.Requirement {
+	focus := search.Defaults()
+	focus.Kind, focus.EFL, focus.Beam, focus.Top = search.Focus, 75, 8, 3
+	image := search.Defaults()
+	image.Kind, image.Track, image.Mag, image.NA, image.ObjectHeight, image.Top = search.Image, 300, -1, 0.02, 3, 3
+	image.MagTol = search.Tolerance{Value: 2, Percent: true}
+	expand := search.Defaults()
+	expand.Kind, expand.Expansion, expand.Beam, expand.Top = search.Expand, 2, 4, 3
+	expand.ExpandTol = search.Tolerance{Value: 5, Percent: true}
+	return map[string]search.Requirement{"focus": focus, "image": image, "expand": expand}
+}

@@ -1,0 +1,85 @@
+package export
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"strings"
+)
+
+// A legendLine is one line of the drawing's legend: a sample (a ray's
+// line, a mark's glyph, or nothing) and its words.
+type legendLine struct {
+	sample string // "marginal", "chief", "rim", "part", "system", ""
+	text   string
+}
+
+// legend says what each colour and glyph means, which field the chief ray
+// is drawn for, and anything the drawing cannot show.
+func (d *svgDoc) legend() []legendLine {
+	sc := d.sc
+	field := fmt.Sprintf("object height %.3g mm", sc.Field)
+	if math.IsInf(sc.ObjectZ, -1) {
+		field = fmt.Sprintf("field angle %.3g°", sc.Field)
+	}
+	if !sc.FieldGiven {
+		field += ", chosen for illustration"
+	}
+	ls := []legendLine{
+		{"marginal", fmt.Sprintf("marginal rays of the axial point: real rays traced at %s nm", num(sc.Wavelength))},
+		{"chief", "chief ray of the field point (" + field + ")"},
+		{"rim", "rim rays of the field point"},
+		{"part", "cardinal points of each part (subscript: part number, in light order): ◆ focal point F, F′; | principal plane P, P′"},
+	}
+	if sc.Solution.Afocal() {
+		ls = append(ls, legendLine{"", "the system is afocal: it has no focal or principal points of its own"})
+	} else {
+		ls = append(ls, legendLine{"system", "cardinal points of the whole system, below the axis"})
+	}
+	ls = append(ls, legendLine{"", "in air the nodal points N, N′ coincide with the principal points P, P′"})
+	if off := offDrawing(sc.OffDrawing); off != "" {
+		ls = append(ls, legendLine{"", "off the drawing: " + off})
+	}
+	for _, r := range sc.Rays {
+		if r.Surface >= 0 {
+			ls = append(ls, legendLine{"", fmt.Sprintf("× a %s ray stops at surface %d: %v", r.Name, r.Surface+1, r.Status)})
+		}
+	}
+	return append(ls, legendLine{"", "z from the first vertex; lengths in mm"})
+}
+
+// offDrawing lists the cardinal points too far away to draw.
+func offDrawing(ms []Mark) string {
+	ms = append([]Mark(nil), ms...)
+	sort.SliceStable(ms, func(i, j int) bool { return ms[i].Part < ms[j].Part })
+	s := make([]string, len(ms))
+	for i, m := range ms {
+		s[i] = fmt.Sprintf("%s at z = %.1f mm", markLabel(m), m.Z)
+	}
+	return strings.Join(s, ", ")
+}
+
+// writeLegend draws the legend lines from (x, y) down.
+func (d *svgDoc) writeLegend(x, y float64) {
+	x += d.fs
+	for i, l := range d.legend() {
+		yy := y + float64(i)*1.5*d.fs
+		s := 2.2 * d.fs
+		switch l.sample {
+		case "marginal":
+			d.line("legend", x, yy, x+s, yy, colourMarginal, 1.3*d.sw, "")
+		case "chief":
+			d.line("legend", x, yy, x+s, yy, colourChief, 1.3*d.sw, "")
+		case "rim":
+			d.line("legend", x, yy, x+s, yy, colourChief, 1.3*d.sw, fmt.Sprintf(` stroke-dasharray="%s %s"`, f4(d.fs/2), f4(d.fs/3)))
+		case "part", "system":
+			colour := colourPart
+			if l.sample == "system" {
+				colour = colourSystem
+			}
+			d.glyph(Mark{Kind: "F", Z: x + 0.5*d.fs}, colour, yy)
+			fmt.Fprintf(&d.b, `<rect x="%s" y="%s" width="%s" height="%s" fill="%s"/>`+"\n", f4(x+1.3*d.fs), f4(yy-0.6*d.fs), f4(d.sw*2.5), f4(1.2*d.fs), colour)
+		}
+		d.text(x+s+0.8*d.fs, yy+0.3*d.fs, 0.8*d.fs, "start", "#000000", l.text)
+	}
+}
