@@ -15,7 +15,7 @@ import (
 // Floats are written in the shortest form that reads back exactly. The
 // warnings that the prescription itself gives are left out: they follow
 // from the other fields.
-func fingerprint(e importers.Entry) string {
+func fingerprint(e importers.Entry, otherWarnings []string) string {
 	var b strings.Builder
 	str := func(s string) { b.WriteString(strconv.Quote(s)); b.WriteByte(',') }
 	num := func(v float64) {
@@ -50,7 +50,7 @@ func fingerprint(e importers.Entry) string {
 	str(e.Currency)
 	str(e.URL)
 	str(e.Notes)
-	for _, w := range otherWarnings(e) {
+	for _, w := range otherWarnings {
 		str(w)
 	}
 	sum := sha256.Sum256([]byte(b.String()))

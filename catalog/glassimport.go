@@ -84,6 +84,7 @@ func recomputeUsing(ctx context.Context, tx *sql.Tx, names []string) ([]string, 
 	if err != nil {
 		return nil, err
 	}
+	w := newTxWriter(tx)
 	args := make([]any, len(names))
 	for i, n := range names {
 		args[i] = n
@@ -95,13 +96,13 @@ func recomputeUsing(ctx context.Context, tx *sql.Tx, names []string) ([]string, 
 	}
 	var out []string
 	for i, e := range entries {
-		if err := writeComputed(ctx, tx, ids[i], e.Part); err != nil {
+		if err := writeComputed(ctx, w, ids[i], e.Part); err != nil {
 			return nil, err
 		}
-		if _, err := tx.ExecContext(ctx, "DELETE FROM warnings WHERE part_id = ? AND computed = 1", ids[i]); err != nil {
+		if _, err := w.exec(ctx, "DELETE FROM warnings WHERE part_id = ? AND computed = 1", ids[i]); err != nil {
 			return nil, err
 		}
-		if err := writeWarnings(ctx, tx, ids[i], importers.ComputedWarnings(e), true); err != nil {
+		if err := writeWarnings(ctx, w, ids[i], importers.ComputedWarnings(e), true); err != nil {
 			return nil, err
 		}
 		out = append(out, e.Part.ID())

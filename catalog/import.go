@@ -40,8 +40,10 @@ func (s *Store) Import(ctx context.Context, entries []importers.Entry, dryRun bo
 	if bad := checkEntries(entries, glasses); len(bad) > 0 {
 		return rep, &ImportError{Rows: bad}
 	}
-	for _, e := range entries {
-		what, err := upsert(ctx, tx, e)
+	w := newTxWriter(tx)
+	for _, en := range entries {
+		e := newStoredEntry(en)
+		what, err := upsert(ctx, w, e)
 		if err != nil {
 			return rep, s.wrapWriteError(fmt.Errorf("line %d: %s: %w", e.Line, e.Part.ID(), err))
 		}
@@ -53,7 +55,7 @@ func (s *Store) Import(ctx context.Context, entries []importers.Entry, dryRun bo
 		default:
 			rep.Unchanged = append(rep.Unchanged, e.Part.ID())
 		}
-		for _, w := range append(otherWarnings(e), importers.ComputedWarnings(e)...) {
+		for _, w := range e.warnings() {
 			rep.Warnings = append(rep.Warnings, RowError{Line: e.Line, ID: e.Part.ID(), Reason: w})
 		}
 	}
@@ -72,7 +74,7 @@ const (
 )
 
 // upsert stores one entry unless the stored part is identical.
-func upsert(ctx context.Context, tx *sql.Tx, e importers.Entry) (upsertResult, error) {
+func upsert(ctx context.Context, tx *txWriter, e storedEntry) (upsertResult, error) {
 	var id int64
 	var fp string
 	err := tx.QueryRowContext(ctx, "SELECT id, fingerprint FROM parts WHERE supplier = ? AND part = ?",
@@ -83,7 +85,7 @@ func upsert(ctx context.Context, tx *sql.Tx, e importers.Entry) (upsertResult, e
 		return added, err
 	case err != nil:
 		return unchanged, err
-	case fp == fingerprint(e):
+	case fp == e.fingerprint:
 		return unchanged, nil
 	}
 	_, err = writePart(ctx, tx, id, e)

@@ -2,23 +2,43 @@ package catalog
 
 import (
 	"context"
-	"database/sql"
 	"math"
 
 	"cardinal/importers"
 	"cardinal/optics"
 )
 
+// A storedEntry is an entry as the catalog stores it: its warnings split
+// into those the prescription gives (importers.ComputedWarnings, worked out
+// again when a glass changes) and the others, and its fingerprint.
+type storedEntry struct {
+	importers.Entry
+	other, computed []string
+	fingerprint     string
+}
+
+func newStoredEntry(e importers.Entry) storedEntry {
+	s := storedEntry{Entry: e, computed: importers.ComputedWarnings(e)}
+	s.other = otherWarnings(e.Warnings, s.computed)
+	s.fingerprint = fingerprint(e, s.other)
+	return s
+}
+
+// warnings are all the stored warnings, in the order stored.
+func (s storedEntry) warnings() []string {
+	return append(append([]string{}, s.other...), s.computed...)
+}
+
 // writePart stores an entry inside tx: a new part when id is 0, otherwise
 // the part with that id replaced (its drawer row is kept). Its surfaces,
 // warnings and computed columns are written anew. It returns the part id.
-func writePart(ctx context.Context, tx *sql.Tx, id int64, e importers.Entry) (int64, error) {
+func writePart(ctx context.Context, tx *txWriter, id int64, e storedEntry) (int64, error) {
 	p := e.Part
 	cols := []any{p.Description, p.Diameter, p.ClearAperture, kindOf(p),
 		nullIfZero(e.StatedEFL), nullIfZero(e.StatedBFD), nullIfZero(e.StatedEdge),
-		nullIfZero(e.StatedWavelength), nullIfZero(e.Price), e.Currency, e.URL, e.Notes, fingerprint(e)}
+		nullIfZero(e.StatedWavelength), nullIfZero(e.Price), e.Currency, e.URL, e.Notes, e.fingerprint}
 	if id == 0 {
-		res, err := tx.ExecContext(ctx, `INSERT INTO parts (supplier, part, description, diameter_mm,
+		res, err := tx.exec(ctx, `INSERT INTO parts (supplier, part, description, diameter_mm,
 			clear_aperture_mm, kind, stated_efl_mm, stated_bfd_mm, stated_edge_mm, stated_wavelength_nm,
 			price, currency, url, notes, fingerprint) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
 			append([]any{p.Supplier, p.Name}, cols...)...)
@@ -29,7 +49,7 @@ func writePart(ctx context.Context, tx *sql.Tx, id int64, e importers.Entry) (in
 			return 0, err
 		}
 	} else {
-		_, err := tx.ExecContext(ctx, `UPDATE parts SET description = ?, diameter_mm = ?,
+		_, err := tx.exec(ctx, `UPDATE parts SET description = ?, diameter_mm = ?,
 			clear_aperture_mm = ?, kind = ?, stated_efl_mm = ?, stated_bfd_mm = ?, stated_edge_mm = ?,
 			stated_wavelength_nm = ?, price = ?, currency = ?, url = ?, notes = ?, fingerprint = ?
 			WHERE id = ?`, append(cols, id)...)
@@ -37,7 +57,7 @@ func writePart(ctx context.Context, tx *sql.Tx, id int64, e importers.Entry) (in
 			return 0, err
 		}
 		for _, table := range []string{"surfaces", "warnings"} {
-			if _, err := tx.ExecContext(ctx, "DELETE FROM "+table+" WHERE part_id = ?", id); err != nil {
+			if _, err := tx.exec(ctx, "DELETE FROM "+table+" WHERE part_id = ?", id); err != nil {
 				return 0, err
 			}
 		}
@@ -45,22 +65,22 @@ func writePart(ctx context.Context, tx *sql.Tx, id int64, e importers.Entry) (in
 	if err := writeSurfaces(ctx, tx, id, p); err != nil {
 		return 0, err
 	}
-	if err := writeWarnings(ctx, tx, id, otherWarnings(e), false); err != nil {
+	if err := writeWarnings(ctx, tx, id, e.other, false); err != nil {
 		return 0, err
 	}
-	if err := writeWarnings(ctx, tx, id, importers.ComputedWarnings(e), true); err != nil {
+	if err := writeWarnings(ctx, tx, id, e.computed, true); err != nil {
 		return 0, err
 	}
 	return id, writeComputed(ctx, tx, id, p)
 }
 
-func writeSurfaces(ctx context.Context, tx *sql.Tx, id int64, p optics.Part) error {
+func writeSurfaces(ctx context.Context, tx *txWriter, id int64, p optics.Part) error {
 	for i, s := range p.Surfaces {
 		var thickness, glass any
 		if i < len(p.Thickness) {
 			thickness, glass = p.Thickness[i], mediumName(p.Media[i])
 		}
-		_, err := tx.ExecContext(ctx, `INSERT INTO surfaces (part_id, idx, radius_mm, conic,
+		_, err := tx.exec(ctx, `INSERT INTO surfaces (part_id, idx, radius_mm, conic,
 			a4, a6, a8, a10, a12, a14, a16, thickness_mm, glass)
 			VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
 			id, i+1, radiusValue(s.Radius), s.Conic,
@@ -74,9 +94,9 @@ func writeSurfaces(ctx context.Context, tx *sql.Tx, id int64, p optics.Part) err
 }
 
 // writeWarnings appends warnings to the part's list.
-func writeWarnings(ctx context.Context, tx *sql.Tx, id int64, warnings []string, computed bool) error {
+func writeWarnings(ctx context.Context, tx *txWriter, id int64, warnings []string, computed bool) error {
 	for _, w := range warnings {
-		if _, err := tx.ExecContext(ctx, `INSERT INTO warnings (part_id, seq, message, computed)
+		if _, err := tx.exec(ctx, `INSERT INTO warnings (part_id, seq, message, computed)
 			VALUES (?, (SELECT coalesce(max(seq), 0) + 1 FROM warnings WHERE part_id = ?), ?, ?)`,
 			id, id, w, computed); err != nil {
 			return err
@@ -88,14 +108,14 @@ func writeWarnings(ctx context.Context, tx *sql.Tx, id int64, warnings []string,
 // otherWarnings are the entry's warnings that comparing stated with computed
 // values does not give (importers.ComputedWarnings): they are kept as they
 // are when a glass changes.
-func otherWarnings(e importers.Entry) []string {
-	computed := map[string]bool{}
-	for _, w := range importers.ComputedWarnings(e) {
-		computed[w] = true
+func otherWarnings(warnings, computed []string) []string {
+	given := map[string]bool{}
+	for _, w := range computed {
+		given[w] = true
 	}
 	var out []string
-	for _, w := range e.Warnings {
-		if !computed[w] {
+	for _, w := range warnings {
+		if !given[w] {
 			out = append(out, w)
 		}
 	}
@@ -103,8 +123,8 @@ func otherWarnings(e importers.Entry) []string {
 }
 
 // writeComputed replaces the part's computed columns in both orientations.
-func writeComputed(ctx context.Context, tx *sql.Tx, id int64, p optics.Part) error {
-	if _, err := tx.ExecContext(ctx, "DELETE FROM computed WHERE part_id = ?", id); err != nil {
+func writeComputed(ctx context.Context, tx *txWriter, id int64, p optics.Part) error {
+	if _, err := tx.exec(ctx, "DELETE FROM computed WHERE part_id = ?", id); err != nil {
 		return err
 	}
 	for _, rev := range []bool{false, true} {
@@ -113,7 +133,7 @@ func writeComputed(ctx context.Context, tx *sql.Tx, id int64, p optics.Part) err
 		if !o.Afocal {
 			efl, bfd, ffd, pp, ppp = o.EFL, o.BFD, o.FFD, o.P, o.PPrime
 		}
-		_, err := tx.ExecContext(ctx, `INSERT INTO computed (part_id, reversed, wavelength_nm,
+		_, err := tx.exec(ctx, `INSERT INTO computed (part_id, reversed, wavelength_nm,
 			power_per_mm, efl_mm, bfd_mm, ffd_mm, p_mm, p_prime_mm, length_mm, diameter_mm,
 			clear_aperture_mm) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
 			id, rev, o.Wavelength, o.Power, efl, bfd, ffd, pp, ppp, p.Length(), p.Diameter, p.Aperture())

@@ -1,0 +1,75 @@
+package catalog
+
+import (
+	"fmt"
+	"math"
+	"math/rand/v2"
+	"testing"
+
+	"cardinal/importers"
+)
+
+// benchEntries draws n plano-convex and plano-concave parts with focal
+// lengths spread over 10 to 1000 mm (invented test data).
+func benchEntries(b *testing.B, n int) []importers.Entry {
+	rng := rand.New(rand.NewPCG(1, 2))
+	es := make([]importers.Entry, n)
+	for i := range es {
+		f := 10 * math.Pow(100, rng.Float64())
+		r := f * 0.517
+		if rng.IntN(4) == 0 {
+			r = -r
+		}
+		d := math.Min(50.8, 0.8*math.Abs(r)) // sag at the edge about 0.1 d
+		es[i] = importers.Entry{Part: lens(&testing.T{}, "BENCH", fmt.Sprintf("P-%06d", i), r, math.Inf(1), 1.5+0.15*d, d, "517642").Part}
+	}
+	return es
+}
+
+var sizes = []int{500, 5000, 50000}
+
+func BenchmarkImport(b *testing.B) {
+	for _, n := range sizes {
+		b.Run(fmt.Sprint(n), func(b *testing.B) {
+			es := benchEntries(b, n)
+			for b.Loop() {
+				b.StopTimer()
+				s, _ := Open(Memory)
+				b.StartTimer()
+				if _, err := s.Import(ctx, es, false); err != nil {
+					b.Fatal(err)
+				}
+				s.Close()
+			}
+		})
+	}
+}
+
+func BenchmarkComputedEFLRange(b *testing.B) {
+	for _, n := range sizes {
+		b.Run(fmt.Sprint(n), func(b *testing.B) {
+			s, _ := Open(Memory)
+			defer s.Close()
+			if _, err := s.Import(ctx, benchEntries(b, n), false); err != nil {
+				b.Fatal(err)
+			}
+			// 45 to 55 mm: about 3.5 % of the log-uniform focal lengths.
+			f := Filter{EFL: Range{45, 55}}
+			for b.Loop() {
+				if _, err := s.Computed(ctx, f); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
+}
+
+func BenchmarkOpenDemo(b *testing.B) {
+	for b.Loop() {
+		s, err := OpenDemo()
+		if err != nil {
+			b.Fatal(err)
+		}
+		s.Close()
+	}
+}
