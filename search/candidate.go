@@ -31,13 +31,14 @@ type cand struct {
 	F, Fp float64 // focal points, same references
 	delta float64 // L + Pp - P: from the front to the back principal point
 	m     optics.Mat2
-	semi  float64 // clear semi-aperture
-	first optics.Surface
-	last  optics.Surface
+	semi  float64         // clear semi-aperture
+	first *optics.Surface // first and last surfaces, for the edge clearance
+	last  *optics.Surface
 	price float64 // price term of one piece (see score.go)
 	away  float64 // 1 when no piece is in the drawer, else 0
 	qty   int     // pieces in the drawer
 	key   int32   // rank of the part ID, for deterministic ties
+	tier  int8    // price and drawer group (see tiers)
 }
 
 // prepared holds the candidates of one search and what was set aside.
@@ -94,7 +95,7 @@ func prepare(items []Item, req Requirement) *prepared {
 	for i := range p.cands {
 		p.cands[i].price = priceTerm(items[p.cands[i].item].Entry.Price, p.priceRef)
 	}
-	p.cands = byPower(p.cands)
+	p.cands = byTier(p.cands)
 	return p
 }
 
@@ -145,18 +146,52 @@ func newCand(p optics.Part, c optics.Cardinal) (cand, bool) {
 		delta: c.Length + c.PPrime - c.P,
 		m:     c.Matrix,
 		semi:  p.Aperture() / 2,
-		first: p.Surfaces[0], last: p.Surfaces[len(p.Surfaces)-1],
+		first: &p.Surfaces[0], last: &p.Surfaces[len(p.Surfaces)-1],
 	}, true
 }
 
-// byPower returns the candidates sorted by power, ties in their first
-// order; sorting indices keeps the large structs from being moved twice.
-func byPower(cs []cand) []cand {
+// tier groups candidates of like price and drawer availability, so that
+// the score bound can cut whole groups: four price quartiles, in the drawer
+// or not.
+func tiers(cs []cand) []int8 {
+	ps := make([]float64, len(cs))
+	for i := range cs {
+		ps[i] = cs[i].price
+	}
+	slices.Sort(ps)
+	q := func(f float64) float64 {
+		if len(ps) == 0 {
+			return 0
+		}
+		return ps[int(f*float64(len(ps)-1))]
+	}
+	bounds := []float64{q(0.25), q(0.5), q(0.75)}
+	t := make([]int8, len(cs))
+	for i := range cs {
+		k := int8(0)
+		for _, b := range bounds {
+			if cs[i].price > b {
+				k++
+			}
+		}
+		t[i] = k + 4*int8(cs[i].away)
+	}
+	return t
+}
+
+// byTier returns the candidates grouped by tier and sorted by power within
+// each tier, ties in their first order; sorting indices keeps the large
+// structs from being moved more than once.
+func byTier(cs []cand) []cand {
+	t := tiers(cs)
 	idx := make([]int32, len(cs))
 	for i := range idx {
 		idx[i] = int32(i)
 	}
 	slices.SortFunc(idx, func(a, b int32) int {
+		if c := cmp.Compare(t[a], t[b]); c != 0 {
+			return c
+		}
 		if c := cmp.Compare(cs[a].phi, cs[b].phi); c != 0 {
 			return c
 		}
@@ -165,6 +200,7 @@ func byPower(cs []cand) []cand {
 	out := make([]cand, len(cs))
 	for k, i := range idx {
 		out[k] = cs[i]
+		out[k].tier = t[i]
 	}
 	return out
 }

@@ -82,8 +82,22 @@ func (s *search) sortKey(i int32) int64 {
 	return int64(c.key)*2 + int64(b2i(c.rev))
 }
 
-// finish applies the checks common to every kind and computes the score.
-func (s *search) finish(l *layout) {
+// finish computes the score and applies the checks common to every kind.
+// It returns false, with the layout only counted as solved, when the score
+// alone keeps the layout out of the results: the checks would change
+// nothing.
+func (s *search) finish(l *layout) bool {
+	a := &s.c[l.a]
+	if l.pair() {
+		b := &s.c[l.b]
+		l.score = s.sc.pair(a, b, l.err, l.env, pairAway(a, b))
+	} else {
+		l.score = s.sc.singlet(a, l.err, l.env)
+	}
+	if b := s.bound(); l.score > b+margin(b) {
+		s.solved++
+		return false
+	}
 	r := &s.req
 	if math.Abs(l.err) > s.tol {
 		l.fails |= failTarget
@@ -97,7 +111,6 @@ func (s *search) finish(l *layout) {
 	if r.LengthMax > 0 && l.env > r.LengthMax {
 		l.fails |= failEnvelope
 	}
-	a := &s.c[l.a]
 	if l.pair() {
 		b := &s.c[l.b]
 		l.edge = edgeClearance(a, b, l.gap)
@@ -107,9 +120,6 @@ func (s *search) finish(l *layout) {
 		if a.item == b.item && r.DrawerOnly && a.qty < 2 {
 			l.fails |= failDrawer
 		}
-		l.score = s.sc.pair(a, b, l.err, l.env, pairAway(a, b))
-	} else {
-		l.score = s.sc.singlet(a, l.err, l.env)
 	}
 	if r.ChecksAperture() {
 		s.rayHeights(l)
@@ -117,4 +127,5 @@ func (s *search) finish(l *layout) {
 			l.fails |= failAperture
 		}
 	}
+	return true
 }

@@ -50,8 +50,9 @@ func (s *search) pairFocus(i, j int32, emit func(*layout)) {
 	l.err = l.value - s.req.EFL
 	l.bc = m.A / phi
 	l.track = l.env + l.bc
-	s.finish(&l)
-	emit(&l)
+	if s.finish(&l) {
+		emit(&l)
+	}
 }
 
 // pairExpand makes the pair afocal (phi = 0 in Gullstrand's equation, so the
@@ -80,8 +81,9 @@ func (s *search) pairExpand(i, j int32, emit func(*layout)) {
 	if s.req.Form != AnyForm && s.req.Form != form {
 		l.fails |= failForm
 	}
-	s.finish(&l)
-	emit(&l)
+	if s.finish(&l) {
+		emit(&l)
+	}
 }
 
 // pairImage solves working distance, gap and back clearance for a fixed
@@ -118,16 +120,21 @@ func (s *search) pairImage(i, j int32, emit func(*layout)) {
 		if l.wd <= 0 || l.gap < 0 || l.bc <= 0 {
 			continue
 		}
+		l.env = a.L + l.gap + b.L
+		if bd := s.bound(); s.sc.pair(a, b, 0, l.env, pairAway(a, b)) > bd+margin(bd) {
+			s.solved++ // out of the results whatever the checks say
+			continue
+		}
 		full := optics.Transfer(l.wd, 1).Then(pairMatrix(a, b, l.gap)).Then(optics.Transfer(l.bc, 1))
 		if math.Abs(full.B) > 1e-7*T || math.Abs(full.A-m) > 1e-7*(1+math.Abs(m)) {
 			s.unverified++
 			continue
 		}
-		l.env = a.L + l.gap + b.L
 		l.track = l.wd + l.env + l.bc
 		l.value = full.A
 		l.err = l.value - m
-		s.finish(&l)
-		emit(&l)
+		if s.finish(&l) {
+			emit(&l)
+		}
 	}
 }

@@ -72,12 +72,13 @@ func (s *search) restBound(a *cand, n *node) float64 {
 
 // open tells whether some candidate b in node n could, after a, give a
 // layout the search keeps: within the gap, envelope and clearance limits,
-// and with a score no worse than the current bound.
-func (s *search) open(a *cand, n *node) bool {
+// and with a score no worse than the current bound. It also returns a lower
+// bound on the score of any such layout, by which open nodes are visited.
+func (s *search) open(a *cand, n *node) (bool, float64) {
 	bound := s.bound()
 	rest := s.restBound(a, n)
 	if rest > bound+margin(bound) {
-		return false
+		return false, rest
 	}
 	// Envelope limit: the length maximum, and what the score bound allows.
 	envMax := s.lim.lengthMax
@@ -88,44 +89,57 @@ func (s *search) open(a *cand, n *node) bool {
 	gMax := envMax - a.L - n.lMin
 	gMax += margin(gMax)
 	if gMax < gMin {
-		return false
+		return false, rest
 	}
 	f2 := span(1/n.phiLo, 1/n.phiHi)
+	var ok bool
+	var gLo, miss float64
 	switch s.req.Kind {
 	case Focus:
-		return s.openFocus(a, n, f2, gMin, gMax)
+		ok, gLo = s.openFocus(a, n, f2, gMin, gMax)
 	case Expand:
-		return s.openExpand(a, n, f2, gMin, gMax, bound, rest)
+		ok, gLo, miss = s.openExpand(a, n, f2, gMin, gMax)
+	default:
+		ok, gLo = s.openImage(a, n, gMin, gMax)
 	}
-	return s.openImage(a, n, gMin, gMax)
+	if !ok {
+		return false, rest
+	}
+	env := a.L + math.Max(gMin, gLo) + n.lMin
+	lb := rest + s.sc.w.Envelope*env/s.sc.lref
+	if miss > 0 {
+		lb += s.sc.w.Error * s.sc.errTerm(miss)
+	}
+	return lb <= bound+margin(bound), lb
 }
 
 // openFocus: with e = f1 + f2 (1 - f1/f0) from Gullstrand's equation (see
 // spacingFor) the gap is linear in f2, and so is the back clearance
-// P'b + f2 (1 - f0/f1).
-func (s *search) openFocus(a *cand, n *node, f2 iv, gMin, gMax float64) bool {
+// P'b + f2 (1 - f0/f1). It returns the least gap possible.
+func (s *search) openFocus(a *cand, n *node, f2 iv, gMin, gMax float64) (bool, float64) {
 	f0 := s.req.EFL
 	e := pt(a.f).add(f2.mul(pt(1 - a.f/f0)))
 	g := e.sub(iv{n.pMin, n.pMax}).add(pt(a.Pp))
 	if g.hi+margin(g.hi) < gMin || g.lo-margin(g.lo) > gMax {
-		return false
+		return false, 0
 	}
 	bc := iv{n.ppMin, n.ppMax}.add(f2.mul(pt(1 - f0/a.f)))
-	return bc.hi+margin(bc.hi) >= s.lim.bfdMin
+	return bc.hi+margin(bc.hi) >= s.lim.bfdMin, g.lo - margin(g.lo)
 }
 
 // openExpand: afocal, so the principal points are f1 + f2 apart and the
-// expansion is |f2/f1|.
-func (s *search) openExpand(a *cand, n *node, f2 iv, gMin, gMax, bound, rest float64) bool {
+// expansion is |f2/f1|. It returns the least gap possible and the least
+// departure from the target expansion.
+func (s *search) openExpand(a *cand, n *node, f2 iv, gMin, gMax float64) (bool, float64, float64) {
 	if a.phi < 0 && n.phiHi < 0 {
-		return false
+		return false, 0, 0
 	}
 	if s.lim.form == Keplerian && (a.phi < 0 || n.phiHi < 0) || s.lim.form == Galilean && (a.phi > 0) == (n.phiLo > 0) {
-		return false
+		return false, 0, 0
 	}
 	g := pt(a.f).add(f2).sub(iv{n.pMin, n.pMax}).add(pt(a.Pp))
 	if g.hi+margin(g.hi) < gMin || g.lo-margin(g.lo) > gMax {
-		return false
+		return false, 0, 0
 	}
 	ratio := f2.mul(pt(1 / a.f))
 	e := span(math.Abs(ratio.lo), math.Abs(ratio.hi))
@@ -134,21 +148,13 @@ func (s *search) openExpand(a *cand, n *node, f2 iv, gMin, gMax, bound, rest flo
 	}
 	miss := math.Max(0, math.Max(e.lo-s.req.Expansion, s.req.Expansion-e.hi))
 	miss -= margin(s.req.Expansion)
-	if miss > s.lim.admit {
-		return false
-	}
-	if miss <= 0 {
-		return true
-	}
-	env := a.L + math.Max(gMin, g.lo) + n.lMin
-	lb := rest + s.sc.w.Envelope*env/s.sc.lref + s.sc.w.Error*s.sc.errTerm(miss)
-	return lb <= bound+margin(bound)
+	return miss <= s.lim.admit, g.lo - margin(g.lo), miss
 }
 
 // openImage tests the relation every image layout of the pair satisfies:
 // with R = T - (principal-point separations of a and b), M = 2 - m - 1/m
 // and e the distance between the back principal point of a and the front
-// one of b, the track T = R + D_ab + ... reduces to
+// one of b,
 //
 //	h = M - R (phi1 + phi2 - e phi1 phi2) - phi1 phi2 e^2 = 0,
 //
@@ -157,20 +163,55 @@ func (s *search) openExpand(a *cand, n *node, f2 iv, gMin, gMax, bound, rest flo
 // points; Smith, Modern Optical Engineering, 4th ed., ch. 2) and the pair's
 // principal-point separation from Gullstrand's equation (Hecht, Optics,
 // 5th ed., ch. 6). An afocal pair satisfies it too. The node stays open
-// when the interval of h over the node's bounds holds zero.
-func (s *search) openImage(a *cand, n *node, gMin, gMax float64) bool {
-	T, m := s.req.Track, s.req.Mag
-	gMax = math.Min(gMax, T-s.lim.wdMin-s.lim.bfdMin-a.L-n.lMin)
+// when the interval of h over the node's bounds holds zero; the least e
+// for which it does, found by bisection, bounds the gap from below.
+func (s *search) openImage(a *cand, n *node, gMin, gMax float64) (bool, float64) {
+	T := s.req.Track
+	// A real object and a real image: both distances are positive.
+	gMax = math.Min(gMax, T-math.Max(0, s.lim.wdMin)-math.Max(0, s.lim.bfdMin)-a.L-n.lMin)
 	if gMax < gMin-margin(gMin) {
-		return false
+		return false, 0
 	}
 	e := iv{gMin + n.pMin - a.Pp, gMax + n.pMax - a.Pp}
+	if !s.imageRelation(a, n, e) {
+		return false, 0
+	}
+	lo, hi := e.lo, e.hi
+	for k := 0; k < 6; k++ {
+		mid := (lo + hi) / 2
+		if s.imageRelation(a, n, iv{lo, mid}) {
+			hi = mid
+		} else {
+			lo = mid
+		}
+	}
+	return true, lo - n.pMax + a.Pp - margin(lo)
+}
+
+// imageRelation tells whether the relation every image layout satisfies
+// can hold for some b in n with e in the given interval.
+func (s *search) imageRelation(a *cand, n *node, e iv) bool {
+	T, m := s.req.Track, s.req.Mag
 	R := iv{T - a.delta - n.dMax, T - a.delta - n.dMin}
 	phi1, phi2 := pt(a.phi), iv{n.phiLo, n.phiHi}
 	p12 := phi1.mul(phi2)
-	power := phi1.add(phi2).sub(e.mul(p12))
+	// h = M - R (phi1 + phi2) + phi1 phi2 (R e - e^2), with the exact range
+	// of q = R e - e^2 over the box (concave in e, linear in R) so that e,
+	// the widest interval, is not counted twice.
+	q := reMinusESq(R, e)
 	mm := 2 - m - 1/m
-	h := pt(mm).sub(R.mul(power)).sub(p12.mul(e.sq()))
-	scale := math.Abs(mm) + R.mag()*power.mag() + p12.mag()*e.sq().mag()
+	h := pt(mm).sub(R.mul(phi1.add(phi2))).add(p12.mul(q))
+	scale := math.Abs(mm) + R.mag()*phi1.add(phi2).mag() + p12.mag()*q.mag()
 	return h.holdsZero(1e-9 * scale)
+}
+
+// reMinusESq is the exact range of R e - e^2 over a box: the least value at
+// a corner (the function is concave in e and linear in R), the greatest at
+// R = R_lo or R_hi with e as near R/2 as the box allows.
+func reMinusESq(R, e iv) iv {
+	f := func(r, x float64) float64 { return r*x - x*x }
+	lo := math.Min(math.Min(f(R.lo, e.lo), f(R.lo, e.hi)), math.Min(f(R.hi, e.lo), f(R.hi, e.hi)))
+	clamp := func(x float64) float64 { return math.Max(e.lo, math.Min(e.hi, x)) }
+	hi := math.Max(f(R.lo, clamp(R.lo/2)), f(R.hi, clamp(R.hi/2)))
+	return iv{lo, hi}
 }

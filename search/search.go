@@ -33,7 +33,7 @@ func looser(r Requirement) limits {
 	if t == 0 {
 		t = 0.01 * math.Abs(target(r))
 	}
-	return limits{admit: 3 * t, lengthMax: math.Inf(1)}
+	return limits{admit: 3 * t, lengthMax: math.Inf(1), bfdMin: math.Inf(-1), wdMin: math.Inf(-1)}
 }
 
 func target(r Requirement) float64 {
@@ -131,37 +131,99 @@ func (s *search) pruned() {
 	if s.req.MaxElements() < 2 || n == 0 {
 		return
 	}
-	split := int32(sort.Search(int(n), func(i int) bool { return s.c[i].phi > 0 }))
-	s.roots = nil
-	for _, r := range []int32{s.buildTree(0, split), s.buildTree(split, n)} {
-		if r >= 0 {
-			s.roots = append(s.roots, r)
-		}
-	}
+	s.buildForest()
 	order, lb := s.firstOrder()
-	stack := make([]int32, 0, 64)
+	var open nodeQueue
 	for _, i := range order {
 		if b := s.bound(); lb[i] > b+margin(b) {
 			break
 		}
-		a := &s.c[i]
-		stack = append(stack[:0], s.roots...)
-		for len(stack) > 0 {
-			id := stack[len(stack)-1]
-			stack = stack[:len(stack)-1]
-			nd := &s.nodes[id]
-			if !s.open(a, nd) {
-				continue
-			}
-			if nd.left >= 0 {
-				stack = append(stack, nd.right, nd.left)
-				continue
-			}
+		s.bestFirst(i, &open)
+	}
+}
+
+// bestFirst solves a = candidate i followed by the second parts of the open
+// nodes, visiting the nodes with the least score bound first so that the
+// bound tightens early, and stopping once the least bound left passes it.
+func (s *search) bestFirst(i int32, open *nodeQueue) {
+	a := &s.c[i]
+	open.items = open.items[:0]
+	for _, r := range s.roots {
+		if ok, lb := s.open(a, &s.nodes[r]); ok {
+			heap.Push(open, nodeBound{r, lb})
+		}
+	}
+	for open.Len() > 0 {
+		nb := heap.Pop(open).(nodeBound)
+		if b := s.bound(); nb.lb > b+margin(b) {
+			return
+		}
+		nd := &s.nodes[nb.id]
+		if nd.left < 0 {
 			for j := nd.lo; j < nd.hi; j++ {
+				if s.pairBound(a, &s.c[j]) > s.bound()+margin(s.bound()) {
+					continue
+				}
 				s.evaluated++
 				s.pair(i, j, s.emit)
 			}
+			continue
 		}
+		for _, c := range [2]int32{nd.left, nd.right} {
+			if ok, lb := s.open(a, &s.nodes[c]); ok {
+				heap.Push(open, nodeBound{c, lb})
+			}
+		}
+	}
+}
+
+// pairBound is the least score a then b can have: every term but the
+// error, with the envelope at its least (the parts the gap minimum apart).
+func (s *search) pairBound(a, b *cand) float64 {
+	return s.sc.pair(a, b, 0, a.L+s.lim.gapMin+b.L, pairAway(a, b))
+}
+
+// nodeBound is a node and the least score of a layout through it.
+type nodeBound struct {
+	id int32
+	lb float64
+}
+
+// nodeQueue is a min-heap of nodes by bound, ties by node id.
+type nodeQueue struct{ items []nodeBound }
+
+func (q *nodeQueue) Len() int { return len(q.items) }
+func (q *nodeQueue) Less(i, j int) bool {
+	if q.items[i].lb != q.items[j].lb {
+		return q.items[i].lb < q.items[j].lb
+	}
+	return q.items[i].id < q.items[j].id
+}
+func (q *nodeQueue) Swap(i, j int) { q.items[i], q.items[j] = q.items[j], q.items[i] }
+func (q *nodeQueue) Push(x any)    { q.items = append(q.items, x.(nodeBound)) }
+func (q *nodeQueue) Pop() any {
+	x := q.items[len(q.items)-1]
+	q.items = q.items[:len(q.items)-1]
+	return x
+}
+
+// buildForest builds one power tree per tier and sign of power (the
+// candidates come grouped by tier and sorted by power within each).
+func (s *search) buildForest() {
+	s.roots = nil
+	n := int32(len(s.c))
+	for lo := int32(0); lo < n; {
+		hi := lo
+		for hi < n && s.c[hi].tier == s.c[lo].tier {
+			hi++
+		}
+		split := lo + int32(sort.Search(int(hi-lo), func(i int) bool { return s.c[lo+int32(i)].phi > 0 }))
+		for _, r := range []int32{s.buildTree(lo, split), s.buildTree(split, hi)} {
+			if r >= 0 {
+				s.roots = append(s.roots, r)
+			}
+		}
+		lo = hi
 	}
 }
 

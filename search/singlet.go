@@ -21,8 +21,9 @@ func (s *search) singletFocus(i int32, emit func(*layout)) {
 	if math.Abs(l.err) > s.lim.admit {
 		return
 	}
-	s.finish(&l)
-	emit(&l)
+	if s.finish(&l) {
+		emit(&l)
+	}
 }
 
 // singletImage finds both conjugates of a fixed track. With u and v the
@@ -53,7 +54,8 @@ func (s *search) singletImage(i int32, emit func(*layout)) {
 		if l.wd <= 0 || l.bc <= 0 || math.Abs(l.err) > s.lim.admit {
 			continue
 		}
-		s.finish(&l)
-		emit(&l)
+		if s.finish(&l) {
+			emit(&l)
+		}
 	}
 }

@@ -81,7 +81,7 @@ func NewScene(s Solution, o DrawOptions) (Scene, error) {
 	if !s.Afocal() {
 		sc.ImageZ = env + s.ImageZ
 	}
-	sc.Field, sc.FieldGiven = sc.field(o.Field)
+	sc.Field, sc.FieldGiven = DefaultField(s, o.Field)
 	if err := sc.trace(sys); err != nil {
 		return Scene{}, err
 	}
@@ -103,14 +103,15 @@ func (sc *Scene) vertices(sys optics.System) {
 	}
 }
 
-// field picks the chief ray's field: the one asked, the requirement's
-// object height, or one that keeps the chief ray near 0.3 of the smallest
-// clear semi-aperture (for illustration, and said so in the legend).
-func (sc *Scene) field(asked float64) (float64, bool) {
+// DefaultField picks the chief ray's field when none is asked: the
+// requirement's object height, or one that keeps the chief ray near 0.3 of
+// the smallest clear semi-aperture (for illustration; given is false then).
+// The field is an object height in mm for a finite object, an angle in
+// degrees for an object at infinity.
+func DefaultField(s Solution, asked float64) (field float64, given bool) {
 	if asked != 0 {
 		return asked, true
 	}
-	s := sc.Solution
 	if h := s.Requirement.ObjectHeight; h > 0 && !math.IsInf(s.ObjectZ, -1) {
 		return h, true
 	}
@@ -122,7 +123,7 @@ func (sc *Scene) field(asked float64) (float64, bool) {
 		return 0.3 * a, false
 	}
 	reach := s.Envelope()
-	if c := s.System().Cardinal(sc.Wavelength); !c.Afocal {
+	if c := s.System().Cardinal(s.Wavelength()); !c.Afocal {
 		reach = math.Max(reach, math.Abs(c.EFL))
 	}
 	return math.Atan(0.3*a/reach) * 180 / math.Pi, false

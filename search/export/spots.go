@@ -1,0 +1,134 @@
+package export
+
+import (
+	"fmt"
+	"math"
+
+	"cardinal/optics"
+)
+
+// PlotOptions say which spots and fans to compute. The zero value plots
+// the requirement's wavelength (with the F and C lines beside it when the
+// requirement mentions no laser), on axis, at 0.7 of the field and at the
+// field edge (the field as DefaultField picks it).
+type PlotOptions struct {
+	// Wavelengths in nm; the first is the reference. Empty: see above.
+	Wavelengths []float64
+	// Field is the field edge as in DrawOptions; 0 picks the default.
+	Field float64
+	// Rings is the number of hexapolar rings of a spot; 0 means 12.
+	Rings int
+}
+
+// A SpotSet is one field point at one wavelength: the spot on the image
+// plane and the meridional and sagittal ray fans.
+type SpotSet struct {
+	RelField   float64 // 0 on axis, 1 at the field edge
+	Field      float64 // object height (mm) or field angle (degrees)
+	Wavelength float64 // nm
+	// X, Y are the ray intersections relative to the reference
+	// wavelength's chief ray, in micrometres (microradians of direction
+	// for an afocal solution); W their shares of the pupil's area.
+	X, Y, W []float64
+	// RMS is the RMS radius about the centroid, same unit.
+	RMS          float64
+	Passed, Lost int
+	// Fans: transverse ray error against pupil coordinate (-1..1), in the
+	// same unit: Mer* along y for pupil points on the y axis, Sag* along x
+	// for pupil points on the x axis. Rays that do not pass are left out.
+	MerPupil, MerError, SagPupil, SagError []float64
+}
+
+// Spots holds the spot diagrams and ray fans of a solution.
+type Spots struct {
+	// Angular is true for an afocal solution: the figures are directions in
+	// microradians instead of positions in micrometres.
+	Angular bool
+	// AtInfinity is true when the fields are angles (object at infinity).
+	AtInfinity bool
+	// ImageZ is the image plane from the last vertex (NaN when angular).
+	ImageZ float64
+	// Airy is the radius of the Airy disc at the reference wavelength, in
+	// the figures' unit (0 where it cannot be found).
+	Airy        float64
+	Wavelengths []float64
+	Fields      []float64 // object heights or field angles, on axis first
+	Sets        []SpotSet // by field, then by wavelength
+}
+
+// Unit is the unit of the figures.
+func (sp Spots) Unit() string {
+	if sp.Angular {
+		return "µrad"
+	}
+	return "µm"
+}
+
+// DefaultWavelengths is the requirement's wavelength alone for a laser,
+// else the d line's neighbours F and C beside it (the visible band).
+func DefaultWavelengths(s Solution) []float64 {
+	wl := s.Wavelength()
+	if s.Requirement.Laser() {
+		return []float64{wl}
+	}
+	return []float64{wl, optics.LineF, optics.LineC}
+}
+
+// NewSpots traces the spots and fans.
+func NewSpots(s Solution, o PlotOptions) (Spots, error) {
+	wls := o.Wavelengths
+	if len(wls) == 0 {
+		wls = DefaultWavelengths(s)
+	}
+	edge, _ := DefaultField(s, o.Field)
+	sp := Spots{Angular: s.Afocal(), AtInfinity: math.IsInf(s.ObjectZ, -1), ImageZ: s.ImageZ, Wavelengths: wls, Fields: []float64{0, 0.7 * edge, edge}}
+	sys := s.System()
+	for i, f := range sp.Fields {
+		ref, err := chiefAt(sys, s, f, wls[0])
+		if err != nil {
+			return Spots{}, err
+		}
+		for _, wl := range wls {
+			set, err := sp.set(sys, s, o, f, wl, ref)
+			if err != nil {
+				return Spots{}, err
+			}
+			set.RelField = []float64{0, 0.7, 1}[i]
+			sp.Sets = append(sp.Sets, set)
+		}
+	}
+	sp.Airy = sp.airy(sys, s, wls[0])
+	return sp, nil
+}
+
+// chiefAt traces the chief ray of a field point at the reference
+// wavelength: the origin of the spots and fans.
+func chiefAt(sys optics.System, s Solution, field, wl float64) (optics.Path, error) {
+	b, err := sys.Bundle(s.Object(), field, wl, []optics.PupilPoint{{}})
+	if err != nil {
+		return optics.Path{}, fmt.Errorf("spot diagram: %w", err)
+	}
+	p := sys.Tracer(wl).Trace(b.Rays[0], imagePlane(s))
+	if p.Status != optics.Passed {
+		return optics.Path{}, fmt.Errorf("spot diagram: the chief ray of field %.4g: %w", field, p.Err())
+	}
+	return p, nil
+}
+
+// imagePlane is where the spots are taken: the solution's image plane, or
+// just past the last vertex for an afocal one (only directions count).
+func imagePlane(s Solution) float64 {
+	if s.Afocal() {
+		return 0
+	}
+	return s.ImageZ
+}
+
+// coords are a traced ray's figures relative to the reference chief ray:
+// micrometres on the image plane, or microradians of direction.
+func (sp Spots) coords(p, ref optics.Path) (x, y float64) {
+	if sp.Angular {
+		return 1e6 * (p.Dir.X/p.Dir.Z - ref.Dir.X/ref.Dir.Z), 1e6 * (p.Dir.Y/p.Dir.Z - ref.Dir.Y/ref.Dir.Z)
+	}
+	return 1e3 * (p.Image.X - ref.Image.X), 1e3 * (p.Image.Y - ref.Image.Y)
+}
