@@ -1,6 +1,7 @@
 package export
 
 import (
+	"image"
 	"math"
 	"testing"
 
@@ -85,4 +86,19 @@ func testRequirements() map[string]search.Requirement {
 	expand.Kind, expand.Expansion, expand.Beam, expand.Top = search.Expand, 2, 4, 3
 	expand.ExpandTol = search.Tolerance{Value: 5, Percent: true}
 	return map[string]search.Requirement{"focus": focus, "image": image, "expand": expand}
+}
+
+// inkFraction is the share of pixels that are not white.
+func inkFraction(img image.Image) float64 {
+	b := img.Bounds()
+	ink := 0
+	for y := b.Min.Y; y < b.Max.Y; y++ {
+		for x := b.Min.X; x < b.Max.X; x++ {
+			r, g, bl, _ := img.At(x, y).RGBA()
+			if r < 0xf000 || g < 0xf000 || bl < 0xf000 {
+				ink++
+			}
+		}
+	}
+	return float64(ink) / float64(b.Dx()*b.Dy())
 }

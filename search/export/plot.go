@@ -65,8 +65,11 @@ func (sp Spots) row(i int) ([]*plot.Plot, error) {
 	sets := sp.Sets[i*len(sp.Wavelengths) : (i+1)*len(sp.Wavelengths)]
 	spot, mer, sag := plot.New(), plot.New(), plot.New()
 	u := sp.Unit()
-	spot.Title.Text = sp.fieldName(i) + ": RMS " + rmsList(sets) + " " + u
+	spot.Title.Text = sp.fieldName(i) + " · RMS " + rmsList(sets) + " " + u
 	mer.Title.Text, sag.Title.Text = "meridional ray fan", "sagittal ray fan"
+	for _, p := range []*plot.Plot{spot, mer, sag} {
+		p.Title.TextStyle.Font.Size = vg.Points(9.5)
+	}
 	spot.X.Label.Text, spot.Y.Label.Text = "x ("+u+")", "y ("+u+")"
 	mer.X.Label.Text, mer.Y.Label.Text = "pupil y (relative)", "error in y ("+u+")"
 	sag.X.Label.Text, sag.Y.Label.Text = "pupil x (relative)", "error in x ("+u+")"
@@ -128,11 +131,11 @@ func (sp Spots) addSet(spot, mer, sag *plot.Plot, s SpotSet, k int) error {
 func (sp Spots) fieldName(i int) string {
 	switch {
 	case i == 0:
-		return "on axis"
+		return "axis"
 	case sp.AtInfinity:
-		return fmt.Sprintf("field %.3g°", sp.Fields[i])
+		return fmt.Sprintf("%.3g° field", sp.Fields[i])
 	}
-	return fmt.Sprintf("object height %.3g mm", sp.Fields[i])
+	return fmt.Sprintf("%.3g mm field", sp.Fields[i])
 }
 
 // circle is the Airy circle about the reference wavelength's centroid.
