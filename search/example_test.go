@@ -1,0 +1,48 @@
+package search_test
+
+import (
+	"fmt"
+	"math"
+
+	"cardinal/importers"
+	"cardinal/optics"
+	"cardinal/search"
+)
+
+// A catalog of one plano-convex lens of about 100 mm focal length, asked
+// for a 60 mm EFL within 1 %: the part alone is far off, so the results are
+// the part used twice (two pieces), in its orientations, each solved at the
+// target with the gap that gives it.
+func ExampleFind() {
+	glass, _ := optics.GlassCode("517642")
+	pcx := func(name string) search.Item {
+		return search.Item{Entry: importers.Entry{Part: optics.Part{
+			Supplier: "EXAMPLE", Name: name, Diameter: 25.4,
+			Surfaces:  []optics.Surface{optics.Sphere(51.7), optics.Sphere(math.Inf(1))},
+			Thickness: []float64{4},
+			Media:     []optics.Medium{glass}}, Price: 20}}
+	}
+	req := search.Defaults()
+	req.Kind, req.EFL, req.Top = search.Focus, 60, 2
+	out, err := search.Find([]search.Item{pcx("PCX-100")}, req)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	for _, r := range out.Results {
+		fmt.Printf("%d. %s%s + %s%s: gap %.2f mm, EFL %.2f mm, back clearance %.2f mm\n", r.Rank,
+			r.Parts[0].ID(), rev(r.Parts[0]), r.Parts[1].ID(), rev(r.Parts[1]), *r.Gap, *r.EFL, *r.BackClearance)
+	}
+	fmt.Println(out.Notes[0])
+	// Output:
+	// 1. EXAMPLE:PCX-100 + EXAMPLE:PCX-100 (rev): gap 28.06 mm, EFL 60.00 mm, back clearance 40.00 mm
+	// 2. EXAMPLE:PCX-100 + EXAMPLE:PCX-100: gap 30.70 mm, EFL 60.00 mm, back clearance 37.36 mm
+	// clear apertures not checked: give --beam, --na or --object-height to check ray heights
+}
+
+func rev(u search.PartUse) string {
+	if u.Reversed {
+		return " (rev)"
+	}
+	return ""
+}

@@ -1,0 +1,118 @@
+package search
+
+import (
+	"encoding/json"
+	"strings"
+	"testing"
+)
+
+func TestRequirementValidate(t *testing.T) {
+	focus := func(mod func(*Requirement)) Requirement {
+		r := focusReq(50)
+		if mod != nil {
+			mod(&r)
+		}
+		return r
+	}
+	image := func(mod func(*Requirement)) Requirement {
+		r := imageReq(300, -0.5)
+		if mod != nil {
+			mod(&r)
+		}
+		return r
+	}
+	tests := []struct {
+		name string
+		req  Requirement
+		want string // part of the error; "" for valid
+	}{
+		{"focus", focus(nil), ""},
+		{"image", image(nil), ""},
+		{"expand", expandReq(3), ""},
+		{"no kind", Defaults(), "say what to find"},
+		{"negative EFL", focus(func(r *Requirement) { r.EFL = -50 }), "efl is negative"},
+		{"tolerance as large as the EFL", focus(func(r *Requirement) { r.EFLTol = Tolerance{Value: 60} }), "as large as the EFL"},
+		{"negative track", image(func(r *Requirement) { r.Track = -1 }), "track is negative"},
+		{"zero magnification", image(func(r *Requirement) { r.Mag = 0 }), "non-zero magnification"},
+		{"NA of 1", image(func(r *Requirement) { r.NA = 1 }), "must be below 1"},
+		{"minimums longer than the track", image(func(r *Requirement) { r.WDMin, r.BFDMin = 200, 100 }), "leave nothing"},
+		{"erect image from one part", image(func(r *Requirement) { r.Mag, r.Elements = 0.5, 1 }), "needs two elements"},
+		{"expander of one part", func() Requirement { r := expandReq(3); r.Elements = 1; return r }(), "needs two elements"},
+		{"zero expansion", func() Requirement { r := expandReq(3); r.Expansion = 0; return r }(), "must be positive"},
+		{"NaN", focus(func(r *Requirement) { r.Beam = nan() }), "finite"},
+		{"flag of another kind", focus(func(r *Requirement) { r.NA = 0.1 }), "--na does not apply"},
+		{"three elements", focus(func(r *Requirement) { r.Elements = 3 }), "--elements must be 1 or 2"},
+		{"negative top", focus(func(r *Requirement) { r.Top = -1 }), "--top"},
+		{"wavelength out of range", focus(func(r *Requirement) { r.Wavelength = 50 }), "outside 150-20000"},
+		{"form on a focus", focus(func(r *Requirement) { r.Form = Galilean }), "apply to --expand only"},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			err := tt.req.Validate()
+			switch {
+			case tt.want == "" && err != nil:
+				t.Fatalf("unexpected error %v", err)
+			case tt.want != "" && (err == nil || !strings.Contains(err.Error(), tt.want)):
+				t.Fatalf("error %v, want one containing %q", err, tt.want)
+			}
+		})
+	}
+}
+
+func nan() float64 {
+	z := 0.0
+	return z / z
+}
+
+func TestParseTolerance(t *testing.T) {
+	tests := []struct {
+		in, unit string
+		want     Tolerance
+		abs      float64 // Abs(200)
+		err      bool
+	}{
+		{"1%", "mm", Tolerance{1, true}, 2, false},
+		{" 2.5 % ", "mm", Tolerance{2.5, true}, 5, false},
+		{"0.5mm", "mm", Tolerance{Value: 0.5}, 0.5, false},
+		{"0.5 mm", "mm", Tolerance{Value: 0.5}, 0.5, false},
+		{"0.02", "", Tolerance{Value: 0.02}, 0.02, false},
+		{"-1%", "mm", Tolerance{}, 0, true},
+		{"a lot", "mm", Tolerance{}, 0, true},
+		{"inf", "", Tolerance{}, 0, true},
+	}
+	for _, tt := range tests {
+		t.Run(tt.in, func(t *testing.T) {
+			got, err := ParseTolerance(tt.in, tt.unit)
+			if (err != nil) != tt.err {
+				t.Fatalf("error %v, want error %v", err, tt.err)
+			}
+			if err == nil && (got != tt.want || got.Abs(200) != tt.abs) {
+				t.Errorf("got %+v (abs %g), want %+v (abs %g)", got, got.Abs(200), tt.want, tt.abs)
+			}
+		})
+	}
+}
+
+// A requirement written as JSON reads back the same, as a spec file and as
+// the "requirement" object of a saved search.
+func TestReadSpecRoundTrip(t *testing.T) {
+	r := imageReq(250, -0.25)
+	r.MagTol, r.NA, r.ObjectHeight, r.Supplier, r.Prefer = Tolerance{Value: 0.01}, 0.05, 4, "DEMO", PreferShort
+	b, err := json.Marshal(r)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for name, doc := range map[string]string{"spec": string(b), "saved": `{"requirement": ` + string(b) + `, "results": []}`} {
+		got, err := ReadSpec(strings.NewReader(doc), name)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if got != r {
+			t.Errorf("%s: read %+v, want %+v", name, got, r)
+		}
+	}
+	if _, err := ReadSpec(strings.NewReader(`{"kind": "focus", "efl": 50}`), "typo.json"); err == nil || !strings.Contains(err.Error(), "typo.json") {
+		t.Errorf("misspelt key: error %v", err)
+	}
+}
+
