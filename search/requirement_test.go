@@ -115,4 +115,3 @@ func TestReadSpecRoundTrip(t *testing.T) {
 		t.Errorf("misspelt key: error %v", err)
 	}
 }
-
