@@ -1,0 +1,153 @@
+package main
+
+import (
+	"fmt"
+	"path/filepath"
+	"strings"
+
+	"github.com/spf13/cobra"
+
+	"cardinal/search/export"
+)
+
+// drawOptions are the flags of `cardinal draw`.
+type drawOptions struct {
+	env    *env
+	db     string
+	Search string
+	Picks  []int
+	Output string
+	Force  bool
+	Spot   bool
+	Field  float64
+	Band   []string
+
+	wavelengths []float64
+	format      string // svg or png
+}
+
+func init() {
+	commands = append(commands, func(e *env) *cobra.Command { return newDrawCmd(e, runDraw) })
+}
+
+func newDrawCmd(e *env, run func(*drawOptions) error) *cobra.Command {
+	o := &drawOptions{env: e}
+	cmd := &cobra.Command{
+		Use:   "draw SEARCH --pick N -o FILE",
+		Short: "To-scale layout drawing, or spot diagrams and ray fans, of a saved result",
+		Long: `Draw one result of a saved search (its number, or "last").
+
+Without --spot: an SVG layout drawn to scale (1 unit = 1 mm) from the parts'
+real surface shapes and diameters, with the object plane, the image or focal
+plane, real marginal and chief rays traced through the parts, the cardinal
+points of each part (above the axis) and of the whole system (below), and the
+working distance, gap, back clearance, envelope and track dimensioned.
+
+With --spot: spot diagrams and meridional and sagittal ray fans on axis, at
+0.7 of the field and at the field edge, one colour per wavelength, as PNG or
+SVG (chosen by the -o file's extension; SVG on standard output).
+
+The field is the requirement's object height, or --field (object height in mm
+for a finite object, field angle in degrees for an object at infinity); without
+either a small field is chosen and the drawing says so.`,
+		Example: `  cardinal draw last --pick 1 -o layout.svg
+  cardinal draw last --pick 1 --spot -o spot.png
+  cardinal draw 17 --pick 2 --spot --band 486.1,587.6,656.3 -o spot.svg`,
+		Args: cobra.ExactArgs(1),
+		RunE: func(c *cobra.Command, args []string) error {
+			o.db, o.Search = dbFlag(c), args[0]
+			if err := o.validate(); err != nil {
+				return err
+			}
+			return run(o)
+		},
+	}
+	f := cmd.Flags()
+	f.IntSliceVar(&o.Picks, "pick", nil, "rank of the result to draw (required)")
+	f.StringVarP(&o.Output, "output", "o", "", "file to write (.svg, or .png with --spot); standard output if absent")
+	f.BoolVar(&o.Force, "force", false, "overwrite the output file if it exists")
+	f.BoolVar(&o.Spot, "spot", false, "spot diagrams and ray fans instead of the layout")
+	f.Float64Var(&o.Field, "field", 0, "field edge: object height in mm, or field angle in degrees for an object at infinity")
+	f.StringSliceVar(&o.Band, "band", nil, "wavelengths in nm for --spot, the first the reference (default: the search's, with F and C in the visible)")
+	return cmd
+}
+
+func (o *drawOptions) validate() error {
+	if err := checkPicks(o.Picks, true); err != nil {
+		return err
+	}
+	ext := strings.ToLower(filepath.Ext(o.Output))
+	switch {
+	case o.Output == "" || o.Output == "-" || ext == ".svg":
+		o.format = "svg"
+	case ext == ".png" && o.Spot:
+		o.format = "png"
+	case ext == ".png":
+		return usageErrorf("-o %s: the layout drawing is SVG; name the file .svg (--spot plots can be .png)", o.Output)
+	default:
+		return usageErrorf("-o %s: name the file .svg or, with --spot, .png", o.Output)
+	}
+	if len(o.Band) > 0 && !o.Spot {
+		return usageErrorf("--band applies to --spot plots only")
+	}
+	var err error
+	o.wavelengths, err = parseBand(o.Band)
+	return err
+}
+
+func runDraw(o *drawOptions) error {
+	e := o.env
+	sv, err := loadSaved(e, o.db, o.Search, o.Picks)
+	if err != nil {
+		return err
+	}
+	sols, err := sv.solutions(e)
+	if err != nil {
+		return err
+	}
+	s := sols[0]
+	for _, c := range export.Cautions(sv.Req) {
+		fmt.Fprintln(e.Err, "caution:", c)
+	}
+	title := fmt.Sprintf("Search %d, solution %d: %s", sv.ID, s.Result.Rank, export.DescribeParts(s.Result.Parts))
+	if o.Spot {
+		return drawSpots(o, s, title)
+	}
+	sc, err := export.NewScene(s, export.DrawOptions{Field: o.Field})
+	if err != nil {
+		return fmt.Errorf("search %d, solution %d: %w", sv.ID, s.Result.Rank, err)
+	}
+	w, err := openOutput(e, o.Output, o.Force)
+	if err != nil {
+		return err
+	}
+	if err := sc.WriteSVG(w, export.DrawOptions{Field: o.Field, Title: title}); err != nil {
+		w.Close()
+		return err
+	}
+	return closeOutput(e, w, o.Output, fmt.Sprintf("the layout of solution %d of search %d", s.Result.Rank, sv.ID))
+}
+
+// drawSpots writes the spot and fan plots and prints the RMS radii.
+func drawSpots(o *drawOptions, s export.Solution, title string) error {
+	e := o.env
+	sp, err := export.NewSpots(s, export.PlotOptions{Wavelengths: o.wavelengths, Field: o.Field})
+	if err != nil {
+		return fmt.Errorf("%s: %w", title, err)
+	}
+	w, err := openOutput(e, o.Output, o.Force)
+	if err != nil {
+		return err
+	}
+	if err := sp.WritePlot(w, title+": spot diagrams and ray fans", o.format); err != nil {
+		w.Close()
+		return err
+	}
+	for _, set := range sp.Sets {
+		fmt.Fprintf(e.Err, "field %.4g, %.1f nm: RMS spot radius %.3g %s (%d rays, %d lost)\n", set.Field, set.Wavelength, set.RMS, sp.Unit(), set.Passed+set.Lost, set.Lost)
+	}
+	if sp.Airy > 0 {
+		fmt.Fprintf(e.Err, "Airy radius at %.1f nm: %.3g %s\n", sp.Wavelengths[0], sp.Airy, sp.Unit())
+	}
+	return closeOutput(e, w, o.Output, fmt.Sprintf("the spot diagrams of solution %d", s.Result.Rank))
+}

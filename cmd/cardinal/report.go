@@ -1,0 +1,103 @@
+package main
+
+import (
+	"fmt"
+
+	"github.com/spf13/cobra"
+
+	"cardinal/search/export"
+)
+
+// reportOptions are the flags of `cardinal report`.
+type reportOptions struct {
+	env    *env
+	db     string
+	Search string
+	Picks  []int
+	Qty    int
+	Output string
+	Force  bool
+	Field  float64
+	Band   []string
+
+	wavelengths []float64
+}
+
+func init() {
+	commands = append(commands, func(e *env) *cobra.Command { return newReportCmd(e, runReport) })
+}
+
+func newReportCmd(e *env, run func(*reportOptions) error) *cobra.Command {
+	o := &reportOptions{env: e}
+	cmd := &cobra.Command{
+		Use:   "report SEARCH --pick N[,N...] -o FILE.html",
+		Short: "One self-contained printable HTML report of chosen results",
+		Long: `Write one HTML page about chosen results of a saved search (its number, or
+"last"): the requirement, the ranked results, for each chosen result its
+to-scale layout drawing, spot diagrams and ray fans with their RMS figures,
+then the purchase request and the cautions. The page is self-contained (styles
+inline, drawings as inline SVG, plots as embedded PNG): it fetches nothing, so
+it can be mailed, archived with a lab notebook or printed.`,
+		Example: `  cardinal report last --pick 1,2 -o report.html
+  cardinal report 17 --pick 1 --quantity 3 -o relay.html --force`,
+		Args: cobra.ExactArgs(1),
+		RunE: func(c *cobra.Command, args []string) error {
+			o.db, o.Search = dbFlag(c), args[0]
+			if err := o.validate(); err != nil {
+				return err
+			}
+			return run(o)
+		},
+	}
+	f := cmd.Flags()
+	f.IntSliceVar(&o.Picks, "pick", nil, "ranks of the results to detail, e.g. 1,2 (required)")
+	f.IntVar(&o.Qty, "quantity", 1, "number of systems to build of each picked solution, for the request")
+	f.StringVarP(&o.Output, "output", "o", "", "HTML file to write; standard output if absent")
+	f.BoolVar(&o.Force, "force", false, "overwrite the output file if it exists")
+	f.Float64Var(&o.Field, "field", 0, "field edge: object height in mm, or field angle in degrees for an object at infinity")
+	f.StringSliceVar(&o.Band, "band", nil, "wavelengths in nm for the spot diagrams, the first the reference")
+	return cmd
+}
+
+func (o *reportOptions) validate() error {
+	if o.Qty < 1 {
+		return usageErrorf("--quantity %d: give the number of systems, 1 or more", o.Qty)
+	}
+	if err := checkPicks(o.Picks, false); err != nil {
+		return err
+	}
+	var err error
+	o.wavelengths, err = parseBand(o.Band)
+	return err
+}
+
+func runReport(o *reportOptions) error {
+	e := o.env
+	sv, err := loadSaved(e, o.db, o.Search, o.Picks)
+	if err != nil {
+		return err
+	}
+	sols, err := sv.solutions(e)
+	if err != nil {
+		return err
+	}
+	rq, err := export.BuildRequest(sv.ID, sv.Req, sv.Picks, o.Qty, sv.stock())
+	if err != nil {
+		return usageErrorf("%v", err)
+	}
+	for _, c := range export.Cautions(sv.Req) {
+		fmt.Fprintln(e.Err, "caution:", c)
+	}
+	in := export.ReportInput{Search: sv.ID, SearchedAt: sv.At, GeneratedAt: e.Now(), Requirement: sv.Req,
+		Results: sv.Results, Picks: sols, Request: rq,
+		Draw: export.DrawOptions{Field: o.Field}, Plot: export.PlotOptions{Field: o.Field, Wavelengths: o.wavelengths}}
+	w, err := openOutput(e, o.Output, o.Force)
+	if err != nil {
+		return err
+	}
+	if err := export.WriteReport(w, in); err != nil {
+		w.Close()
+		return fmt.Errorf("search %d: %w", sv.ID, err)
+	}
+	return closeOutput(e, w, o.Output, fmt.Sprintf("the report on search %d", sv.ID))
+}
