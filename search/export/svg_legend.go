@@ -45,6 +45,9 @@ func (d *svgDoc) legend() []legendLine {
 			ls = append(ls, legendLine{"", fmt.Sprintf("× a %s ray stops at surface %d: %v", r.Name, r.Surface+1, r.Status)})
 		}
 	}
+	if len(Cautions(sc.Solution.Requirement)) > 0 {
+		ls = append(ls, legendLine{"", "laser caution: focused beams and ghost foci from surface reflections can burn skin, eyes and parts; check coatings and damage thresholds; follow your laser safety rules and officer"})
+	}
 	return append(ls, legendLine{"", "z from the first vertex; lengths in mm"})
 }
 

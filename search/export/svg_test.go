@@ -210,3 +210,25 @@ func TestSVGViewBoxHoldsTheDrawing(t *testing.T) {
 		})
 	}
 }
+
+// A drawing for a laser requirement carries the caution in its legend; one
+// for visible imaging without a beam does not.
+func TestSVGLaserCaution(t *testing.T) {
+	for kind, want := range map[string]bool{"focus": true, "image": false} {
+		t.Run(kind, func(t *testing.T) {
+			_, root := drawSVG(t, solve(t, testRequirements()[kind])[0])
+			var text strings.Builder
+			var walk func(n svgNode)
+			walk = func(n svgNode) {
+				text.WriteString(n.Text)
+				for _, c := range n.Children {
+					walk(c)
+				}
+			}
+			walk(root)
+			if got := strings.Contains(text.String(), "laser caution"); got != want {
+				t.Errorf("laser caution shown: %v, want %v", got, want)
+			}
+		})
+	}
+}
