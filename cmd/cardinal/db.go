@@ -89,10 +89,24 @@ func openForRead(flag string, e *env) (*catalog.Store, error) {
 	}
 	if !ok {
 		fmt.Fprintf(e.Err, "cardinal: no catalog at %s yet: using the built-in demo catalog (invented parts); add your own with 'cardinal catalog import FILE'\n", loc.Path)
-		s, err := catalog.OpenDemo()
-		return s, catalogError(err)
+		return openDemo(loc, e)
 	}
 	s, err := catalog.Open(loc.Path)
+	return s, catalogError(err)
+}
+
+// openDemo opens the demo catalog kept beside where the user's catalog
+// would be (demo-VERSION.db), so that searches run on it last until the
+// next command; where no file can be written there, an in-memory one.
+func openDemo(loc catalogLocation, e *env) (*catalog.Store, error) {
+	path := filepath.Join(filepath.Dir(loc.Path), "demo-"+catalog.DemoVersion()+".db")
+	if prepareDir(loc) == nil {
+		if s, err := catalog.OpenDemoAt(path); err == nil {
+			return s, nil
+		}
+	}
+	fmt.Fprintf(e.Err, "cardinal: cannot keep the demo catalog at %s: searches on it last for this run only\n", path)
+	s, err := catalog.OpenDemo()
 	return s, catalogError(err)
 }
 

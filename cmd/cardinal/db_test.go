@@ -8,6 +8,8 @@ import (
 	"strings"
 	"testing"
 	"time"
+
+	"cardinal/catalog"
 )
 
 // storeEnv is an env for the catalog commands: buffers for the streams and
@@ -84,9 +86,14 @@ func TestOpenForRead(t *testing.T) {
 	if lines := strings.Count(errb.String(), "\n"); lines != 1 || !strings.Contains(errb.String(), "built-in demo catalog") {
 		t.Errorf("stderr %q, want one line about the demo catalog", errb.String())
 	}
-	home := e.Getenv("HOME")
-	if _, err := os.Stat(filepath.Join(home, ".local")); !errors.Is(err, os.ErrNotExist) {
-		t.Errorf("a read command created %s/.local (%v)", home, err)
+	// A read command creates no catalog of the user's; it keeps the demo
+	// catalog beside where that would be, so that searches on it last.
+	dir := filepath.Join(e.Getenv("HOME"), ".local/share/cardinal")
+	if _, err := os.Stat(filepath.Join(dir, "catalog.db")); !errors.Is(err, os.ErrNotExist) {
+		t.Errorf("a read command created the catalog (%v)", err)
+	}
+	if _, err := os.Stat(filepath.Join(dir, "demo-"+catalog.DemoVersion()+".db")); err != nil {
+		t.Errorf("demo catalog not kept: %v", err)
 	}
 }
 
