@@ -4,9 +4,11 @@ import (
 	"cmp"
 	"fmt"
 	"math"
+	"runtime"
 	"slices"
 	"sort"
 	"strings"
+	"sync"
 
 	"cardinal/importers"
 	"cardinal/optics"
@@ -31,14 +33,17 @@ type cand struct {
 	F, Fp float64 // focal points, same references
 	delta float64 // L + Pp - P: from the front to the back principal point
 	m     optics.Mat2
-	semi  float64         // clear semi-aperture
-	first *optics.Surface // first and last surfaces, for the edge clearance
-	last  *optics.Surface
-	price float64 // price term of one piece (see score.go)
-	away  float64 // 1 when no piece is in the drawer, else 0
-	qty   int     // pieces in the drawer
-	key   int32   // rank of the part ID, for deterministic ties
-	tier  int8    // price and drawer group (see tiers)
+	semi  float64 // clear semi-aperture
+	surf  int32   // index of the first and (next) last surfaces in prepared.surfs
+	// frontMin is the least sag of the first surface and backMax the
+	// greatest sag of the last, over the clear aperture: for spheres, a
+	// quick lower bound on the edge clearance.
+	frontMin, backMax float64
+	price             float64 // price term of one piece (see score.go)
+	away              float64 // 1 when no piece is in the drawer, else 0
+	qty               int     // pieces in the drawer
+	key               int32   // rank of the part ID, for deterministic ties
+	tier              int8    // price and drawer group (see tiers)
 }
 
 // prepared holds the candidates of one search and what was set aside.
@@ -46,50 +51,51 @@ type prepared struct {
 	items    []Item
 	cands    []cand // sorted by power
 	skipped  map[string]int
+	surfs    []optics.Surface // outer surfaces of the candidates, two each
 	warnings []string
 	outside  []string // media used outside their dispersion range
 	priceRef float64
 }
 
 // prepare filters the items by the requirement's part constraints and
-// computes the candidates at the requirement's wavelength.
+// computes the candidates at the requirement's wavelength, in chunks over
+// the processors, merged in item order.
 func prepare(items []Item, req Requirement) *prepared {
-	p := &prepared{items: items, skipped: map[string]int{}, cands: make([]cand, 0, 2*len(items))}
-	lambda := req.Lambda()
 	keys := idRanks(items)
-	warned := map[string]bool{}
-	for i, it := range items {
-		part := it.Entry.Part
-		if reason := p.filter(it, req); reason != "" {
-			p.skipped[reason]++
-			continue
-		}
-		for _, rev := range orientations(part) {
-			pp := part
-			if rev {
-				pp = part.Reversed()
-			}
-			sys := pp.System(nil, nil)
-			if !rev {
-				p.warn(sys, lambda, warned)
-			}
-			c, ok := newCand(pp, sys.Cardinal(lambda))
-			if !ok {
-				p.skipped["no focusing power (afocal part)"]++
-				break
-			}
-			c.item, c.rev, c.key = int32(i), rev, keys[i]
-			c.qty = it.Drawer
-			if it.Drawer < 1 {
-				c.away = 1
-			}
+	workers := max(1, min(runtime.GOMAXPROCS(0), 4, len(items)/1000))
+	parts := make([]*prepared, workers)
+	var wg sync.WaitGroup
+	for k := range parts {
+		lo, hi := k*len(items)/workers, (k+1)*len(items)/workers
+		wg.Add(1)
+		go func(k int) {
+			defer wg.Done()
+			parts[k] = prepareChunk(items, keys, lo, hi, req)
+		}(k)
+	}
+	wg.Wait()
+	p := &prepared{items: items, skipped: map[string]int{}, cands: make([]cand, 0, 2*len(items))}
+	outside := map[string]bool{}
+	for _, q := range parts {
+		for _, c := range q.cands {
+			c.surf += int32(len(p.surfs))
 			p.cands = append(p.cands, c)
+		}
+		p.surfs = append(p.surfs, q.surfs...)
+		for r, n := range q.skipped {
+			p.skipped[r] += n
+		}
+		for _, o := range q.outside {
+			if !outside[o] {
+				outside[o] = true
+				p.outside = append(p.outside, o)
+			}
 		}
 	}
 	if len(p.outside) > 0 {
 		sort.Strings(p.outside)
 		p.warnings = append(p.warnings, fmt.Sprintf("%g nm is outside the range of the dispersion formulas of %s: their indices are extrapolated",
-			lambda, strings.Join(p.outside, ", ")))
+			req.Lambda(), strings.Join(p.outside, ", ")))
 	}
 	p.priceRef = priceReference(items)
 	for i := range p.cands {
@@ -97,6 +103,58 @@ func prepare(items []Item, req Requirement) *prepared {
 	}
 	p.cands = byTier(p.cands)
 	return p
+}
+
+// prepareChunk computes the candidates of items[lo:hi].
+func prepareChunk(items []Item, keys []int32, lo, hi int, req Requirement) *prepared {
+	p := &prepared{skipped: map[string]int{},
+		cands: make([]cand, 0, 2*(hi-lo)), surfs: make([]optics.Surface, 0, 4*(hi-lo))}
+	lambda := req.Lambda()
+	warned := map[string]bool{}
+	for i := lo; i < hi; i++ {
+		it := items[i]
+		part := it.Entry.Part
+		if reason := p.filter(it, req); reason != "" {
+			p.skipped[reason]++
+			continue
+		}
+		sys := part.System(nil, nil)
+		p.warn(sys, lambda, warned)
+		c := sys.Cardinal(lambda)
+		if c.Afocal {
+			p.skipped["no focusing power (afocal part)"]++
+			continue
+		}
+		first, last := part.Surfaces[0], part.Surfaces[len(part.Surfaces)-1]
+		p.add(c, part.Aperture()/2, first, last, it, int32(i), keys[i], false)
+		if !part.Symmetric() {
+			// The part turned around, in air: its reduced matrix is
+			// [D B; C A] (reversibility of paraxial rays; Gerrard and
+			// Burch, ch. III), checked in tests against the reversed part.
+			m := c.Matrix
+			rc := optics.FromMatrix(optics.Mat2{A: m.D, B: m.B, C: m.C, D: m.A}, 1, 1)
+			rc.Length = c.Length
+			p.add(rc, part.Aperture()/2, last.Reversed(), first.Reversed(), it, int32(i), keys[i], true)
+		}
+	}
+	return p
+}
+
+// add appends the candidate of one part in one orientation, by its
+// cardinal points c in air, its clear semi-aperture and its outer surfaces.
+func (p *prepared) add(c optics.Cardinal, semi float64, first, last optics.Surface, it Item, item, key int32, rev bool) {
+	p.cands = append(p.cands, cand{
+		item: item, rev: rev, key: key, qty: it.Drawer, away: float64(b2i(it.Drawer < 1)),
+		phi: c.Power, f: c.EFL, L: c.Length,
+		P: c.P, Pp: c.PPrime, F: c.F, Fp: c.FPrime,
+		delta:    c.Length + c.PPrime - c.P,
+		m:        c.Matrix,
+		semi:     semi,
+		surf:     int32(len(p.surfs)),
+		frontMin: sagExtreme(first, semi, math.Min),
+		backMax:  sagExtreme(last, semi, math.Max),
+	})
+	p.surfs = append(p.surfs, first, last)
 }
 
 // warn notes the media used outside their dispersion range, once each.
@@ -128,26 +186,12 @@ func (p *prepared) filter(it Item, req Requirement) string {
 	return ""
 }
 
-// orientations lists the orientations to try: a symmetric part once.
-func orientations(p optics.Part) []bool {
-	if p.Symmetric() {
-		return []bool{false}
-	}
-	return []bool{false, true}
-}
-
-func newCand(p optics.Part, c optics.Cardinal) (cand, bool) {
-	if c.Afocal || math.Abs(c.Power) < optics.AfocalPower {
-		return cand{}, false
-	}
-	return cand{
-		phi: c.Power, f: c.EFL, L: c.Length,
-		P: c.P, Pp: c.PPrime, F: c.F, Fp: c.FPrime,
-		delta: c.Length + c.PPrime - c.P,
-		m:     c.Matrix,
-		semi:  p.Aperture() / 2,
-		first: &p.Surfaces[0], last: &p.Surfaces[len(p.Surfaces)-1],
-	}, true
+// sagExtreme is the sag at 0 or h picked by pick (math.Min or math.Max):
+// the extreme over heights 0 to h of a sphere, whose sag is monotonic. For a
+// conic or an asphere it means nothing; edgeClearance samples those.
+func sagExtreme(s optics.Surface, h float64, pick func(a, b float64) float64) float64 {
+	z, _ := s.Sag(h)
+	return pick(0, z)
 }
 
 // tier groups candidates of like price and drawer availability, so that

@@ -12,21 +12,32 @@ import (
 // gap - sagA(h) + sagB(h) is monotonic in h (the sag slope c h /
 // sqrt(1 - c^2 h^2) grows with the curvature c), so its least value is at
 // the axis or at the shared clear aperture; conics and aspheres are sampled.
-func edgeClearance(a, b *cand, gap float64) float64 {
+func (s *search) edgeClearance(a, b *cand, gap float64) float64 {
+	last, first := &s.surfs[a.surf+1], &s.surfs[b.surf]
 	h := math.Min(a.semi, b.semi)
 	at := func(h float64) float64 {
-		za, _ := a.last.Sag(h)
-		zb, _ := b.first.Sag(h)
+		za, _ := last.Sag(h)
+		zb, _ := first.Sag(h)
 		return gap - za + zb
 	}
 	least := math.Min(gap, at(h))
-	if a.last.IsAsphere() || b.first.IsAsphere() {
+	if last.IsAsphere() || first.IsAsphere() {
 		const samples = 32
 		for i := 1; i < samples; i++ {
 			least = math.Min(least, at(h*float64(i)/samples))
 		}
 	}
 	return least
+}
+
+// quickClearance is a lower bound on edgeClearance for two spheres, from
+// each surface's extreme sag over its whole clear aperture; -Inf when either
+// surface is a conic or an asphere.
+func (s *search) quickClearance(a, b *cand, gap float64) float64 {
+	if s.surfs[a.surf+1].IsAsphere() || s.surfs[b.surf].IsAsphere() {
+		return math.Inf(-1)
+	}
+	return gap - a.backMax + b.frontMin
 }
 
 // ray is a paraxial ray in air: height and angle (reduced angle with n = 1).

@@ -33,16 +33,15 @@ func TestEdgeClearance(t *testing.T) {
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
-			a := cand{semi: tt.semiA, last: ptrSurface(tt.r2a)}
-			b := cand{semi: tt.semiB, first: ptrSurface(tt.r1b)}
-			checkNear(t, "edge clearance", edgeClearance(&a, &b, tt.gap), tt.want, 1e-12, 1e-12)
+			s := &search{surfs: []optics.Surface{{}, optics.Sphere(tt.r2a), optics.Sphere(tt.r1b), {}}}
+			a := cand{semi: tt.semiA, surf: 0, backMax: sagExtreme(s.surfs[1], tt.semiA, math.Max)}
+			b := cand{semi: tt.semiB, surf: 2, frontMin: sagExtreme(s.surfs[2], tt.semiB, math.Min)}
+			checkNear(t, "edge clearance", s.edgeClearance(&a, &b, tt.gap), tt.want, 1e-12, 1e-12)
+			if q := s.quickClearance(&a, &b, tt.gap); q > tt.want+1e-12 {
+				t.Errorf("quick clearance %g above the clearance %g", q, tt.want)
+			}
 		})
 	}
-}
-
-func ptrSurface(r float64) *optics.Surface {
-	s := optics.Sphere(r)
-	return &s
 }
 
 // A collimated beam of half-height y through nearly thin lenses f1 then

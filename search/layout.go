@@ -31,7 +31,7 @@ type layout struct {
 	err   float64 // value - target
 	form  Form
 
-	edge     float64 // edge clearance between the facing surfaces (pairs)
+	edge     float64 // edge clearance between the facing surfaces, or a lower bound on it (pairs)
 	vigRatio float64 // largest ray height over clear semi-aperture; 0 unchecked
 	vigPart  int8    // the part (0 or 1) where vigRatio occurs
 	fails    uint16
@@ -113,7 +113,9 @@ func (s *search) finish(l *layout) bool {
 	}
 	if l.pair() {
 		b := &s.c[l.b]
-		l.edge = edgeClearance(a, b, l.gap)
+		if l.edge = s.quickClearance(a, b, l.gap); l.edge < r.GapMin {
+			l.edge = s.edgeClearance(a, b, l.gap)
+		}
 		if l.edge < r.GapMin {
 			l.fails |= failGap
 		}

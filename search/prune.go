@@ -177,7 +177,7 @@ func (s *search) openImage(a *cand, n *node, gMin, gMax float64) (bool, float64)
 		return false, 0
 	}
 	lo, hi := e.lo, e.hi
-	for k := 0; k < 6; k++ {
+	for k := 0; k < 4; k++ {
 		mid := (lo + hi) / 2
 		if s.imageRelation(a, n, iv{lo, mid}) {
 			hi = mid

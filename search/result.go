@@ -141,7 +141,7 @@ func (s *search) checks(l *layout) []Check {
 		add(failWD, "working_distance", "%.2f mm, minimum %g mm", l.wd, r.WDMin)
 	}
 	if l.pair() {
-		add(failGap, "gap", "edge clearance %.2f mm, minimum %g mm", l.edge, r.GapMin)
+		add(failGap, "gap", "edge clearance %.2f mm, minimum %g mm", s.edgeClearance(&s.c[l.a], &s.c[l.b], l.gap), r.GapMin)
 	}
 	if r.LengthMax > 0 {
 		add(failEnvelope, "envelope", "%.2f mm, maximum %g mm", l.env, r.LengthMax)

@@ -3,7 +3,12 @@ package search
 import (
 	"container/heap"
 	"math"
+	"runtime"
 	"sort"
+	"sync"
+	"sync/atomic"
+
+	"cardinal/optics"
 )
 
 // limits are what the pruning and the admission of a first-order solution
@@ -51,25 +56,54 @@ type search struct {
 	req    Requirement
 	lim    limits
 	c      []cand
+	surfs  []optics.Surface // outer surfaces of the candidates (prepared.surfs)
 	sc     scorer
 	tol    float64 // the requirement's first-order tolerance, for the checks
 	top    int     // results to keep; 0 all
 	misses bool    // keep layouts that fail checks too (near-miss search)
 	nodes  []node
 	roots  []int32
+	kept   *kept // shared by the workers of one search
 
-	kept       layoutHeap
+	// Counts of this worker, added up by merge.
 	solved     int            // layouts that met the first-order target
 	failed     map[uint16]int // failures by check, among solved layouts
 	evaluated  int            // pairs solved
 	unverified int            // roots the matrix check refused (never seen in tests)
 }
 
+// kept holds the best layouts found so far, and the bound their worst
+// score sets, for every worker of a search.
+type kept struct {
+	mu    sync.Mutex
+	heap  layoutHeap
+	bound atomic.Uint64 // math.Float64bits of the bound; +Inf until full
+}
+
 func newSearch(p *prepared, req Requirement, lim limits, top int) *search {
-	s := &search{req: req, lim: lim, c: p.cands, sc: newScorer(req), tol: firstOrderTol(req),
-		top: top, failed: map[uint16]int{}}
-	s.kept.s = s
+	s := &search{req: req, lim: lim, c: p.cands, surfs: p.surfs, sc: newScorer(req), tol: firstOrderTol(req),
+		top: top, failed: map[uint16]int{}, kept: &kept{}}
+	s.kept.heap.s = s
+	s.kept.bound.Store(math.Float64bits(math.Inf(1)))
 	return s
+}
+
+// worker returns a copy of the search that shares its candidates, trees
+// and kept layouts but counts on its own.
+func (s *search) worker() *search {
+	w := *s
+	w.solved, w.failed, w.evaluated, w.unverified = 0, map[uint16]int{}, 0, 0
+	return &w
+}
+
+// merge adds a worker's counts to the search's.
+func (s *search) merge(w *search) {
+	s.solved += w.solved
+	s.evaluated += w.evaluated
+	s.unverified += w.unverified
+	for k, v := range w.failed {
+		s.failed[k] += v
+	}
 }
 
 // emit takes a solved layout.
@@ -85,23 +119,27 @@ func (s *search) emit(l *layout) {
 			return
 		}
 	}
-	if s.top == 0 || s.kept.Len() < s.top {
-		heap.Push(&s.kept, *l)
+	k := s.kept
+	k.mu.Lock()
+	defer k.mu.Unlock()
+	switch {
+	case s.top == 0 || k.heap.Len() < s.top:
+		heap.Push(&k.heap, *l)
+	case s.better(l, &k.heap.ls[0]):
+		k.heap.ls[0] = *l
+		heap.Fix(&k.heap, 0)
+	default:
 		return
 	}
-	if s.better(l, &s.kept.ls[0]) {
-		s.kept.ls[0] = *l
-		heap.Fix(&s.kept, 0)
+	if s.top > 0 && k.heap.Len() == s.top && !s.misses {
+		k.bound.Store(math.Float64bits(k.heap.ls[0].score))
 	}
 }
 
 // bound is the score a new layout must not exceed to be kept: the worst
 // kept score once the list is full, +Inf before.
 func (s *search) bound() float64 {
-	if s.top == 0 || s.kept.Len() < s.top || s.misses {
-		return math.Inf(1)
-	}
-	return s.kept.ls[0].score
+	return math.Float64frombits(s.kept.bound.Load())
 }
 
 // exhaustive solves every candidate alone and every ordered pair.
@@ -133,12 +171,32 @@ func (s *search) pruned() {
 	}
 	s.buildForest()
 	order, lb := s.firstOrder()
-	var open nodeQueue
-	for _, i := range order {
-		if b := s.bound(); lb[i] > b+margin(b) {
-			break
-		}
-		s.bestFirst(i, &open)
+	workers := min(runtime.GOMAXPROCS(0), 4)
+	var next atomic.Int64
+	var wg sync.WaitGroup
+	ws := make([]*search, workers)
+	for k := range ws {
+		ws[k] = s.worker()
+		wg.Add(1)
+		go func(w *search) {
+			defer wg.Done()
+			var open nodeQueue
+			for {
+				n := next.Add(1) - 1
+				if n >= int64(len(order)) {
+					return
+				}
+				i := order[n]
+				if b := w.bound(); lb[i] > b+margin(b) {
+					return // the first parts come by increasing bound
+				}
+				w.bestFirst(i, &open)
+			}
+		}(ws[k])
+	}
+	wg.Wait()
+	for _, w := range ws {
+		s.merge(w)
 	}
 }
 
@@ -150,11 +208,11 @@ func (s *search) bestFirst(i int32, open *nodeQueue) {
 	open.items = open.items[:0]
 	for _, r := range s.roots {
 		if ok, lb := s.open(a, &s.nodes[r]); ok {
-			heap.Push(open, nodeBound{r, lb})
+			open.push(nodeBound{r, lb})
 		}
 	}
 	for open.Len() > 0 {
-		nb := heap.Pop(open).(nodeBound)
+		nb := open.pop()
 		if b := s.bound(); nb.lb > b+margin(b) {
 			return
 		}
@@ -171,7 +229,7 @@ func (s *search) bestFirst(i int32, open *nodeQueue) {
 		}
 		for _, c := range [2]int32{nd.left, nd.right} {
 			if ok, lb := s.open(a, &s.nodes[c]); ok {
-				heap.Push(open, nodeBound{c, lb})
+				open.push(nodeBound{c, lb})
 			}
 		}
 	}
@@ -189,22 +247,49 @@ type nodeBound struct {
 	lb float64
 }
 
-// nodeQueue is a min-heap of nodes by bound, ties by node id.
+// nodeQueue is a min-heap of nodes by bound, ties by node id, typed to
+// spare the boxing of container/heap on the hot path.
 type nodeQueue struct{ items []nodeBound }
 
 func (q *nodeQueue) Len() int { return len(q.items) }
-func (q *nodeQueue) Less(i, j int) bool {
-	if q.items[i].lb != q.items[j].lb {
-		return q.items[i].lb < q.items[j].lb
-	}
-	return q.items[i].id < q.items[j].id
+
+func (q *nodeQueue) less(i, j int) bool {
+	a, b := q.items[i], q.items[j]
+	return a.lb < b.lb || a.lb == b.lb && a.id < b.id
 }
-func (q *nodeQueue) Swap(i, j int) { q.items[i], q.items[j] = q.items[j], q.items[i] }
-func (q *nodeQueue) Push(x any)    { q.items = append(q.items, x.(nodeBound)) }
-func (q *nodeQueue) Pop() any {
-	x := q.items[len(q.items)-1]
-	q.items = q.items[:len(q.items)-1]
-	return x
+
+func (q *nodeQueue) push(x nodeBound) {
+	q.items = append(q.items, x)
+	for i := len(q.items) - 1; i > 0; {
+		p := (i - 1) / 2
+		if !q.less(i, p) {
+			break
+		}
+		q.items[i], q.items[p] = q.items[p], q.items[i]
+		i = p
+	}
+}
+
+func (q *nodeQueue) pop() nodeBound {
+	top := q.items[0]
+	last := len(q.items) - 1
+	q.items[0] = q.items[last]
+	q.items = q.items[:last]
+	for i := 0; ; {
+		l, r, m := 2*i+1, 2*i+2, i
+		if l < last && q.less(l, m) {
+			m = l
+		}
+		if r < last && q.less(r, m) {
+			m = r
+		}
+		if m == i {
+			break
+		}
+		q.items[i], q.items[m] = q.items[m], q.items[i]
+		i = m
+	}
+	return top
 }
 
 // buildForest builds one power tree per tier and sign of power (the
@@ -252,7 +337,7 @@ func (s *search) firstOrder() ([]int32, []float64) {
 
 // sorted returns the kept layouts best first.
 func (s *search) sorted() []layout {
-	ls := append([]layout(nil), s.kept.ls...)
+	ls := append([]layout(nil), s.kept.heap.ls...)
 	sort.Slice(ls, func(i, j int) bool { return s.better(&ls[i], &ls[j]) })
 	return ls
 }

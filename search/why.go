@@ -42,19 +42,19 @@ func (s *search) whyUnsolved() []string {
 	case Focus:
 		w = append(w, fmt.Sprintf("no single part has an EFL within %.3g mm of %g mm", s.tol, r.EFL))
 		if pairs {
-			w = append(w, "no pair reaches that EFL with a non-negative gap")
+			w = append(w, "no pair reaches that EFL within the gap, length and back-clearance limits")
 		}
 	case Image:
 		w = append(w, s.whyImageSinglet())
 		if pairs {
-			w = append(w, fmt.Sprintf("no pair forms a real image at %g within the %g mm track", r.Mag, r.Track))
+			w = append(w, fmt.Sprintf("no pair forms a real image at %g on the %g mm track within the gap, length, working-distance and back-clearance limits", r.Mag, r.Track))
 		}
 	case Expand:
 		form := "pair"
 		if r.Form != AnyForm {
 			form = string(r.Form) + " pair"
 		}
-		w = append(w, fmt.Sprintf("no %s of parts has a focal-length ratio within %.3g of %g", form, s.tol, r.Expansion))
+		w = append(w, fmt.Sprintf("no %s of parts has a focal-length ratio within %.3g of %g and fits the gap and length limits", form, s.tol, r.Expansion))
 	}
 	if s.unverified > 0 {
 		w = append(w, fmt.Sprintf("%d pair solutions failed the matrix check and were dropped", s.unverified))

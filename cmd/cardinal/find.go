@@ -162,8 +162,7 @@ func (o *findOptions) apply(req *search.Requirement) error {
 			*t.dst = v
 		}
 	}
-	o.applyRest(req, set)
-	return nil
+	return o.applyRest(req, set)
 }
 
 // applyKind sets the kind from the target flags given: at most one kind,
@@ -190,7 +189,7 @@ func (o *findOptions) applyKind(req *search.Requirement, set func(string) bool) 
 	return nil
 }
 
-func (o *findOptions) applyRest(req *search.Requirement, set func(string) bool) {
+func (o *findOptions) applyRest(req *search.Requirement, set func(string) bool) error {
 	if set("elements") {
 		req.Elements = o.Elements
 	}
@@ -208,12 +207,13 @@ func (o *findOptions) applyRest(req *search.Requirement, set func(string) bool) 
 	}
 	switch {
 	case o.Galilean && o.Keplerian:
-		req.Form = "both" // Validate rejects it with the list of forms
+		return usageErrorf("--galilean and --keplerian exclude each other: give one, or neither to accept both forms")
 	case o.Galilean:
 		req.Form = search.Galilean
 	case o.Keplerian:
 		req.Form = search.Keplerian
 	}
+	return nil
 }
 
 // findOutput is the JSON document: the requirement and the results, with
@@ -242,7 +242,8 @@ func runFind(o *findOptions) error {
 	if err != nil {
 		return usageErrorf("%v", err)
 	}
-	doc := findOutput{Requirement: out.Requirement, Results: out.Results, Why: out.Why, Misses: out.Misses, Notes: out.Notes}
+	doc := findOutput{Requirement: out.Requirement, Results: out.Results, Why: out.Why, Misses: out.Misses,
+		Notes: append(append([]string(nil), out.Notes...), cautions(o.Req)...)}
 	if err := saveSearch(ctx, st, e, doc); err != nil {
 		return err
 	}
@@ -295,17 +296,26 @@ func saveSearch(ctx context.Context, st *catalog.Store, e *env, doc findOutput) 
 const laserCaution = "caution: focused laser beams and ghost foci can burn skin, eyes and parts; " +
 	"check coatings and damage thresholds; follow your local laser safety rules and your laser safety officer"
 
-// printCautions writes the notes and, for a laser, the safety caution.
+// cautions are the safety lines of a requirement: for a laser, the
+// general caution, and for a Keplerian expander its internal focus.
+func cautions(req search.Requirement) []string {
+	if !req.Laser() {
+		return nil
+	}
+	c := []string{laserCaution}
+	if req.Kind == search.Expand && req.Form != search.Galilean {
+		c = append(c, "caution: a Keplerian expander brings the beam to a focus between its parts; mind the damage threshold and air breakdown there")
+	}
+	return c
+}
+
+// printCautions writes the notes and the safety cautions on stderr.
 func printCautions(e *env, req search.Requirement, out search.Outcome) {
 	for _, n := range out.Notes {
 		fmt.Fprintln(e.Err, "note:", n)
 	}
-	if !req.Laser() {
-		return
-	}
-	fmt.Fprintln(e.Err, laserCaution)
-	if req.Kind == search.Expand && req.Form != search.Galilean {
-		fmt.Fprintln(e.Err, "caution: a Keplerian expander brings the beam to a focus between its parts; mind the damage threshold and air breakdown there")
+	for _, c := range cautions(req) {
+		fmt.Fprintln(e.Err, c)
 	}
 }
 

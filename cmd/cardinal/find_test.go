@@ -80,7 +80,7 @@ func TestFindFlags(t *testing.T) {
 		{"negative track", []string{"--track", "-10", "--mag", "-1"}, nil, "track is negative"},
 		{"negative tolerance", []string{"--efl", "50", "--efl-tol", "-1%"}, nil, "below zero"},
 		{"tolerance not a number", []string{"--efl", "50", "--efl-tol", "lots"}, nil, "want a percentage"},
-		{"both expander forms", []string{"--expand", "3", "--galilean", "--keplerian"}, nil, "unknown expander form"},
+		{"both expander forms", []string{"--expand", "3", "--galilean", "--keplerian"}, nil, "exclude each other"},
 		{"beam on an image", []string{"--track", "200", "--mag", "-1", "--beam", "3"}, nil, "--beam does not apply"},
 		{"margins eat the track", []string{"--track", "100", "--mag", "-1", "--wd-min", "60", "--bfd-min", "50"}, nil, "leave nothing"},
 		{"erect image from one part", []string{"--track", "300", "--mag", "0.5", "--elements", "1"}, nil, "needs two elements"},

@@ -1,0 +1,47 @@
+package search
+
+import (
+	"math"
+	"testing"
+
+	"cardinal/optics"
+)
+
+// The candidate of a part turned around, derived from the part's own matrix
+// as [D B; C A], has the cardinal points of the reversed part computed
+// surface by surface by the optics package.
+func TestReversedCandidate(t *testing.T) {
+	glass, _ := optics.GlassCode("517642")
+	flint, _ := optics.GlassCode("620364")
+	doublet := optics.Part{Supplier: "TEST", Name: "ACH", Diameter: 25.4,
+		Surfaces:  []optics.Surface{optics.Sphere(61.5), optics.Sphere(-44.2), optics.Sphere(-129.6)},
+		Thickness: []float64{6, 2.5},
+		Media:     []optics.Medium{glass, flint}}
+	parts := []optics.Part{lens("PCX", 25.8, math.Inf(1), 5.3, 1.5168, 25.4), doublet,
+		lens("MEN", 30, 80, 4, 1.7, 20)}
+	for _, part := range parts {
+		t.Run(part.Name, func(t *testing.T) {
+			p := prepare(items(part), focusReq(100))
+			want := part.Reversed().System(nil, nil).Cardinal(optics.LineD)
+			found := false
+			for _, c := range p.cands {
+				if !c.rev {
+					continue
+				}
+				found = true
+				checkNear(t, "EFL", c.f, want.EFL, 1e-9, 1e-12)
+				checkNear(t, "P", c.P, want.P, 1e-9, 1e-12)
+				checkNear(t, "P'", c.Pp, want.PPrime, 1e-9, 1e-12)
+				checkNear(t, "F", c.F, want.F, 1e-9, 1e-12)
+				checkNear(t, "F'", c.Fp, want.FPrime, 1e-9, 1e-12)
+				rs := part.Reversed().Surfaces
+				if p.surfs[c.surf] != rs[0] || p.surfs[c.surf+1] != rs[len(rs)-1] {
+					t.Errorf("outer surfaces %v %v, want %v %v", p.surfs[c.surf], p.surfs[c.surf+1], rs[0], rs[len(rs)-1])
+				}
+			}
+			if !found {
+				t.Fatal("no reversed candidate")
+			}
+		})
+	}
+}
