@@ -2,8 +2,10 @@ package search
 
 import (
 	"fmt"
+	"reflect"
 	"sync"
 	"testing"
+	"time"
 
 	"cardinal/catalog/synth"
 )
@@ -79,5 +81,38 @@ func BenchmarkFindExhaustive(b *testing.B) {
 				}
 			})
 		}
+	}
+}
+
+// BenchmarkPrunedVsExhaustive runs both searches in the same run on 5,000
+// parts, fails unless their results are equal, and reports how many times
+// faster the pruned one is (run with -benchtime=1x).
+func BenchmarkPrunedVsExhaustive(b *testing.B) {
+	for _, kind := range []string{"focus", "image", "expand"} {
+		req := benchRequirements()[kind]
+		b.Run(kind+"/5000", func(b *testing.B) {
+			its := synthItems(5000)
+			var pruned, exhaustive time.Duration
+			for b.Loop() {
+				t0 := time.Now()
+				got, err := Find(its, req)
+				pruned += time.Since(t0)
+				if err != nil {
+					b.Fatal(err)
+				}
+				t0 = time.Now()
+				want, err := FindExhaustive(its, req)
+				exhaustive += time.Since(t0)
+				if err != nil {
+					b.Fatal(err)
+				}
+				if !reflect.DeepEqual(got.Results, want.Results) || len(got.Results) == 0 {
+					b.Fatalf("pruned and exhaustive results differ (or are empty): %d and %d", len(got.Results), len(want.Results))
+				}
+			}
+			b.ReportMetric(float64(pruned.Milliseconds())/float64(b.N), "pruned-ms/op")
+			b.ReportMetric(float64(exhaustive.Milliseconds())/float64(b.N), "exhaustive-ms/op")
+			b.ReportMetric(exhaustive.Seconds()/pruned.Seconds(), "speedup")
+		})
 	}
 }
