@@ -8,14 +8,14 @@ import (
 
 // pair solves candidate i followed by candidate j and emits every layout it
 // admits.
-func (s *search) pair(i, j int32, emit func(*layout)) {
+func (s *search) pair(i, j int32) {
 	switch s.req.Kind {
 	case Focus:
-		s.pairFocus(i, j, emit)
+		s.pairFocus(i, j)
 	case Image:
-		s.pairImage(i, j, emit)
+		s.pairImage(i, j)
 	case Expand:
-		s.pairExpand(i, j, emit)
+		s.pairExpand(i, j)
 	}
 }
 
@@ -37,7 +37,7 @@ func spacingFor(a, b *cand, phi float64) (e, gap float64) {
 
 // pairFocus puts the pair at the target EFL; the back clearance is the
 // back focal distance A/phi of the solved pair's matrix (optics.FromMatrix).
-func (s *search) pairFocus(i, j int32, emit func(*layout)) {
+func (s *search) pairFocus(i, j int32) {
 	a, b := &s.c[i], &s.c[j]
 	_, gap := spacingFor(a, b, 1/s.req.EFL)
 	if !(gap >= 0) {
@@ -51,14 +51,14 @@ func (s *search) pairFocus(i, j int32, emit func(*layout)) {
 	l.bc = m.A / phi
 	l.track = l.env + l.bc
 	if s.finish(&l) {
-		emit(&l)
+		s.emit(&l)
 	}
 }
 
 // pairExpand makes the pair afocal (phi = 0 in Gullstrand's equation, so the
 // principal points are f1 + f2 apart; common practice) and reads the
 // expansion from the lateral magnification A = -f2/f1 of its matrix.
-func (s *search) pairExpand(i, j int32, emit func(*layout)) {
+func (s *search) pairExpand(i, j int32) {
 	a, b := &s.c[i], &s.c[j]
 	form := Keplerian
 	switch {
@@ -82,7 +82,7 @@ func (s *search) pairExpand(i, j int32, emit func(*layout)) {
 		l.fails |= failForm
 	}
 	if s.finish(&l) {
-		emit(&l)
+		s.emit(&l)
 	}
 }
 
@@ -100,7 +100,7 @@ func (s *search) pairExpand(i, j int32, emit func(*layout)) {
 // a layout, and D = (T - K) + (1 + m f2/f1) x needs no division, so a pair
 // that is afocal at the solved gap (D = 0, the 4f relay) is as accurate as
 // any other. Each root is checked against the assembled matrix.
-func (s *search) pairImage(i, j int32, emit func(*layout)) {
+func (s *search) pairImage(i, j int32) {
 	a, b := &s.c[i], &s.c[j]
 	T, m, f1, f2 := s.req.Track, s.req.Mag, a.f, b.f
 	k := -a.F + a.L + a.Fp - b.F + b.L + b.Fp
@@ -134,7 +134,7 @@ func (s *search) pairImage(i, j int32, emit func(*layout)) {
 		l.value = full.A
 		l.err = l.value - m
 		if s.finish(&l) {
-			emit(&l)
+			s.emit(&l)
 		}
 	}
 }

@@ -146,7 +146,7 @@ func (s *search) bound() float64 {
 func (s *search) exhaustive() {
 	n := int32(len(s.c))
 	for i := int32(0); i < n; i++ {
-		s.singlet(i, s.emit)
+		s.singlet(i)
 	}
 	if s.req.MaxElements() < 2 {
 		return
@@ -154,7 +154,7 @@ func (s *search) exhaustive() {
 	for i := int32(0); i < n; i++ {
 		for j := int32(0); j < n; j++ {
 			s.evaluated++
-			s.pair(i, j, s.emit)
+			s.pair(i, j)
 		}
 	}
 }
@@ -164,7 +164,7 @@ func (s *search) exhaustive() {
 func (s *search) pruned() {
 	n := int32(len(s.c))
 	for i := int32(0); i < n; i++ {
-		s.singlet(i, s.emit)
+		s.singlet(i)
 	}
 	if s.req.MaxElements() < 2 || n == 0 {
 		return
@@ -223,7 +223,7 @@ func (s *search) bestFirst(i int32, open *nodeQueue) {
 					continue
 				}
 				s.evaluated++
-				s.pair(i, j, s.emit)
+				s.pair(i, j)
 			}
 			continue
 		}

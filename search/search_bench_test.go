@@ -65,6 +65,27 @@ func BenchmarkFind(b *testing.B) {
 	}
 }
 
+// BenchmarkFindNoDrawer is BenchmarkFind at 50,000 parts with an empty
+// drawer: fewer parts stand out in the ranking, so the score bound prunes
+// less.
+func BenchmarkFindNoDrawer(b *testing.B) {
+	its := append([]Item(nil), synthItems(50000)...)
+	for i := range its {
+		its[i].Drawer = 0
+	}
+	for _, kind := range []string{"focus", "image", "expand"} {
+		req := benchRequirements()[kind]
+		b.Run(kind+"/50000", func(b *testing.B) {
+			b.ReportAllocs()
+			for b.Loop() {
+				if _, err := Find(its, req); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
+}
+
 // BenchmarkFindExhaustive is the baseline the pruned search is measured
 // against (run it with -benchtime=1x: one op solves every ordered pair).
 func BenchmarkFindExhaustive(b *testing.B) {

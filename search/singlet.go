@@ -3,18 +3,18 @@ package search
 import "math"
 
 // singlet solves one candidate alone and emits what it admits.
-func (s *search) singlet(i int32, emit func(*layout)) {
+func (s *search) singlet(i int32) {
 	switch s.req.Kind {
 	case Focus:
-		s.singletFocus(i, emit)
+		s.singletFocus(i)
 	case Image:
-		s.singletImage(i, emit)
+		s.singletImage(i)
 	}
 }
 
 // singletFocus: the part's own EFL; the focus of a collimated beam lies at
 // its back focal point.
-func (s *search) singletFocus(i int32, emit func(*layout)) {
+func (s *search) singletFocus(i int32) {
 	c := &s.c[i]
 	l := layout{a: i, b: -1, value: c.f, err: c.f - s.req.EFL,
 		bc: c.Fp, env: c.L, track: c.L + c.Fp, wd: math.NaN()}
@@ -22,7 +22,7 @@ func (s *search) singletFocus(i int32, emit func(*layout)) {
 		return
 	}
 	if s.finish(&l) {
-		emit(&l)
+		s.emit(&l)
 	}
 }
 
@@ -31,7 +31,7 @@ func (s *search) singletFocus(i int32, emit func(*layout)) {
 // (the Gaussian lens equation in air; Hecht, Optics, 5th ed., sec. 5.2.3)
 // and u + v = D = track - (principal-point separation), so u and v are the
 // roots of x^2 - D x + D f = 0, real when D >= 4f; m = -v/u.
-func (s *search) singletImage(i int32, emit func(*layout)) {
+func (s *search) singletImage(i int32) {
 	c := &s.c[i]
 	d := s.req.Track - c.delta
 	if c.f <= 0 || d <= 0 {
@@ -55,7 +55,7 @@ func (s *search) singletImage(i int32, emit func(*layout)) {
 			continue
 		}
 		if s.finish(&l) {
-			emit(&l)
+			s.emit(&l)
 		}
 	}
 }
