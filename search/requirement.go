@@ -1,6 +1,7 @@
 package search
 
 import (
+	"encoding/json"
 	"errors"
 	"fmt"
 	"math"
@@ -54,19 +55,19 @@ type Requirement struct {
 
 	// Focus.
 	EFL    float64   `json:"efl_mm,omitempty"`
-	EFLTol Tolerance `json:"efl_tol"`
+	EFLTol Tolerance `json:"efl_tol,omitzero"`
 
 	// Image: track (object plane to image plane) and signed magnification.
 	Track        float64   `json:"track_mm,omitempty"`
 	Mag          float64   `json:"magnification,omitempty"`
-	MagTol       Tolerance `json:"mag_tol"`
+	MagTol       Tolerance `json:"mag_tol,omitzero"`
 	ObjectHeight float64   `json:"object_height_mm,omitempty"` // half the object field
 	NA           float64   `json:"na,omitempty"`               // object-space numerical aperture
 	WDMin        float64   `json:"wd_min_mm,omitempty"`        // working distance minimum
 
 	// Expand: output over input beam diameter, positive.
 	Expansion float64   `json:"expansion,omitempty"`
-	ExpandTol Tolerance `json:"expand_tol"`
+	ExpandTol Tolerance `json:"expand_tol,omitzero"`
 	Form      Form      `json:"form,omitempty"`
 
 	// Common.
@@ -90,6 +91,23 @@ func Defaults() Requirement {
 	one := Tolerance{Value: 1, Percent: true}
 	return Requirement{EFLTol: one, MagTol: one, ExpandTol: one,
 		GapMin: DefaultGapMin, Top: DefaultTop, Elements: 2, Wavelength: optics.LineD}
+}
+
+// MarshalJSON writes the requirement with the tolerance of its own kind
+// only.
+func (r Requirement) MarshalJSON() ([]byte, error) {
+	type plain Requirement // the same fields, without this method
+	p := plain(r)
+	if r.Kind != Focus {
+		p.EFLTol = Tolerance{}
+	}
+	if r.Kind != Image {
+		p.MagTol = Tolerance{}
+	}
+	if r.Kind != Expand {
+		p.ExpandTol = Tolerance{}
+	}
+	return json.Marshal(p)
 }
 
 // Lambda is the wavelength in nm, the d line when not given.

@@ -25,7 +25,7 @@ func (s *search) why(p *prepared) []string {
 	if s.solved == 0 {
 		return s.whyUnsolved()
 	}
-	w := []string{fmt.Sprintf("%d layouts reach the first-order target, but none meets every constraint:", s.solved)}
+	w := []string{fmt.Sprintf("%d %s the first-order target, but none meets every constraint:", s.solved, plural(s.solved, "layout reaches", "layouts reach"))}
 	for i, text := range failText {
 		if n := s.failed[1<<i]; n > 0 {
 			w = append(w, fmt.Sprintf("  %d %s", n, text))
@@ -79,4 +79,11 @@ func (s *search) whyImageSinglet() string {
 		return fmt.Sprintf("no part is strong enough for a %g mm track: a single part needs an EFL below about %.1f mm, the strongest has %.1f mm", s.req.Track, need, strongest)
 	}
 	return fmt.Sprintf("no single part reaches magnification %g within %.3g on a %g mm track", s.req.Mag, s.tol, s.req.Track)
+}
+
+func plural(n int, one, many string) string {
+	if n == 1 {
+		return one
+	}
+	return many
 }

@@ -248,13 +248,10 @@ func runFind(o *findOptions) error {
 		return err
 	}
 	printCautions(e, o.Req, out)
-	if err := render(e.Out, o.Format, resultGrid(o.Req, out.Results), doc); err != nil {
-		return err
+	if len(out.Results) == 0 {
+		return noResult(e, o, doc, out)
 	}
-	if len(out.Results) > 0 {
-		return nil
-	}
-	return noResult(e, o, out)
+	return render(e.Out, o.Format, resultGrid(o.Req, out.Results), doc)
 }
 
 // loadItems reads the parts the requirement may use, with the drawer.
@@ -319,10 +316,14 @@ func printCautions(e *env, req search.Requirement, out search.Outcome) {
 	}
 }
 
-// noResult prints why nothing met the requirement and the nearest misses
-// (for people; JSON carries both already) and returns the no-result error.
-func noResult(e *env, o *findOptions, out search.Outcome) error {
+// noResult prints why nothing met the requirement and the nearest misses:
+// the JSON document for programs, words and a table of misses on stderr for
+// people, never an empty table. It returns the no-result error.
+func noResult(e *env, o *findOptions, doc findOutput, out search.Outcome) error {
 	if o.Format == "json" {
+		if err := render(e.Out, "json", grid{}, doc); err != nil {
+			return err
+		}
 		return noResultErrorf("nothing meets the requirement (see \"why\" and \"misses\")")
 	}
 	for _, w := range out.Why {

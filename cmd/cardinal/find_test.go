@@ -273,3 +273,31 @@ func TestFindSaves(t *testing.T) {
 		t.Errorf("saved %d %q %+v with %d results", s.ID, s.Kind, req, len(res))
 	}
 }
+
+// The output of find for people and for programs, against golden files
+// under testdata/find (rewrite with go test ./cmd/cardinal -run FindGolden
+// -update and review the diff).
+func TestFindGolden(t *testing.T) {
+	tests := []struct {
+		name string
+		args []string
+		code int
+	}{
+		{"focus-table", []string{"--efl", "75", "--beam", "6", "--bfd-min", "40", "--wavelength", "1064", "--top", "5"}, 0},
+		{"relay-spec-md", []string{"--spec", "../../testdata/find/relay.json", "--format", "md"}, 0},
+		{"expand-json", []string{"--expand", "5", "--expand-tol", "2%", "--beam", "2", "--galilean", "--length-max", "150", "--top", "2", "--format", "json"}, 0},
+		{"no-result", []string{"--efl", "75", "--length-max", "0.8"}, exitNoResult},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			dir := t.TempDir()
+			out, errs, code := findRun(t, filepath.Join(dir, "none.db"), tc.args...)
+			if code != tc.code {
+				t.Fatalf("exit code %d, want %d: %s", code, tc.code, errs)
+			}
+			errs = strings.ReplaceAll(errs, dir, "$DIR")
+			checkGolden(t, filepath.Join("..", "..", "testdata", "find", tc.name+".golden"),
+				"-- stdout --\n"+out+"-- stderr --\n"+errs)
+		})
+	}
+}
