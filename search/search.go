@@ -131,7 +131,7 @@ func (s *search) emit(l *layout) {
 	default:
 		return
 	}
-	if s.top > 0 && k.heap.Len() == s.top && !s.misses {
+	if s.top > 0 && k.heap.Len() == s.top {
 		k.bound.Store(math.Float64bits(k.heap.ls[0].score))
 	}
 }
