@@ -95,7 +95,7 @@ func notes(p *prepared, req Requirement) []string {
 	}
 	sort.Strings(reasons)
 	for _, r := range reasons {
-		n = append(n, fmt.Sprintf("%d parts set aside: %s", p.skipped[r], r))
+		n = append(n, fmt.Sprintf("%d %s set aside: %s", p.skipped[r], plural(p.skipped[r], "part", "parts"), r))
 	}
 	return n
 }

@@ -150,6 +150,8 @@ func TestRunFind(t *testing.T) {
 			[]string{"keplerian"}, []string{"focus between its parts"}, nil},
 		{"nothing that short", []string{"--efl", "75", "--length-max", "0.8"}, exitNoResult,
 			nil, []string{"none meets every constraint", "longer than the length maximum", "nearest misses", "fails envelope"}, nil},
+		{"ultraviolet is a laser wavelength", []string{"--efl", "100", "--efl-tol", "3%", "--wavelength", "355"}, 0,
+			nil, []string{"laser safety officer"}, nil},
 		{"no part strong enough", []string{"--track", "20", "--mag", "-1", "--elements", "1"}, exitNoResult,
 			nil, []string{"no part is strong enough for a 20 mm track"}, nil},
 	}
