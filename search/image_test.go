@@ -97,19 +97,26 @@ func thinRoots(f1, f2, m, T float64) []float64 {
 // magnification, returns every root the two-thin-lens conjugate equations
 // have (found independently by bracketing), at the same working distances.
 func TestPairImageThinLimit(t *testing.T) {
-	a := equiconvex("A", 100, 0.02, 2)
-	b := equiconvex("B", 80, 0.02, 2)
+	thin := func(name string, f float64) optics.Part {
+		if f > 0 {
+			return equiconvex(name, f, 0.02, 2)
+		}
+		return lens(name, f, -f, 0.02, 1.5, 2) // biconcave, thin-lens f
+	}
 	tests := []struct {
-		name string
-		T, m float64
+		name   string
+		f1, f2 float64
+		T, m   float64
 	}{
-		{"reducing", 500, -0.5},
-		{"erect, two roots", 800, 2},
-		{"enlarging", 600, -1.2},
+		{"reducing", 100, 80, 500, -0.5},
+		{"erect, two roots", 100, 80, 800, 2},
+		{"enlarging", 100, 80, 600, -1.2},
+		{"negative then positive", -100, 80, 400, -0.5},
+		{"positive then negative", 80, -100, 600, -0.3},
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
-			its := items(a, b)
+			its := items(thin("A", tt.f1), thin("B", tt.f2))
 			req := imageReq(tt.T, tt.m)
 			req.GapMin = 0
 			out := mustFind(t, its, req)
@@ -122,10 +129,10 @@ func TestPairImageThinLimit(t *testing.T) {
 			}
 			sort.Float64s(ws)
 			var want []float64
-			for _, w := range thinRoots(100, 80, tt.m, tt.T) {
-				s1 := 1 / (1/100.0 - 1/w)
+			for _, w := range thinRoots(tt.f1, tt.f2, tt.m, tt.T) {
+				s1 := 1 / (1/tt.f1 - 1/w)
 				m2 := tt.m / (-s1 / w)
-				o2 := 80 * (1 - 1/m2)
+				o2 := tt.f2 * (1 - 1/m2)
 				if s1+o2 >= 0 && -m2*o2 > 0 {
 					want = append(want, w)
 				}
