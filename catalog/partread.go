@@ -5,6 +5,7 @@ import (
 	"database/sql"
 	"fmt"
 	"math"
+	"sort"
 
 	"cardinal/importers"
 	"cardinal/optics"
@@ -50,6 +51,9 @@ func readEntries(ctx context.Context, q querier, where string, args []any, glass
 		index[id] = i
 	}
 	sub := "SELECT p.id" + filteredParts + "WHERE " + where
+	if where == "1" {
+		sub = "SELECT id FROM parts" // every part: no join needed
+	}
 	if err := readSurfaces(ctx, q, sub, args, entries, index, glasses); err != nil {
 		return nil, nil, err
 	}
@@ -60,13 +64,37 @@ func readEntries(ctx context.Context, q querier, where string, args []any, glass
 	for id, w := range warnings {
 		entries[index[id]].Warnings = w
 	}
+	sortByID(entries, ids)
 	return entries, ids, nil
+}
+
+// sortByID orders entries (and their ids with them) by supplier and part:
+// sorting here is cheaper than reading the parts in index order.
+func sortByID(entries []importers.Entry, ids []int64) {
+	order := make([]int, len(entries))
+	for i := range order {
+		order[i] = i
+	}
+	sort.Slice(order, func(a, b int) bool {
+		pa, pb := &entries[order[a]].Part, &entries[order[b]].Part
+		if pa.Supplier != pb.Supplier {
+			return pa.Supplier < pb.Supplier
+		}
+		return pa.Name < pb.Name
+	})
+	e2 := make([]importers.Entry, len(entries))
+	i2 := make([]int64, len(ids))
+	for i, o := range order {
+		e2[i], i2[i] = entries[o], ids[o]
+	}
+	copy(entries, e2)
+	copy(ids, i2)
 }
 
 func readPartRows(ctx context.Context, q querier, where string, args []any) ([]importers.Entry, []int64, error) {
 	rows, err := q.QueryContext(ctx, `SELECT p.id, p.supplier, p.part, p.description, p.diameter_mm,
 		p.clear_aperture_mm, p.stated_efl_mm, p.stated_bfd_mm, p.stated_edge_mm, p.stated_wavelength_nm,
-		p.price, p.currency, p.url, p.notes`+filteredParts+"WHERE "+where+" ORDER BY p.supplier, p.part", args...)
+		p.price, p.currency, p.url, p.notes`+filteredParts+"WHERE "+where+" ORDER BY p.id", args...)
 	if err != nil {
 		return nil, nil, err
 	}
