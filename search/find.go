@@ -41,17 +41,30 @@ func run(items []Item, req Requirement, prune bool) (Outcome, error) {
 		return Outcome{}, err
 	}
 	p := prepare(items, req)
-	s := newSearch(p, req, limitsOf(req), req.Top)
+	s := newSearch(p, req, limitsOf(req), survivors(req))
 	if prune {
 		s.pruned()
 	} else {
 		s.exhaustive()
 	}
 	out := Outcome{Requirement: req, Candidates: len(p.cands), Evaluated: s.evaluated, Solved: s.solved}
-	for k, l := range s.sorted() {
-		out.Results = append(out.Results, s.result(p, &l, k+1))
+	ls := s.sorted()
+	met, traced := len(ls), 0
+	var js []judgement
+	if req.TracesRays() {
+		ls, js, traced = s.judge(p, ls)
+	}
+	for k := range ls {
+		r := s.result(p, &ls[k], k+1)
+		if js != nil {
+			js[k].apply(&r, s.sc.w)
+		}
+		out.Results = append(out.Results, r)
 	}
 	out.Notes = notes(p, req)
+	if met > 0 {
+		out.Notes = append(out.Notes, qualityNotes(req, traced, met, js)...)
+	}
 	if len(out.Results) == 0 {
 		out.Why = s.why(p)
 		out.Misses = nearMisses(p, req, prune)

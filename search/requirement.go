@@ -39,6 +39,7 @@ const (
 	PreferDraw  Prefer = "drawer"
 	PreferShort Prefer = "short"
 	PreferCheap Prefer = "cheap"
+	PreferSharp Prefer = "sharp" // weights real-ray image quality up (see Weights)
 )
 
 // DefaultGapMin is the edge clearance between facing parts that the command
@@ -82,6 +83,11 @@ type Requirement struct {
 	DrawerOnly  bool    `json:"drawer_only,omitempty"`     // only parts in the drawer
 	Top         int     `json:"top"`                       // results to keep; 0 all that meet
 	Prefer      Prefer  `json:"prefer,omitempty"`
+
+	// Real rays and safety (see quality.go).
+	FieldAngle float64   `json:"field_angle_deg,omitempty"` // focus: field edge for the real-ray figures, degrees
+	Band       []float64 `json:"band_nm,omitempty"`         // wavelengths of the colour figures, nm; none: no colour figure
+	Power      float64   `json:"power_w,omitempty"`         // laser power, W: brings the laser cautions
 }
 
 // Defaults returns the requirement the command line and spec files start
@@ -132,11 +138,11 @@ func (r Requirement) ChecksAperture() bool {
 	return r.Beam > 0 || r.NA > 0 || r.ObjectHeight > 0
 }
 
-// Laser tells whether the requirement mentions a laser: a beam, or a
-// wavelength outside the visible 400-700 nm.
+// Laser tells whether the requirement mentions a laser: a power given, or
+// a wavelength outside the visible 400-700 nm (common practice).
 func (r Requirement) Laser() bool {
 	l := r.Lambda()
-	return r.Beam > 0 || l < 400 || l > 700
+	return r.Power > 0 || l < 400 || l > 700
 }
 
 // Validate rejects impossible or contradictory requirements before any
@@ -179,7 +185,8 @@ func (r Requirement) numbers() []named {
 		{"object height", r.ObjectHeight}, {"NA", r.NA}, {"working distance minimum", r.WDMin},
 		{"expansion", r.Expansion}, {"expansion tolerance", r.ExpandTol.Value}, {"beam", r.Beam},
 		{"back clearance minimum", r.BFDMin}, {"length maximum", r.LengthMax},
-		{"diameter maximum", r.DiameterMax}, {"gap minimum", r.GapMin}, {"wavelength", r.Wavelength}}
+		{"diameter maximum", r.DiameterMax}, {"gap minimum", r.GapMin}, {"wavelength", r.Wavelength},
+		{"field angle", r.FieldAngle}, {"power", r.Power}}
 }
 
 func (r Requirement) validateFocus(bad func(string, ...any)) {
@@ -192,6 +199,9 @@ func (r Requirement) validateFocus(bad func(string, ...any)) {
 		named{"--object-height", r.ObjectHeight}, named{"--wd-min", r.WDMin}, named{"--expand", r.Expansion})
 	if r.Form != AnyForm {
 		bad("--galilean and --keplerian apply to --expand only")
+	}
+	if r.FieldAngle >= 90 {
+		bad("a field angle of %g degrees is not below 90", r.FieldAngle)
 	}
 }
 
@@ -211,7 +221,8 @@ func (r Requirement) validateImage(bad func(string, ...any)) {
 	if r.NA >= 1 {
 		bad("an NA in air must be below 1, not %g", r.NA)
 	}
-	r.notFor("image", bad, named{"--efl", r.EFL}, named{"--beam", r.Beam}, named{"--expand", r.Expansion})
+	r.notFor("image", bad, named{"--efl", r.EFL}, named{"--beam", r.Beam}, named{"--expand", r.Expansion},
+		named{"--field-angle (for an image give --object-height)", r.FieldAngle})
 	if r.Form != AnyForm {
 		bad("--galilean and --keplerian apply to --expand only")
 	}
@@ -232,13 +243,16 @@ func (r Requirement) validateExpand(bad func(string, ...any)) {
 	}
 	r.notFor("expand", bad, named{"--efl", r.EFL}, named{"--track", r.Track}, named{"--mag", r.Mag},
 		named{"--na", r.NA}, named{"--object-height", r.ObjectHeight}, named{"--wd-min", r.WDMin},
-		named{"--bfd-min", r.BFDMin})
+		named{"--bfd-min", r.BFDMin}, named{"--field-angle", r.FieldAngle})
+	if len(r.Band) > 0 {
+		bad("--band does not apply to an expand requirement: expanders are ranked on first order only")
+	}
 }
 
 func (r Requirement) notFor(kind string, bad func(string, ...any), fs ...named) {
 	for _, f := range fs {
 		if f.v != 0 {
-			bad("%s does not apply to a %s requirement", f.name, kind)
+			bad("%s does not apply to %s %s requirement", f.name, map[bool]string{true: "an", false: "a"}[kind == "image" || kind == "expand"], kind)
 		}
 	}
 }
@@ -254,9 +268,14 @@ func (r Requirement) validateCommon(bad func(string, ...any)) {
 		bad("wavelength %g nm is outside 150-20000 nm", l)
 	}
 	switch r.Prefer {
-	case Balanced, PreferDraw, PreferShort, PreferCheap:
+	case Balanced, PreferDraw, PreferShort, PreferCheap, PreferSharp:
 	default:
-		bad("unknown preference %q: use drawer, short or cheap", r.Prefer)
+		bad("unknown preference %q: use drawer, short, cheap or sharp", r.Prefer)
+	}
+	for _, b := range r.Band {
+		if !(b >= 150 && b <= 20000) {
+			bad("band wavelength %g nm is outside 150-20000 nm", b)
+		}
 	}
 	if r.LengthMax > 0 && r.LengthMax <= r.GapMin && r.MaxElements() == 2 && r.Kind == Expand {
 		bad("the length maximum %g mm leaves no room for two parts %g mm apart", r.LengthMax, r.GapMin)

@@ -2,6 +2,7 @@ package search
 
 import (
 	"encoding/json"
+	"reflect"
 	"strings"
 	"testing"
 )
@@ -45,6 +46,16 @@ func TestRequirementValidate(t *testing.T) {
 		{"negative top", focus(func(r *Requirement) { r.Top = -1 }), "--top"},
 		{"wavelength out of range", focus(func(r *Requirement) { r.Wavelength = 50 }), "outside 150-20000"},
 		{"form on a focus", focus(func(r *Requirement) { r.Form = Galilean }), "apply to --expand only"},
+		{"sharp", focus(func(r *Requirement) {
+			r.Prefer, r.Beam, r.FieldAngle, r.Band = PreferSharp, 5, 2, []float64{486.1, 656.3}
+		}), ""},
+		{"field angle of 90 degrees", focus(func(r *Requirement) { r.FieldAngle = 90 }), "not below 90"},
+		{"negative field angle", focus(func(r *Requirement) { r.FieldAngle = -1 }), "field angle is negative"},
+		{"field angle on an image", image(func(r *Requirement) { r.FieldAngle = 2 }), "give --object-height"},
+		{"band on an expander", func() Requirement { r := expandReq(3); r.Band = []float64{500, 600}; return r }(), "first order only"},
+		{"band out of range", focus(func(r *Requirement) { r.Band = []float64{100, 600} }), "band wavelength 100 nm"},
+		{"negative power", focus(func(r *Requirement) { r.Power = -1 }), "power is negative"},
+		{"power on an image", image(func(r *Requirement) { r.Power = 0.01 }), ""},
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
@@ -98,6 +109,7 @@ func TestParseTolerance(t *testing.T) {
 func TestReadSpecRoundTrip(t *testing.T) {
 	r := imageReq(250, -0.25)
 	r.MagTol, r.NA, r.ObjectHeight, r.Supplier, r.Prefer = Tolerance{Value: 0.01}, 0.05, 4, "DEMO", PreferShort
+	r.Band, r.Power = []float64{486.1, 587.6, 656.3}, 0.2
 	b, err := json.Marshal(r)
 	if err != nil {
 		t.Fatal(err)
@@ -107,7 +119,7 @@ func TestReadSpecRoundTrip(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		if got != r {
+		if !reflect.DeepEqual(got, r) {
 			t.Errorf("%s: read %+v, want %+v", name, got, r)
 		}
 	}

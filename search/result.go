@@ -1,6 +1,7 @@
 package search
 
 import (
+	"encoding/json"
 	"fmt"
 	"math"
 	"strings"
@@ -51,9 +52,26 @@ type Result struct {
 	InDrawer bool     `json:"in_drawer"`
 	Score    float64  `json:"score"`
 	Reason   string   `json:"reason"`
-	// Quality holds real-ray image-quality figures by name (unit in the
-	// name), filled by a later step; empty from the paraxial search.
-	Quality map[string]float64 `json:"quality,omitempty"`
+	// ImageQuality holds the real-ray figures (quality.go), its keys
+	// inline in the JSON; nil when real rays were not traced.
+	*ImageQuality
+	// Quality is the same figures by JSON key, for pages that list them;
+	// filled with ImageQuality, also when a result is read back from JSON.
+	Quality map[string]float64 `json:"-"`
+}
+
+// UnmarshalJSON reads a result and fills Quality from its figures.
+func (r *Result) UnmarshalJSON(b []byte) error {
+	type plain Result // the same fields, without this method
+	var p plain
+	if err := json.Unmarshal(b, &p); err != nil {
+		return err
+	}
+	*r = Result(p)
+	if r.ImageQuality != nil {
+		r.Quality = r.ImageQuality.Figures()
+	}
+	return nil
 }
 
 // result turns a layout into a Result.

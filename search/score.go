@@ -12,19 +12,37 @@ import (
 //	+ Elements * (number of parts - 1)
 //	+ Price * sum over pieces of price / median catalog price (unknown price counts as the median)
 //	+ Drawer * share of the pieces not available from the drawer
+//	+ Quality * sharpness term                    (only when real rays are traced, see below)
 //
-// Lower is better. Each term is a sum over the parts of something that can
-// only grow, which is what lets the search bound the score of the pairs it
-// has not evaluated (see prune.go).
+// Lower is better. The first five terms are each a sum over the parts of
+// something that can only grow, which is what lets the search bound the
+// score of the pairs it has not evaluated (see prune.go).
+//
+// The quality term is added by the real-ray stage (quality.go) to the
+// survivors of the first-order ranking. With A the Airy radius, s the RMS
+// spot radius at best focus on axis (and, where a field is given, at the
+// field edge on the same plane) and c the RMS blur of the focal shift over
+// the band, each field point counts
+//
+//	log2( sqrt(A^2 + s^2 + c^2) / A )
+//
+// and the term is their mean: 0 for a perfect image, about 0.04 for a
+// spot a third of the Airy radius, 1 when the blur is twice the Airy
+// radius, and one more for every further doubling. So halving the blur is
+// worth as much as a full tolerance of first-order error or one reference
+// length of envelope.
 type Weights struct {
 	Error, Envelope, Elements, Price, Drawer float64
+	Quality                                  float64
 }
 
 // WeightsFor returns the weights of a preference: the balanced default, or
 // one term made three times as heavy.
 func WeightsFor(p Prefer) Weights {
-	w := Weights{Error: 1, Envelope: 1, Elements: 0.5, Price: 0.5, Drawer: 0.5}
+	w := Weights{Error: 1, Envelope: 1, Elements: 0.5, Price: 0.5, Drawer: 0.5, Quality: 1}
 	switch p {
+	case PreferSharp:
+		w.Quality *= 3
 	case PreferDraw:
 		w.Drawer *= 3
 	case PreferShort:

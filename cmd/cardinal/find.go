@@ -4,7 +4,7 @@ import (
 	"context"
 	"encoding/json"
 	"fmt"
-
+	"path/filepath"
 	"strings"
 
 	"github.com/spf13/cobra"
@@ -12,6 +12,7 @@ import (
 
 	"cardinal/catalog"
 	"cardinal/search"
+	"cardinal/search/export"
 )
 
 // findOptions are the flags of `cardinal find`, bound as given; Req is the
@@ -30,6 +31,8 @@ type findOptions struct {
 	Elements, Top                  int
 	Supplier, Prefer, Spec, Format string
 	DrawerOnly                     bool
+	FieldAngle, Power              float64
+	Band                           []float64
 
 	Req search.Requirement
 }
@@ -60,10 +63,17 @@ ranked by a score (error against tolerance, envelope, number of parts, price,
 parts in the drawer; --prefer shifts it). Every run is saved; its id is
 printed on stderr.
 
-Paraxial results: check real-ray figures before you build.`,
+With an aperture (--beam for focus, --na for image) the best first-order
+layouts (3 x --top, at least 30) are traced with real rays at the wavelength
+and ranked by image quality too: RMS spot at best focus on axis and at the
+field edge (--field-angle, --object-height) against the Airy radius, and the
+focal shift over --band. Each row shows the spot, the Airy radius and whether
+the wavefront is diffraction limited (0.07 waves RMS, Marechal). Expanders
+are ranked on first order only.`,
 		Example: `  cardinal find --efl 75 --efl-tol 1% --beam 6 --bfd-min 40 --wavelength 1064
   cardinal find --track 300 --mag -0.36 --mag-tol 2% --object-height 5 --na 0.02 --wd-min 60 --bfd-min 15
   cardinal find --expand 5 --expand-tol 2% --beam 2 --galilean --length-max 150
+  cardinal find --efl 100 --beam 10 --field-angle 1 --band 486.1,587.6,656.3 --prefer sharp
   cardinal find --spec relay.json --top 3 --format json`,
 		Args: cobra.NoArgs,
 		RunE: func(c *cobra.Command, _ []string) error {
@@ -81,6 +91,9 @@ Paraxial results: check real-ray figures before you build.`,
 	f.Float64Var(&opts.Beam, "beam", 0, "collimated input beam diameter, mm (checks ray heights)")
 	f.Float64Var(&opts.BFDMin, "bfd-min", 0, "least back clearance, last vertex to the focal or image plane, mm")
 	f.Float64Var(&opts.Wavelength, "wavelength", 587.5618, "wavelength, nm")
+	f.Float64Var(&opts.Power, "power", 0, "laser power, W (brings the laser cautions)")
+	f.Float64Var(&opts.FieldAngle, "field-angle", 0, "focus: field edge for the real-ray spot, degrees")
+	f.Float64SliceVar(&opts.Band, "band", nil, "wavelengths for the focal shift, nm, e.g. 486.1,587.6,656.3 (default: none, no colour figure)")
 	f.Float64Var(&opts.Track, "track", 0, "image: object plane to image plane, mm")
 	f.Float64Var(&opts.Mag, "mag", 0, "image: signed magnification (-0.5: inverted, half size)")
 	f.StringVar(&opts.MagTol, "mag-tol", "1%", "magnification tolerance: percent (2%) or absolute (0.01)")
@@ -98,7 +111,7 @@ Paraxial results: check real-ray figures before you build.`,
 	f.StringVar(&opts.Supplier, "supplier", "", "only parts of this supplier")
 	f.BoolVar(&opts.DrawerOnly, "drawer-only", false, "only parts in the drawer")
 	f.IntVar(&opts.Top, "top", search.DefaultTop, "results to show (0: all that meet the requirement)")
-	f.StringVar(&opts.Prefer, "prefer", "", "rank weight to raise: drawer, short or cheap")
+	f.StringVar(&opts.Prefer, "prefer", "", "rank weight to raise: drawer, short, cheap or sharp (image quality)")
 	f.StringVar(&opts.Spec, "spec", "", "JSON requirement file; flags given override it")
 	f.StringVar(&opts.Format, "format", "table", "output format: table, json, csv or md")
 	return cmd
@@ -139,11 +152,13 @@ func (o *findOptions) apply(req *search.Requirement) error {
 	floats := map[string]*float64{"efl": &req.EFL, "beam": &req.Beam, "bfd-min": &req.BFDMin,
 		"wavelength": &req.Wavelength, "track": &req.Track, "mag": &req.Mag,
 		"object-height": &req.ObjectHeight, "na": &req.NA, "wd-min": &req.WDMin, "expand": &req.Expansion,
-		"length-max": &req.LengthMax, "diameter-max": &req.DiameterMax, "gap-min": &req.GapMin}
+		"length-max": &req.LengthMax, "diameter-max": &req.DiameterMax, "gap-min": &req.GapMin,
+		"power": &req.Power, "field-angle": &req.FieldAngle}
 	values := map[string]float64{"efl": o.EFL, "beam": o.Beam, "bfd-min": o.BFDMin,
 		"wavelength": o.Wavelength, "track": o.Track, "mag": o.Mag,
 		"object-height": o.ObjectHeight, "na": o.NA, "wd-min": o.WDMin, "expand": o.Expand,
-		"length-max": o.LengthMax, "diameter-max": o.DiameterMax, "gap-min": o.GapMin}
+		"length-max": o.LengthMax, "diameter-max": o.DiameterMax, "gap-min": o.GapMin,
+		"power": o.Power, "field-angle": o.FieldAngle}
 	for name, p := range floats {
 		if set(name) {
 			*p = values[name]
@@ -205,6 +220,9 @@ func (o *findOptions) applyRest(req *search.Requirement, set func(string) bool) 
 	if set("prefer") {
 		req.Prefer = search.Prefer(o.Prefer)
 	}
+	if set("band") {
+		req.Band = o.Band
+	}
 	switch {
 	case o.Galilean && o.Keplerian:
 		return usageErrorf("--galilean and --keplerian exclude each other: give one, or neither to accept both forms")
@@ -243,7 +261,7 @@ func runFind(o *findOptions) error {
 		return usageErrorf("%v", err)
 	}
 	doc := findOutput{Requirement: out.Requirement, Results: out.Results, Why: out.Why, Misses: out.Misses,
-		Notes: append(append([]string(nil), out.Notes...), cautions(o.Req)...)}
+		Notes: append(append([]string(nil), out.Notes...), export.Cautions(o.Req)...)}
 	if err := saveSearch(ctx, st, e, doc); err != nil {
 		return err
 	}
@@ -281,38 +299,31 @@ func saveSearch(ctx context.Context, st *catalog.Store, e *env, doc findOutput) 
 	if err != nil {
 		return catalogError(err)
 	}
-	if st.Path() == catalog.Memory {
+	switch {
+	case st.Path() == catalog.Memory:
 		fmt.Fprintf(e.Err, "saved as search %d in the built-in demo catalog, which is not kept after this run\n", id)
-		return nil
+	case isKeptDemo(st.Path()):
+		fmt.Fprintf(e.Err, "saved as search %d (in the demo catalog, until you import your own)\n", id)
+	default:
+		fmt.Fprintf(e.Err, "saved as search %d\n", id)
 	}
-	fmt.Fprintf(e.Err, "saved as search %d\n", id)
 	return nil
 }
 
-// laserCaution is printed whenever a requirement mentions a laser.
-const laserCaution = "caution: focused laser beams and ghost foci can burn skin, eyes and parts; " +
-	"check coatings and damage thresholds; follow your local laser safety rules and your laser safety officer"
-
-// cautions are the safety lines of a requirement: for a laser, the
-// general caution, and for a Keplerian expander its internal focus.
-func cautions(req search.Requirement) []string {
-	if !req.Laser() {
-		return nil
-	}
-	c := []string{laserCaution}
-	if req.Kind == search.Expand && req.Form != search.Galilean {
-		c = append(c, "caution: a Keplerian expander brings the beam to a focus between its parts; mind the damage threshold and air breakdown there")
-	}
-	return c
+// isKeptDemo tells whether path is the demo catalog kept in a file
+// (db.go, openDemo).
+func isKeptDemo(path string) bool {
+	return filepath.Base(path) == "demo-"+catalog.DemoVersion()+".db"
 }
 
-// printCautions writes the notes and the safety cautions on stderr.
+// printCautions writes the notes and the safety cautions (export.Cautions,
+// the one text of them) on stderr.
 func printCautions(e *env, req search.Requirement, out search.Outcome) {
 	for _, n := range out.Notes {
 		fmt.Fprintln(e.Err, "note:", n)
 	}
-	for _, c := range cautions(req) {
-		fmt.Fprintln(e.Err, c)
+	for _, c := range export.Cautions(req) {
+		fmt.Fprintln(e.Err, "caution:", c)
 	}
 }
 

@@ -9,17 +9,77 @@ import (
 )
 
 // resultGrid lays results out for a terminal: short columns, parts as
-// SUPPLIER:PART with "(rev)" when turned around.
+// SUPPLIER:PART with "(rev)" when turned around, and the real-ray figures
+// where any result has them.
 func resultGrid(req search.Requirement, rs []search.Result) grid {
 	target := map[search.Kind]string{search.Focus: "EFL", search.Image: "mag", search.Expand: "expansion"}[req.Kind]
-	g := grid{Header: []string{"#", "parts", "wd", "gap", "back", "envelope", "track", target, "error", "checks", "price", "drawer", "why"}}
+	qc := qualityColumnsOf(rs)
+	g := grid{Header: []string{"#", "parts", "wd", "gap", "back", "envelope", "track", target, "error"}}
+	g.Header = append(append(g.Header, qc.header()...), "checks", "price", "drawer", "why")
 	for _, r := range rs {
-		g.Rows = append(g.Rows, []string{
+		row := []string{
 			fmt.Sprint(r.Rank), partsCell(r.Parts), findMM(r.WorkingDistance), findMM(r.Gap), findMM(r.BackClearance),
-			fixed(r.Envelope, 2), findMM(r.Track), targetCell(req, r), errorCell(req, r), checksCell(r),
-			priceCell(r), yesNo(r.InDrawer), r.Reason})
+			fixed(r.Envelope, 2), findMM(r.Track), targetCell(req, r), errorCell(req, r)}
+		row = append(append(row, qc.cells(r.ImageQuality)...), checksCell(r), priceCell(r), yesNo(r.InDrawer), r.Reason)
+		g.Rows = append(g.Rows, row)
 	}
 	return g
+}
+
+// qualityColumns says which real-ray columns a table has: none when no
+// result was traced; the edge spot and the focal shift only where given.
+type qualityColumns struct{ any, edge, colour bool }
+
+func qualityColumnsOf(rs []search.Result) qualityColumns {
+	var qc qualityColumns
+	for _, r := range rs {
+		if q := r.ImageQuality; q != nil {
+			qc.any = true
+			qc.edge = qc.edge || q.RMSSpotEdge != nil
+			qc.colour = qc.colour || q.FocalShift != nil
+		}
+	}
+	return qc
+}
+
+func (qc qualityColumns) header() []string {
+	if !qc.any {
+		return nil
+	}
+	spot := "spot um"
+	if qc.edge {
+		spot = "spot um axis/edge"
+	}
+	h := []string{spot, "airy um", "diffr. limited"}
+	if qc.colour {
+		h = append(h, "focal shift um")
+	}
+	return h
+}
+
+// cells are the real-ray figures of one result, "-" where it was not
+// traced: RMS spots at best focus, the Airy radius, the Marechal verdict
+// and the focal shift over the band.
+func (qc qualityColumns) cells(q *search.ImageQuality) []string {
+	if !qc.any {
+		return nil
+	}
+	c := []string{"-", "-", "-"}
+	if qc.colour {
+		c = append(c, "-")
+	}
+	if q == nil {
+		return c
+	}
+	c[0] = fixed(q.RMSSpot, 1)
+	if q.RMSSpotEdge != nil {
+		c[0] += " / " + fixed(*q.RMSSpotEdge, 1)
+	}
+	c[1], c[2] = fixed(q.AiryRadius, 1), yesNo(q.DiffractionLimited)
+	if qc.colour && q.FocalShift != nil {
+		c[3] = fixed(*q.FocalShift, 0)
+	}
+	return c
 }
 
 func partsCell(ps []search.PartUse) string {

@@ -5,6 +5,7 @@ import (
 	"encoding/json"
 	"os"
 	"path/filepath"
+	"slices"
 	"strings"
 	"testing"
 
@@ -86,6 +87,18 @@ func TestFindFlags(t *testing.T) {
 		{"erect image from one part", []string{"--track", "300", "--mag", "0.5", "--elements", "1"}, nil, "needs two elements"},
 		{"expander of one part", []string{"--expand", "3", "--elements", "1"}, nil, "needs two elements"},
 		{"unknown preference", []string{"--efl", "50", "--prefer", "pretty"}, nil, "unknown preference"},
+		{"real-ray flags", []string{"--efl", "100", "--beam", "10", "--field-angle", "1.5", "--band", "486.1,587.6", "--band", "656.3", "--prefer", "sharp", "--power", "0.2"},
+			func(r search.Requirement) bool {
+				return r.FieldAngle == 1.5 && slices.Equal(r.Band, []float64{486.1, 587.6, 656.3}) && r.Prefer == search.PreferSharp && r.Power == 0.2 && r.TracesRays()
+			}, ""},
+		{"spec band kept without the flag", []string{"--spec", writeSpec(t, `{"kind": "focus", "efl_mm": 50, "beam_mm": 5, "band_nm": [500, 600]}`)},
+			func(r search.Requirement) bool { return slices.Equal(r.Band, []float64{500, 600}) }, ""},
+		{"band not a number", []string{"--efl", "50", "--band", "blue"}, nil, "invalid argument"},
+		{"band out of range", []string{"--efl", "50", "--band", "100,500"}, nil, "band wavelength 100 nm"},
+		{"field angle on an image", []string{"--track", "300", "--mag", "-1", "--field-angle", "2"}, nil, "give --object-height"},
+		{"field angle of 90", []string{"--efl", "50", "--field-angle", "90"}, nil, "not below 90"},
+		{"negative power", []string{"--efl", "50", "--power", "-1"}, nil, "power is negative"},
+		{"band on an expander", []string{"--expand", "3", "--band", "500,600"}, nil, "first order only"},
 		{"unknown format", []string{"--efl", "50", "--format", "xml"}, nil, `unknown --format "xml"`},
 	}
 	for _, tc := range tests {
@@ -154,6 +167,16 @@ func TestRunFind(t *testing.T) {
 			nil, []string{"laser safety officer"}, nil},
 		{"no part strong enough", []string{"--track", "20", "--mag", "-1", "--elements", "1"}, exitNoResult,
 			nil, []string{"no part is strong enough for a 20 mm track"}, nil},
+		{"no aperture: quality not judged, in one line", []string{"--efl", "75"}, 0,
+			nil, []string{"note: image quality not judged: give --beam (focus) or --na (image) to trace real rays\n"}, []string{"real rays traced"}},
+		{"a beam traces real rays", []string{"--efl", "75", "--beam", "6", "--top", "3"}, 0,
+			[]string{"spot um", "airy um", "diffr. limited"}, []string{"real rays traced at 587.5618 nm through the 30 best", "no colour figure"}, []string{"caution"}},
+		{"a band gives the focal shift", []string{"--efl", "75", "--beam", "6", "--top", "3", "--band", "486.1,587.6,656.3", "--field-angle", "1"}, 0,
+			[]string{"spot um axis/edge", "focal shift um"}, nil, []string{"no colour figure"}},
+		{"power brings the laser cautions", []string{"--efl", "75", "--beam", "6", "--power", "0.01"}, 0,
+			nil, []string{"caution: Focused laser beams", "laser safety officer"}, nil},
+		{"an expander is ranked on first order only", []string{"--expand", "3", "--expand-tol", "3%", "--beam", "2"}, 0,
+			nil, []string{"expanders are ranked on first order only"}, []string{"real rays traced"}},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
@@ -230,6 +253,84 @@ func TestFindJSON(t *testing.T) {
 	}
 }
 
+// The real-ray figures are in each result under the keys issue 5 names,
+// the edge spot only with a field and the focal shift only with a band;
+// the diffraction-limited verdict is Marechal's 0.07 waves RMS (common
+// practice) and the rows come best score first.
+func TestFindQualityJSON(t *testing.T) {
+	tests := []struct {
+		name        string
+		args        []string
+		edge, shift bool
+	}{
+		{"focus on axis", []string{"--efl", "75", "--beam", "6"}, false, false},
+		{"focus with field and band", []string{"--efl", "75", "--beam", "6", "--field-angle", "1", "--band", "486.1,587.6,656.3"}, true, true},
+		{"image with object height", []string{"--track", "300", "--mag", "-0.36", "--mag-tol", "2%", "--object-height", "5", "--na", "0.02"}, true, false},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			out, errs, code := findRun(t, filepath.Join(t.TempDir(), "none.db"), append(tc.args, "--top", "4", "--format", "json")...)
+			if code != 0 {
+				t.Fatalf("exit %d: %s", code, errs)
+			}
+			var doc struct {
+				Results []map[string]any `json:"results"`
+			}
+			if err := json.Unmarshal([]byte(out), &doc); err != nil {
+				t.Fatal(err)
+			}
+			if len(doc.Results) != 4 {
+				t.Fatalf("%d results", len(doc.Results))
+			}
+			for i, r := range doc.Results {
+				for _, k := range []string{"rms_spot_um", "airy_radius_um", "wavefront_rms_waves", "diffraction_limited", "best_focus_shift_mm"} {
+					if _, ok := r[k]; !ok {
+						t.Fatalf("result %d lacks %q: %v", i+1, k, r)
+					}
+				}
+				_, edge := r["rms_spot_edge_um"]
+				_, shift := r["focal_shift_um"]
+				if edge != tc.edge || shift != tc.shift {
+					t.Errorf("result %d: edge spot %v (want %v), focal shift %v (want %v)", i+1, edge, tc.edge, shift, tc.shift)
+				}
+				if r["diffraction_limited"] != (r["wavefront_rms_waves"].(float64) <= 0.07) {
+					t.Errorf("result %d: %v waves RMS, diffraction limited %v", i+1, r["wavefront_rms_waves"], r["diffraction_limited"])
+				}
+				if i > 0 && r["score"].(float64) < doc.Results[i-1]["score"].(float64) {
+					t.Errorf("result %d scores below result %d", i+1, i)
+				}
+			}
+		})
+	}
+}
+
+// In a fresh HOME with no catalog, a search runs on the demo catalog kept
+// beside where the catalog would be, says so, and a purchase request can
+// be made from it afterwards.
+func TestFindThenRequestOnDemo(t *testing.T) {
+	home := t.TempDir()
+	run := func(args ...string) (string, string, error) {
+		e, out, errb := testEnv()
+		e.Getenv = func(k string) string { return map[string]string{"HOME": home}[k] }
+		root := newRootCmd(e)
+		root.SetArgs(args)
+		err := root.Execute()
+		return out.String(), errb.String(), err
+	}
+	_, errs, err := run("find", "--efl", "75", "--beam", "6", "--top", "3")
+	if err != nil || !strings.Contains(errs, "saved as search 1 (in the demo catalog, until you import your own)") {
+		t.Fatalf("find: %v\n%s", err, errs)
+	}
+	out, errs, err := run("request", "last", "--pick", "1")
+	if err != nil || !strings.Contains(out, "search: 1") {
+		t.Fatalf("request: %v\nstdout %s\nstderr %s", err, out, errs)
+	}
+	_, errs, err = run("request", "9", "--pick", "1")
+	if err == nil || !strings.Contains(err.Error(), "saved in it, until you import your own") {
+		t.Errorf("request of a search never run: %v", err)
+	}
+}
+
 // A run is saved in the user's catalog and can be read back as "last".
 func TestFindSaves(t *testing.T) {
 	path := filepath.Join(t.TempDir(), "catalog.db")
@@ -288,6 +389,8 @@ func TestFindGolden(t *testing.T) {
 		{"focus-table", []string{"--efl", "75", "--beam", "6", "--bfd-min", "40", "--wavelength", "1064", "--top", "5"}, 0},
 		{"relay-spec-md", []string{"--spec", "../../testdata/find/relay.json", "--format", "md"}, 0},
 		{"expand-json", []string{"--expand", "5", "--expand-tol", "2%", "--beam", "2", "--galilean", "--length-max", "150", "--top", "2", "--format", "json"}, 0},
+		{"focus-quality-json", []string{"--efl", "100", "--beam", "10", "--field-angle", "1", "--band", "486.1,587.6,656.3", "--elements", "1", "--efl-tol", "3%", "--top", "2", "--format", "json"}, 0},
+		{"focus-sharp-table", []string{"--efl", "100", "--beam", "10", "--band", "486.1,587.6,656.3", "--prefer", "sharp", "--top", "4"}, 0},
 		{"no-result", []string{"--efl", "75", "--length-max", "0.8"}, exitNoResult},
 	}
 	for _, tc := range tests {

@@ -17,6 +17,7 @@ import (
 	"cardinal"
 	"cardinal/importers"
 	"cardinal/optics"
+	"cardinal/search"
 )
 
 // inspectOptions are the flags of `cardinal inspect`. The zero value is not
@@ -35,6 +36,9 @@ type inspectOptions struct {
 	Wavelength          float64 // nm
 	MediumIn, MediumOut string  // glass names of object and image space
 	Format              string
+	// Rays are the real-ray settings (inspect_quality.go); zero traces
+	// nothing.
+	Rays rayOptions
 }
 
 func init() {
@@ -55,11 +59,23 @@ Front points are measured from the first vertex, back points from the last
 vertex, both in mm and positive toward the image (light travels left to
 right). Parts named as arguments come from your catalog (or the built-in demo
 catalog until you have one). Without --file or arguments the built-in demo
-lenses (invented parts) are used.`,
+lenses (invented parts) are used.
+
+With --beam (a collimated beam, object at infinity) or --na (an object at a
+finite distance) each part is also traced with real rays: RMS spot at best
+focus on axis and at the field edge (--field-angle with --beam,
+--object-height with --na), Airy radius, RMS wavefront error and whether it
+is diffraction limited (0.07 waves RMS, Marechal), focal shift over --band,
+and the best focus from the paraxial image. With --na the object sits
+--object-distance mm in front of the first vertex; without it, where the
+part images it at -1x (twice the focal length before the front principal
+point), the symmetric finite conjugate, which needs no further choice.`,
 		Example: `  cardinal inspect
   cardinal inspect DEMO:PCX-50 --reverse
   cardinal inspect --file lenses.csv --part DEMO:PCX-50 --reverse --wavelength 632.8 --format json
-  cardinal inspect --file lenses.csv --medium-in water`,
+  cardinal inspect --file lenses.csv --medium-in water
+  cardinal inspect DEMO:PCX-50 --beam 10 --field-angle 1 --band 486.1,587.6,656.3
+  cardinal inspect DEMO:PCX-50 --na 0.05 --object-distance 120 --format json`,
 		Args: cobra.ArbitraryArgs,
 		RunE: func(c *cobra.Command, args []string) error {
 			opts.CatalogParts, opts.db = args, dbFlag(c)
@@ -77,6 +93,7 @@ lenses (invented parts) are used.`,
 	f.StringVar(&opts.MediumIn, "medium-in", "air", "medium of object space: air, a glass name or a six-digit glass code")
 	f.StringVar(&opts.MediumOut, "medium-out", "air", "medium of image space")
 	f.StringVar(&opts.Format, "format", "table", "output format: table, json, csv or md")
+	opts.Rays.flags(f)
 	return cmd
 }
 
@@ -90,7 +107,7 @@ func (o *inspectOptions) validate() error {
 	if !(o.Wavelength > 0) || math.IsInf(o.Wavelength, 0) {
 		return usageErrorf("--wavelength %g: give a wavelength in nm, such as 587.5618 (the d line) or 632.8", o.Wavelength)
 	}
-	return nil
+	return o.Rays.validate()
 }
 
 func runInspect(o *inspectOptions) error {
@@ -113,10 +130,12 @@ func runInspect(o *inspectOptions) error {
 	results := make([]inspection, len(entries))
 	for i, e := range entries {
 		results[i] = inspect(e, o.Reverse, o.Wavelength, in, out)
+		o.Rays.judge(&results[i], e, o.Reverse, o.Wavelength, in, out)
 		for _, w := range results[i].Warnings {
 			fmt.Fprintf(o.env.Err, "cardinal: warning: %s: %s\n", results[i].id(), w)
 		}
 	}
+	o.Rays.printCautions(o.env, o.Wavelength)
 	return writeInspections(o.env.Out, o.Format, results)
 }
 
@@ -301,11 +320,15 @@ type inspection struct {
 	AntiNodalPrimeMm     *float64 `json:"antinodal_prime_mm"`
 	EdgeThicknessMm      float64  `json:"edge_thickness_mm"`
 	Warnings             []string `json:"warnings"`
-	description          string
-	diameter             float64
-	card                 optics.Cardinal
-	media                []optics.Medium // object space, each gap, image space
-	indices              []float64
+	// ImageQuality holds the real-ray figures, its keys inline; nil
+	// unless --beam or --na is given and the part can be traced.
+	*search.ImageQuality
+	rays        *rayNote // the real-ray setting, nil when none is asked
+	description string
+	diameter    float64
+	card        optics.Cardinal
+	media       []optics.Medium // object space, each gap, image space
+	indices     []float64
 }
 
 func (r inspection) id() string { return r.Supplier + ":" + r.Part }
@@ -376,7 +399,11 @@ func inspectionTitle(r inspection) string {
 	if r.description != "" {
 		t += ": " + r.description
 	}
-	return fmt.Sprintf("%s\nat %s nm, object space %s, image space %s", t, formatNm(r.WavelengthNm), r.media[0].Name(), r.media[len(r.media)-1].Name())
+	t = fmt.Sprintf("%s\nat %s nm, object space %s, image space %s", t, formatNm(r.WavelengthNm), r.media[0].Name(), r.media[len(r.media)-1].Name())
+	if r.rays != nil {
+		t += "\n" + r.rays.text
+	}
+	return t
 }
 
 // figureGrid is the vertical layout of one part for people.
@@ -416,6 +443,7 @@ func figureGrid(r inspection) grid {
 		}
 		add(where, fixed(r.indices[i], 6), m.Name())
 	}
+	g.Rows = append(g.Rows, qualityRows(r)...)
 	return g
 }
 
@@ -425,6 +453,10 @@ func inspectionGrid(rs []inspection) grid {
 	g := grid{Header: []string{"supplier", "part", "reversed", "wavelength_nm", "length_mm", "efl_mm", "f_front_mm", "f_back_mm",
 		"ffd_mm", "bfd_mm", "focal_mm", "focal_prime_mm", "principal_mm", "principal_prime_mm", "nodal_mm", "nodal_prime_mm",
 		"antiprincipal_mm", "antiprincipal_prime_mm", "antinodal_mm", "antinodal_prime_mm", "edge_thickness_mm", "warnings"}}
+	rays := len(rs) > 0 && rs[0].rays != nil
+	if rays {
+		g.Header = append(g.Header, qualityKeys...)
+	}
 	num := func(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
 	opt := func(p *float64) string {
 		if p == nil {
@@ -439,7 +471,11 @@ func inspectionGrid(rs []inspection) grid {
 			r.AntiNodalMm, r.AntiNodalPrimeMm} {
 			row = append(row, opt(p))
 		}
-		g.Rows = append(g.Rows, append(row, num(r.EdgeThicknessMm), strings.Join(r.Warnings, "; ")))
+		row = append(row, num(r.EdgeThicknessMm), strings.Join(r.Warnings, "; "))
+		if rays {
+			row = append(row, qualityCells(r.ImageQuality)...)
+		}
+		g.Rows = append(g.Rows, row)
 	}
 	return g
 }

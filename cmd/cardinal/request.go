@@ -169,7 +169,7 @@ func loadSaved(e *env, db, ref string, picks []int) (*savedSearch, error) {
 	ss, err := st.LoadSearch(ctx, ref)
 	var nf *catalog.NotFoundError
 	if errors.As(err, &nf) {
-		return nil, notFoundErrorf("no saved search %q in %s: run 'cardinal find ...' first (the built-in demo catalog keeps no searches; import a catalog to keep them)", ref, st.Path())
+		return nil, notFoundErrorf("no saved search %q in %s: run 'cardinal find ...' first (a search run on the demo catalog is saved in it, until you import your own)", ref, st.Path())
 	}
 	if err != nil {
 		return nil, catalogError(err)

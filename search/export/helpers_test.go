@@ -79,6 +79,7 @@ func solve(t *testing.T, req search.Requirement) []Solution {
 func testRequirements() map[string]search.Requirement {
 	focus := search.Defaults()
 	focus.Kind, focus.EFL, focus.Beam, focus.Top = search.Focus, 75, 8, 3
+	focus.Power = 0.5 // a laser: brings the cautions (search.Requirement.Laser)
 	image := search.Defaults()
 	image.Kind, image.Track, image.Mag, image.NA, image.ObjectHeight, image.Top = search.Image, 300, -1, 0.02, 3, 3
 	image.MagTol = search.Tolerance{Value: 2, Percent: true}

@@ -65,7 +65,7 @@ func TestReportIsSelfContained(t *testing.T) {
 	}
 }
 
-// A laser requirement (a beam) brings the laser cautions; an imaging
+// A laser requirement (a power) brings the laser cautions; an imaging
 // requirement in the visible without a beam does not.
 func TestReportCautions(t *testing.T) {
 	laser := testReport(t, testRequirements()["focus"])

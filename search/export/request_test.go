@@ -185,7 +185,7 @@ func TestBuildRequestErrors(t *testing.T) {
 	}
 }
 
-// Cautions follow search.Requirement.Laser: a beam, or a wavelength outside
+// Cautions follow search.Requirement.Laser: a power, or a wavelength outside
 // the visible (400-700 nm, common practice), brings the laser cautions.
 func TestCautions(t *testing.T) {
 	tests := []struct {
@@ -194,11 +194,12 @@ func TestCautions(t *testing.T) {
 		want int
 	}{
 		{"visible imaging, no beam", search.Requirement{Kind: search.Image, Wavelength: 550}, 0},
-		{"beam", search.Requirement{Kind: search.Focus, Beam: 3}, len(LaserCautions)},
+		{"visible beam, no power", search.Requirement{Kind: search.Focus, Beam: 3, Wavelength: 632.8}, 0},
+		{"beam with a power", search.Requirement{Kind: search.Focus, Beam: 3, Power: 0.005}, len(LaserCautions)},
 		{"near infrared", search.Requirement{Kind: search.Image, Wavelength: 1064}, len(LaserCautions)},
 		{"ultraviolet", search.Requirement{Kind: search.Focus, Wavelength: 355}, len(LaserCautions)},
-		{"expander of any form", search.Requirement{Kind: search.Expand, Beam: 2}, len(LaserCautions) + 1},
-		{"Galilean expander", search.Requirement{Kind: search.Expand, Beam: 2, Form: search.Galilean}, len(LaserCautions)},
+		{"expander of any form", search.Requirement{Kind: search.Expand, Beam: 2, Power: 1}, len(LaserCautions) + 1},
+		{"Galilean expander", search.Requirement{Kind: search.Expand, Beam: 2, Power: 1, Form: search.Galilean}, len(LaserCautions)},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {

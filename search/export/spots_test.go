@@ -131,7 +131,7 @@ func TestDefaultWavelengths(t *testing.T) {
 		name string
 		req  search.Requirement
 		want int
-	}{{"visible, no laser", search.Requirement{Kind: search.Image}, 3}, {"laser", search.Requirement{Kind: search.Focus, Beam: 2}, 1}} {
+	}{{"visible, no laser", search.Requirement{Kind: search.Image}, 3}, {"laser", search.Requirement{Kind: search.Focus, Beam: 2, Power: 0.1}, 1}} {
 		t.Run(tc.name, func(t *testing.T) {
 			if got := DefaultWavelengths(Solution{Requirement: tc.req}); len(got) != tc.want {
 				t.Errorf("%v", got)

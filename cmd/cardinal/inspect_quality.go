@@ -1,0 +1,200 @@
+package main
+
+import (
+	"fmt"
+	"math"
+	"strconv"
+
+	"github.com/spf13/pflag"
+
+	"cardinal/importers"
+	"cardinal/optics"
+	"cardinal/search"
+	"cardinal/search/export"
+)
+
+// rayOptions are the real-ray flags of `cardinal inspect`. The zero value
+// traces nothing.
+type rayOptions struct {
+	Beam, NA       float64   // collimated beam diameter, mm; object-space NA
+	ObjectDistance float64   // object plane in front of the first vertex, mm (--na); 0: the -1x conjugate
+	ObjectHeight   float64   // field edge for --na, mm
+	FieldAngle     float64   // field edge for --beam, degrees
+	Band           []float64 // nm; none: no colour figure
+	Power          float64   // W, for the laser cautions
+}
+
+func (ro *rayOptions) flags(f *pflag.FlagSet) {
+	f.Float64Var(&ro.Beam, "beam", 0, "trace real rays: collimated beam diameter, mm (object at infinity)")
+	f.Float64Var(&ro.NA, "na", 0, "trace real rays: object-space numerical aperture (finite object)")
+	f.Float64Var(&ro.ObjectDistance, "object-distance", 0, "with --na: object plane to first vertex, mm (default: the -1x conjugate)")
+	f.Float64Var(&ro.ObjectHeight, "object-height", 0, "with --na: field edge, object height in mm")
+	f.Float64Var(&ro.FieldAngle, "field-angle", 0, "with --beam: field edge, degrees")
+	f.Float64SliceVar(&ro.Band, "band", nil, "wavelengths for the focal shift, nm, e.g. 486.1,587.6,656.3 (default: none)")
+	f.Float64Var(&ro.Power, "power", 0, "with --beam: laser power, W (brings the laser cautions)")
+}
+
+func (ro rayOptions) traces() bool { return ro.Beam > 0 || ro.NA > 0 }
+
+// validate checks the real-ray flags against each other.
+func (ro rayOptions) validate() error {
+	for name, v := range map[string]float64{"--beam": ro.Beam, "--na": ro.NA, "--object-distance": ro.ObjectDistance,
+		"--object-height": ro.ObjectHeight, "--field-angle": ro.FieldAngle, "--power": ro.Power} {
+		if !(v >= 0) || math.IsInf(v, 0) {
+			return usageErrorf("%s %g: give a positive number", name, v)
+		}
+	}
+	for _, b := range ro.Band {
+		if !(b >= 150 && b <= 20000) {
+			return usageErrorf("--band: %g nm is outside 150-20000 nm", b)
+		}
+	}
+	switch {
+	case ro.Beam > 0 && ro.NA > 0:
+		return usageErrorf("give --beam (object at infinity) or --na (finite object), not both")
+	case !ro.traces() && (ro.ObjectDistance > 0 || ro.ObjectHeight > 0 || ro.FieldAngle > 0 || len(ro.Band) > 0 || ro.Power > 0):
+		return usageErrorf("--object-distance, --object-height, --field-angle, --band and --power go with --beam or --na, which trace real rays")
+	case ro.Beam > 0 && (ro.ObjectDistance > 0 || ro.ObjectHeight > 0):
+		return usageErrorf("--beam puts the object at infinity: its field is --field-angle, and --object-distance and --object-height go with --na")
+	case ro.NA > 0 && (ro.FieldAngle > 0 || ro.Power > 0):
+		return usageErrorf("--na is for a finite object: its field is --object-height; --field-angle and --power go with --beam")
+	case ro.FieldAngle >= 90:
+		return usageErrorf("--field-angle %g: give an angle below 90 degrees", ro.FieldAngle)
+	}
+	return nil
+}
+
+// rayNote is the real-ray setting of one part, in words for the title.
+type rayNote struct{ text string }
+
+// judge traces the part (turned around when reverse) and fills the
+// inspection's figures, or adds a warning saying why it cannot be traced.
+func (ro rayOptions) judge(r *inspection, e importers.Entry, reverse bool, wl float64, in, out optics.Medium) {
+	if !ro.traces() {
+		return
+	}
+	p := e.Part
+	if reverse {
+		p = p.Reversed()
+	}
+	sys := p.System(in, out)
+	c, text, err := ro.conditions(sys.Cardinal(wl), wl)
+	r.rays = &rayNote{text: text}
+	if err == nil {
+		var q optics.Quality
+		if q, err = sys.Assess(c); err == nil {
+			iq := search.NewImageQuality(q, c.Field != 0, c.Band)
+			r.ImageQuality = &iq
+			r.Warnings = append(r.Warnings, q.Warnings...)
+			return
+		}
+	}
+	r.Warnings = append(r.Warnings, "real rays not traced: "+err.Error())
+}
+
+// conditions are the real-ray conditions for a part with cardinal points
+// c, with the setting in words. The image plane is the paraxial image,
+// which must be real (behind the last vertex).
+func (ro rayOptions) conditions(c optics.Cardinal, wl float64) (optics.Conditions, string, error) {
+	cond := optics.Conditions{Reference: wl, Band: ro.Band}
+	if c.Afocal {
+		return cond, "real rays: none (afocal)", fmt.Errorf("an afocal part has no focus to judge")
+	}
+	var text string
+	if ro.Beam > 0 {
+		cond.Object = optics.Object{Z: math.Inf(-1), Aperture: optics.Aperture{Beam: ro.Beam}}
+		cond.Field = ro.FieldAngle
+		text = fmt.Sprintf("real rays: %s mm collimated beam", num(ro.Beam))
+		if ro.FieldAngle > 0 {
+			text += fmt.Sprintf(", field edge %s deg", num(ro.FieldAngle))
+		}
+	} else {
+		z, how := -ro.ObjectDistance, ""
+		if ro.ObjectDistance == 0 {
+			var st optics.ConjugateStatus
+			z, _, st = c.ForMagnification(-1)
+			how = " (the -1x conjugate)"
+			if st != optics.Solved || !(z < 0) {
+				return cond, "real rays: NA " + num(ro.NA), fmt.Errorf("no real object images at -1x (EFL %.2f mm); give --object-distance", c.EFL)
+			}
+		}
+		cond.Object = optics.Object{Z: z, Aperture: optics.Aperture{NA: ro.NA}}
+		cond.Field = ro.ObjectHeight
+		text = fmt.Sprintf("real rays: NA %s, object %.3f mm in front of the first vertex%s", num(ro.NA), -z, how)
+		if ro.ObjectHeight > 0 {
+			text += fmt.Sprintf(", object height %s mm", num(ro.ObjectHeight))
+		}
+	}
+	zi, _, st := c.Image(cond.Object.Z)
+	if st != optics.Solved || !(zi > 0) {
+		return cond, text, fmt.Errorf("the image is not real (paraxial image at %.3f mm from the last vertex); real-ray figures need a real focus", zi)
+	}
+	return cond, text + fmt.Sprintf("; image plane %.3f mm behind the last vertex", zi), nil
+}
+
+// printCautions writes the laser cautions (export.Cautions, the one text
+// of them) when the beam is a laser: a power given or a wavelength outside
+// the visible.
+func (ro rayOptions) printCautions(e *env, wl float64) {
+	if !ro.traces() {
+		return
+	}
+	req := search.Requirement{Kind: search.Focus, Beam: ro.Beam, Power: ro.Power, Wavelength: wl}
+	if ro.NA > 0 {
+		req = search.Requirement{Kind: search.Image, NA: ro.NA, Wavelength: wl}
+	}
+	for _, c := range export.Cautions(req) {
+		fmt.Fprintln(e.Err, "caution:", c)
+	}
+}
+
+func num(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
+
+// qualityKeys are the JSON keys of the real-ray figures, the CSV columns
+// too.
+var qualityKeys = []string{"rms_spot_um", "rms_spot_edge_um", "airy_radius_um", "wavefront_rms_waves",
+	"diffraction_limited", "focal_shift_um", "best_focus_shift_mm"}
+
+// qualityCells are the CSV cells of qualityKeys, empty where a figure does
+// not apply or the part was not traced.
+func qualityCells(q *search.ImageQuality) []string {
+	c := make([]string, len(qualityKeys))
+	if q == nil {
+		return c
+	}
+	opt := func(p *float64) string {
+		if p == nil {
+			return ""
+		}
+		return num(*p)
+	}
+	c[0], c[1], c[2], c[3] = num(q.RMSSpot), opt(q.RMSSpotEdge), num(q.AiryRadius), num(q.WavefrontRMS)
+	c[4], c[5], c[6] = strconv.FormatBool(q.DiffractionLimited), opt(q.FocalShift), num(q.BestFocusShift)
+	return c
+}
+
+// qualityRows are the table rows of the real-ray figures: none when no
+// rays were asked for, one line saying so when the part was not traced.
+func qualityRows(r inspection) [][]string {
+	if r.rays == nil {
+		return nil
+	}
+	q := r.ImageQuality
+	if q == nil {
+		return [][]string{{"real-ray figures", "-", "not traced (see warnings)"}}
+	}
+	rows := [][]string{{"RMS spot on axis, best focus", fixed(q.RMSSpot, 2), "um"}}
+	if q.RMSSpotEdge != nil {
+		rows = append(rows, []string{"RMS spot at the field edge, same plane", fixed(*q.RMSSpotEdge, 2), "um"})
+	}
+	rows = append(rows,
+		[]string{"Airy radius, 1.22 lambda / (2 NA')", fixed(q.AiryRadius, 2), "um"},
+		[]string{"wavefront error, RMS", fixed(q.WavefrontRMS, 4), "waves"},
+		[]string{"diffraction limited", yesNo(q.DiffractionLimited), "Marechal: 0.07 waves RMS or less"})
+	if q.FocalShift != nil {
+		rows = append(rows, []string{"focal shift over the band", fixed(*q.FocalShift, 1), "um"})
+	} else {
+		rows = append(rows, []string{"focal shift over the band", "-", "no --band: one wavelength gives no colour figure"})
+	}
+	return append(rows, []string{"best focus from the paraxial image", mm(q.BestFocusShift), "mm, + away from the part"})
+}

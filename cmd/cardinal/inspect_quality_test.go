@@ -1,0 +1,198 @@
+package main
+
+import (
+	"math"
+	"path/filepath"
+	"slices"
+	"strings"
+	"testing"
+
+	"cardinal/optics"
+)
+
+func TestInspectRayFlags(t *testing.T) {
+	tests := []struct {
+		name    string
+		args    []string
+		check   func(rayOptions) bool
+		errText string // part of the usage error, "" for none
+	}{
+		{"none by default", nil, func(r rayOptions) bool { return !r.traces() }, ""},
+		{"beam with field, band and power", []string{"--beam", "10", "--field-angle", "1", "--band", "486.1,587.6,656.3", "--power", "0.5"},
+			func(r rayOptions) bool {
+				return r.Beam == 10 && r.FieldAngle == 1 && slices.Equal(r.Band, []float64{486.1, 587.6, 656.3}) && r.Power == 0.5 && r.traces()
+			}, ""},
+		{"na with object distance and height", []string{"--na", "0.1", "--object-distance", "120", "--object-height", "2"},
+			func(r rayOptions) bool { return r.NA == 0.1 && r.ObjectDistance == 120 && r.ObjectHeight == 2 }, ""},
+		{"beam and na", []string{"--beam", "10", "--na", "0.1"}, nil, "not both"},
+		{"band without an aperture", []string{"--band", "500,600"}, nil, "go with --beam or --na"},
+		{"object distance with a beam", []string{"--beam", "10", "--object-distance", "100"}, nil, "go with --na"},
+		{"field angle with an NA", []string{"--na", "0.1", "--field-angle", "1"}, nil, "its field is --object-height"},
+		{"power with an NA", []string{"--na", "0.1", "--power", "1"}, nil, "go with --beam"},
+		{"field angle of 95", []string{"--beam", "5", "--field-angle", "95"}, nil, "below 90"},
+		{"negative beam", []string{"--beam", "-5"}, nil, "positive number"},
+		{"band out of range", []string{"--beam", "5", "--band", "50"}, nil, "outside 150-20000"},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			o, err := parseInspect(tc.args)
+			if tc.errText != "" {
+				if err == nil || !strings.Contains(err.Error(), tc.errText) || exitCode(err) != exitUsage {
+					t.Fatalf("got error %v (exit %d), want a usage error containing %q", err, exitCode(err), tc.errText)
+				}
+				return
+			}
+			if err != nil {
+				t.Fatal(err)
+			}
+			if !tc.check(o.Rays) {
+				t.Errorf("options %+v", o.Rays)
+			}
+		})
+	}
+}
+
+// Real-ray output for people and programs, against golden files (rewrite
+// with go test ./cmd/cardinal -run InspectRays -update and review the diff).
+func TestInspectRaysGolden(t *testing.T) {
+	band := []float64{optics.LineF, optics.LineD, optics.LineC}
+	tests := []struct {
+		name   string
+		mod    func(*inspectOptions)
+		golden string
+	}{
+		{"table with a beam", func(o *inspectOptions) {
+			o.Parts, o.Rays = []string{"TEST:PCX"}, rayOptions{Beam: 5, FieldAngle: 1, Band: band}
+		}, "table-beam"},
+		{"json with an NA at -1x", func(o *inspectOptions) {
+			o.Parts, o.Format, o.Rays = []string{"TEST:PCX"}, "json", rayOptions{NA: 0.05, ObjectHeight: 1}
+		}, "json-na"},
+		{"csv of a lens and a window", func(o *inspectOptions) {
+			o.Parts, o.Format, o.Rays = []string{"TEST:ACH", "TEST:WINDOW"}, "csv", rayOptions{Beam: 8, Band: band}
+		}, "csv-beam"},
+		{"md reversed at 1064 nm with a power", func(o *inspectOptions) {
+			o.Parts, o.Format, o.Reverse, o.Wavelength, o.Rays = []string{"TEST:PCX"}, "md", true, 1064, rayOptions{Beam: 5, Power: 0.2}
+		}, "md-laser"},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			e, out, errb := testEnv()
+			if err := runInspect(inspectOpts(e, tc.mod)); err != nil {
+				t.Fatal(err)
+			}
+			checkGolden(t, filepath.Join("..", "..", "testdata", "inspect", tc.golden+".golden"),
+				"-- stdout --\n"+out.String()+"-- stderr --\n"+errb.String())
+		})
+	}
+}
+
+// With --beam or --na the JSON gains the real-ray keys of issue 5 (the
+// edge spot only with a field, the focal shift only with a band); without
+// them it keeps exactly the keys of issue 2 (TestInspectJSONKeys).
+func TestInspectRaysJSON(t *testing.T) {
+	base := []string{"supplier", "part", "reversed", "wavelength_nm", "length_mm", "efl_mm", "f_front_mm", "f_back_mm", "ffd_mm", "bfd_mm",
+		"focal_mm", "focal_prime_mm", "principal_mm", "principal_prime_mm", "nodal_mm", "nodal_prime_mm",
+		"antiprincipal_mm", "antiprincipal_prime_mm", "antinodal_mm", "antinodal_prime_mm", "edge_thickness_mm", "warnings"}
+	always := []string{"rms_spot_um", "airy_radius_um", "wavefront_rms_waves", "diffraction_limited", "best_focus_shift_mm"}
+	tests := []struct {
+		name  string
+		rays  rayOptions
+		extra []string
+	}{
+		{"beam", rayOptions{Beam: 5}, always},
+		{"beam, field and band", rayOptions{Beam: 5, FieldAngle: 1, Band: []float64{486.1, 656.3}}, append([]string{"rms_spot_edge_um", "focal_shift_um"}, always...)},
+		{"na", rayOptions{NA: 0.05, ObjectDistance: 150}, always},
+		{"na and object height", rayOptions{NA: 0.05, ObjectHeight: 1}, append([]string{"rms_spot_edge_um"}, always...)},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			want := append(append([]string(nil), base...), tc.extra...)
+			slices.Sort(want)
+			for _, r := range inspectJSON(t, func(o *inspectOptions) { o.Parts, o.Rays = []string{"TEST:PCX", "TEST:ACH"}, tc.rays }) {
+				var keys []string
+				for k := range r {
+					keys = append(keys, k)
+				}
+				slices.Sort(keys)
+				if !slices.Equal(keys, want) {
+					t.Errorf("%v: keys %v, want %v", r["part"], keys, want)
+				}
+				if r["diffraction_limited"] != (r["wavefront_rms_waves"].(float64) <= 0.07) {
+					t.Errorf("%v: %v waves RMS, diffraction limited %v (Marechal, 0.07 waves RMS, common practice)", r["part"], r["wavefront_rms_waves"], r["diffraction_limited"])
+				}
+			}
+		})
+	}
+}
+
+// The figures against outside formulas: the Airy radius of a focus at
+// f-number N is 1.22 lambda N (Born and Wolf, Principles of Optics, 7th
+// ed., ch. 8), and the default object for --na sits where Newton's
+// equation x x' = -f^2 gives m = -1: x = -f before F, so at F - f
+// (Hecht, Optics, 5th ed., sec. 5.2.3).
+func TestInspectRaysAgainstFormulas(t *testing.T) {
+	rs := inspectJSON(t, func(o *inspectOptions) { o.Parts, o.Rays = []string{"TEST:PCX"}, rayOptions{Beam: 5} })
+	efl := rs[0]["efl_mm"].(float64)
+	want := 1.22 * optics.LineD * 1e-3 * efl / 5
+	if got := rs[0]["airy_radius_um"].(float64); math.Abs(got-want) > 0.01*want {
+		t.Errorf("Airy radius %.4f um, want 1.22 lambda N = %.4f um within 1%%", got, want)
+	}
+	e, _, _ := testEnv()
+	entries, err := loadInspectEntries(inspectOpts(e, nil), optics.BuiltinGlasses())
+	if err != nil {
+		t.Fatal(err)
+	}
+	pcx, err := selectParts(entries, []string{"TEST:PCX"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	c := pcx[0].Part.System(nil, nil).Cardinal(optics.LineD)
+	cond, text, err := rayOptions{NA: 0.05}.conditions(c, optics.LineD)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got, want := cond.Object.Z, c.F-c.EFL; math.Abs(got-want) > 1e-9 {
+		t.Errorf("object at %.6f mm, want F - f = %.6f mm", got, want)
+	}
+	if !strings.Contains(text, "(the -1x conjugate)") {
+		t.Errorf("setting %q", text)
+	}
+}
+
+// A part with no real focus is not traced, and says why; the laser
+// cautions come with a power or a wavelength outside the visible.
+func TestInspectRaysWarningsAndCautions(t *testing.T) {
+	tests := []struct {
+		name           string
+		mod            func(*inspectOptions)
+		stderr, stdout string
+		caution        bool
+	}{
+		{"afocal window", func(o *inspectOptions) { o.Parts, o.Rays = []string{"TEST:WINDOW"}, rayOptions{Beam: 5} },
+			"real rays not traced: an afocal part has no focus to judge", "not traced (see warnings)", false},
+		{"object inside the focal length", func(o *inspectOptions) {
+			o.Parts, o.Rays = []string{"TEST:PCX"}, rayOptions{NA: 0.05, ObjectDistance: 20}
+		}, "the image is not real", "not traced", false},
+		{"visible beam without a power", func(o *inspectOptions) { o.Parts, o.Rays = []string{"TEST:PCX"}, rayOptions{Beam: 5} },
+			"", "RMS spot on axis", false},
+		{"visible beam with a power", func(o *inspectOptions) { o.Parts, o.Rays = []string{"TEST:PCX"}, rayOptions{Beam: 5, Power: 1} },
+			"", "RMS spot on axis", true},
+		{"infrared object", func(o *inspectOptions) {
+			o.Parts, o.Wavelength, o.Rays = []string{"TEST:PCX"}, 1064, rayOptions{NA: 0.02}
+		}, "", "RMS spot on axis", true},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			e, out, errb := testEnv()
+			if err := runInspect(inspectOpts(e, tc.mod)); err != nil {
+				t.Fatal(err)
+			}
+			if !strings.Contains(errb.String(), tc.stderr) || !strings.Contains(out.String(), tc.stdout) {
+				t.Errorf("stdout %q lacks %q or stderr %q lacks %q", out.String(), tc.stdout, errb.String(), tc.stderr)
+			}
+			if got := strings.Contains(errb.String(), "caution: "); got != tc.caution {
+				t.Errorf("cautions shown %v, want %v:\n%s", got, tc.caution, errb.String())
+			}
+		})
+	}
+}
