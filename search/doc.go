@@ -4,6 +4,9 @@
 // orientations, solves singlets in closed form and pairs at the nominal
 // target (the spacing is solved, never scanned), checks mechanical
 // clearance and paraxial ray heights, and ranks what meets the requirement.
+// With an aperture (a beam for focus, an NA for image) the survivors of the
+// first-order ranking are traced with real rays and ranked by image quality
+// too (quality.go, score.go); expanders are ranked on first order only.
 //
 // Units and signs are those of package optics: millimetres, nanometres,
 // light travelling in +z, front positions from the first vertex and back
