@@ -93,7 +93,7 @@ are ranked on first order only.`,
 	f.Float64Var(&opts.Wavelength, "wavelength", 587.5618, "wavelength, nm")
 	f.Float64Var(&opts.Power, "power", 0, "laser power, W (brings the laser cautions)")
 	f.Float64Var(&opts.FieldAngle, "field-angle", 0, "focus: field edge for the real-ray spot, degrees")
-	f.Float64SliceVar(&opts.Band, "band", nil, "wavelengths for the focal shift, nm, e.g. 486.1,587.6,656.3 (default: none, no colour figure)")
+	f.Float64SliceVar(&opts.Band, "band", nil, "wavelengths for the focal shift, nm, e.g. 486.1,587.6,656.3; none gives no colour figure")
 	f.Float64Var(&opts.Track, "track", 0, "image: object plane to image plane, mm")
 	f.Float64Var(&opts.Mag, "mag", 0, "image: signed magnification (-0.5: inverted, half size)")
 	f.StringVar(&opts.MagTol, "mag-tol", "1%", "magnification tolerance: percent (2%) or absolute (0.01)")

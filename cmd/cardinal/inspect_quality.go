@@ -30,7 +30,7 @@ func (ro *rayOptions) flags(f *pflag.FlagSet) {
 	f.Float64Var(&ro.ObjectDistance, "object-distance", 0, "with --na: object plane to first vertex, mm (default: the -1x conjugate)")
 	f.Float64Var(&ro.ObjectHeight, "object-height", 0, "with --na: field edge, object height in mm")
 	f.Float64Var(&ro.FieldAngle, "field-angle", 0, "with --beam: field edge, degrees")
-	f.Float64SliceVar(&ro.Band, "band", nil, "wavelengths for the focal shift, nm, e.g. 486.1,587.6,656.3 (default: none)")
+	f.Float64SliceVar(&ro.Band, "band", nil, "wavelengths for the focal shift, nm, e.g. 486.1,587.6,656.3; none gives no colour figure")
 	f.Float64Var(&ro.Power, "power", 0, "with --beam: laser power, W (brings the laser cautions)")
 }
 
