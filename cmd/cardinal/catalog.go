@@ -32,28 +32,24 @@ Until you import a file, read commands show the built-in demo catalog.`,
 	})
 }
 
-// catalogImportOptions are the arguments of `catalog import`.
-type catalogImportOptions struct {
+// importOptions are the arguments of the three import commands
+// (catalog, glass and drawer).
+type importOptions struct {
 	env    *env
 	DB     string // --db; "" means CARDINAL_DB or the data directory
-	File   string // prescription CSV; "-" reads standard input
+	File   string // the CSV to read; "-" reads standard input
 	DryRun bool
 }
 
-func newCatalogImportCmd(e *env, run func(*catalogImportOptions) error) *cobra.Command {
-	o := &catalogImportOptions{env: e}
+// newImportCmd builds an `import FILE [--dry-run]` command.
+func newImportCmd(e *env, short, long, example string, run func(*importOptions) error) *cobra.Command {
+	o := &importOptions{env: e}
 	cmd := &cobra.Command{
-		Use:   "import FILE",
-		Short: "Add and update parts from a prescription CSV, all rows or none",
-		Long: `Read a prescription CSV (the neutral format: supplier, part, diameter, r1, r2,
-t1, glass1, ...) and store its parts. A file with any bad row changes nothing;
-every problem is listed with its line. Parts already in the catalog with the
-same supplier and part are updated when the row changed and left alone when
-not, so importing the same file twice changes nothing. Stated values that
-disagree with the prescription are kept as warnings.`,
-		Example: `  cardinal catalog import supplier-a.csv
-  cardinal catalog import supplier-a.csv --dry-run`,
-		Args: cobra.ExactArgs(1),
+		Use:     "import FILE",
+		Short:   short,
+		Long:    long,
+		Example: example,
+		Args:    cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			o.DB, o.File = dbFlag(cmd), args[0]
 			return run(o)
@@ -63,7 +59,18 @@ disagree with the prescription are kept as warnings.`,
 	return cmd
 }
 
-func runCatalogImport(o *catalogImportOptions) error {
+func newCatalogImportCmd(e *env, run func(*importOptions) error) *cobra.Command {
+	return newImportCmd(e, "Add and update parts from a prescription CSV, all rows or none", `Read a prescription CSV (the neutral format: supplier, part, diameter, r1, r2,
+t1, glass1, ...) and store its parts. A file with any bad row changes nothing;
+every problem is listed with its line. Parts already in the catalog with the
+same supplier and part are updated when the row changed and left alone when
+not, so importing the same file twice changes nothing. Stated values that
+disagree with the prescription are kept as warnings.`,
+		`  cardinal catalog import supplier-a.csv
+  cardinal catalog import supplier-a.csv --dry-run`, run)
+}
+
+func runCatalogImport(o *importOptions) error {
 	ctx := context.Background()
 	data, err := readInputFile(o.File, o.env)
 	if err != nil {

@@ -25,34 +25,14 @@ location. 'cardinal find --in-drawer' and 'catalog list --in-drawer' use it.`,
 	})
 }
 
-// drawerImportOptions are the arguments of `drawer import`.
-type drawerImportOptions struct {
-	env    *env
-	DB     string
-	File   string
-	DryRun bool
-}
-
-func newDrawerImportCmd(e *env, run func(*drawerImportOptions) error) *cobra.Command {
-	o := &drawerImportOptions{env: e}
-	cmd := &cobra.Command{
-		Use:   "import FILE",
-		Short: "Set quantities and locations from a drawer CSV (supplier, part, quantity, location)",
-		Long: `Read a drawer CSV (columns supplier, part, quantity, location) and set each
+func newDrawerImportCmd(e *env, run func(*importOptions) error) *cobra.Command {
+	return newImportCmd(e, "Set quantities and locations from a drawer CSV (supplier, part, quantity, location)", `Read a drawer CSV (columns supplier, part, quantity, location) and set each
 part's quantity and location. Every part must be in the catalog; a file with
 any bad row changes nothing. Parts the file does not name keep their entries.`,
-		Example: `  cardinal drawer import drawer.csv`,
-		Args:    cobra.ExactArgs(1),
-		RunE: func(cmd *cobra.Command, args []string) error {
-			o.DB, o.File = dbFlag(cmd), args[0]
-			return run(o)
-		},
-	}
-	cmd.Flags().BoolVar(&o.DryRun, "dry-run", false, "check the file and report what would change, changing nothing")
-	return cmd
+		`  cardinal drawer import drawer.csv`, run)
 }
 
-func runDrawerImport(o *drawerImportOptions) error {
+func runDrawerImport(o *importOptions) error {
 	data, err := readInputFile(o.File, o.env)
 	if err != nil {
 		return err

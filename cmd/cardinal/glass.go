@@ -29,32 +29,17 @@ recomputes every part made of it.`,
 	})
 }
 
-// glassImportOptions are the arguments of `glass import`.
-type glassImportOptions struct {
-	env    *env
-	DB     string
-	File   string
-	DryRun bool
+func newGlassImportCmd(e *env, run func(*importOptions) error) *cobra.Command {
+	return newImportCmd(e, "Add and update your glasses from a glass CSV, all rows or none",
+		`Read a glass CSV (columns name, formula, coefficients, min_nm, max_nm,
+source; formula sellmeier, cauchy, constant or abbe) and store the glasses.
+A file with any bad row changes nothing. A glass that changed recomputes
+every catalog part made of it, in the same transaction.`,
+		`  cardinal glass import my-glasses.csv
+  cardinal glass import my-glasses.csv --dry-run`, run)
 }
 
-func newGlassImportCmd(e *env, run func(*glassImportOptions) error) *cobra.Command {
-	o := &glassImportOptions{env: e}
-	cmd := &cobra.Command{
-		Use:   "import FILE",
-		Short: "Add and update your glasses from a glass CSV, all rows or none",
-		Example: `  cardinal glass import my-glasses.csv
-  cardinal glass import my-glasses.csv --dry-run`,
-		Args: cobra.ExactArgs(1),
-		RunE: func(cmd *cobra.Command, args []string) error {
-			o.DB, o.File = dbFlag(cmd), args[0]
-			return run(o)
-		},
-	}
-	cmd.Flags().BoolVar(&o.DryRun, "dry-run", false, "check the file and report what would change, changing nothing")
-	return cmd
-}
-
-func runGlassImport(o *glassImportOptions) error {
+func runGlassImport(o *importOptions) error {
 	data, err := readInputFile(o.File, o.env)
 	if err != nil {
 		return err

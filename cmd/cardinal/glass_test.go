@@ -10,8 +10,8 @@ import (
 
 func TestGlassFlags(t *testing.T) {
 	e, _, _ := storeEnv(t, nil)
-	var imp *glassImportOptions
-	if err := parseWith(newGlassImportCmd(e, func(o *glassImportOptions) error { imp = o; return nil }), "g.csv", "--dry-run"); err != nil || imp.File != "g.csv" || !imp.DryRun {
+	var imp *importOptions
+	if err := parseWith(newGlassImportCmd(e, func(o *importOptions) error { imp = o; return nil }), "g.csv", "--dry-run"); err != nil || imp.File != "g.csv" || !imp.DryRun {
 		t.Errorf("import g.csv --dry-run: %+v, %v", imp, err)
 	}
 	for _, tc := range []struct {
