@@ -10,7 +10,9 @@ import (
 )
 
 // DescribeRequirement says the requirement in one line of words, with its
-// units: what it asks and every limit that was given.
+// units: what it asks, every limit that was given, and the conditions of
+// the real-ray figures and the cautions (field angle, band, laser power)
+// when they were given.
 func DescribeRequirement(r search.Requirement) string {
 	var w []string
 	add := func(format string, a ...any) { w = append(w, fmt.Sprintf(format, a...)) }
@@ -39,6 +41,18 @@ func DescribeRequirement(r search.Requirement) string {
 	}
 	add("gap ≥ %s mm", num(r.GapMin))
 	add("wavelength %s nm", num(r.Lambda()))
+	if r.FieldAngle != 0 {
+		add("field angle %s°", num(r.FieldAngle))
+	}
+	if len(r.Band) > 0 {
+		add("band %s nm", numList(r.Band))
+	}
+	if r.Power != 0 {
+		add("laser power %s W", num(r.Power))
+	}
+	if r.Prefer != search.Balanced {
+		add("prefer %s", r.Prefer)
+	}
 	if r.MaxElements() == 1 {
 		add("single parts only")
 	}
@@ -92,3 +106,12 @@ func DescribeSpacings(kind search.Kind, r search.Result) string {
 
 // num prints a number as briefly as it was given.
 func num(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
+
+// numList prints numbers as briefly as given, separated by commas.
+func numList(vs []float64) string {
+	s := make([]string, len(vs))
+	for i, v := range vs {
+		s[i] = num(v)
+	}
+	return strings.Join(s, ", ")
+}
