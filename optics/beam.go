@@ -6,11 +6,6 @@ import (
 	"math/cmplx"
 )
 
-// LaserCaution is the sentence to print beside any figure about a focused
-// laser beam, a ghost focus or sunlight brought to a focus.
-const LaserCaution = "Caution: a focused laser beam, a ghost focus or focused sunlight can burn skin and blind in an instant; " +
-	"these figures are estimates for design, not for safety: follow your local rules and your laser safety officer."
-
 // A GaussianBeam is a fundamental-mode (TEM00) beam at one plane, held as
 // its complex beam parameter q = z + i zR: z the distance past the waist
 // (negative before it), zR the Rayleigh range, both in mm in a medium of
