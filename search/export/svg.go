@@ -19,6 +19,7 @@ const (
 	colourSystem   = "#a3247a" // cardinal points of the system, below the axis
 	colourDim      = "#333333"
 	colourFaint    = "#8a8a8a"
+	colourCaution  = "#8a2f0b"
 	profileSamples = 41 // points per surface profile; odd, so that the vertex is one
 )
 
@@ -40,14 +41,19 @@ func (sc *Scene) WriteSVG(w io.Writer, o DrawOptions) error {
 	width := sc.XMax - sc.XMin
 	d.fs = math.Min(math.Max(width/60, 1.2), 8)
 	d.sw = d.fs / 14
-	x0, x1 := sc.XMin-3*d.fs, sc.XMax+4*d.fs
-	top := sc.YMax + 5*d.fs
-	bottom := d.dimY(2) + 2.5*d.fs + float64(len(d.legend()))*1.5*d.fs
+	x0 := sc.XMin - 3*d.fs
+	x1 := math.Max(sc.XMax+4*d.fs, x0+legendIndent*d.fs+minLegendRunes*advance*legendSize*d.fs+d.fs)
+	title := wrapText(d.title(o), runesIn(x1-x0-2*d.fs, titleSize*d.fs))
+	legend := d.legendRows(runesIn(x1-x0-legendIndent*d.fs-d.fs, legendSize*d.fs))
+	top := sc.YMax + (5+1.4*float64(len(title)-1))*d.fs
+	bottom := d.dimY(2) + 2.5*d.fs + float64(len(legend))*1.5*d.fs
 	scale, note := printScale(x1 - x0)
 	fmt.Fprintf(&d.b, `<svg xmlns="http://www.w3.org/2000/svg" class="cardinal-layout" viewBox="%s %s %s %s" width="%smm" height="%smm" font-family="sans-serif" data-units="mm" data-print-scale="%s">`+"\n",
 		f4(x0), f4(-top), f4(x1-x0), f4(top+bottom), f4((x1-x0)/scale), f4((top+bottom)/scale), note)
 	fmt.Fprintf(&d.b, `<rect x="%s" y="%s" width="%s" height="%s" fill="#ffffff"/>`+"\n", f4(x0), f4(-top), f4(x1-x0), f4(top+bottom))
-	d.text(x0+d.fs, -top+1.5*d.fs, 1.1*d.fs, "start", "#000000", d.title(o))
+	for i, l := range title {
+		d.text(x0+d.fs, -top+(1.5+1.4*float64(i))*d.fs, titleSize*d.fs, "start", "#000000", l)
+	}
 	d.line("axis", x0, 0, x1, 0, colourFaint, d.sw, fmt.Sprintf(` stroke-dasharray="%s %s %s %s"`, f4(3*d.fs), f4(d.fs/2), f4(d.fs/2), f4(d.fs/2)))
 	d.parts()
 	d.planes()
@@ -55,7 +61,7 @@ func (sc *Scene) WriteSVG(w io.Writer, o DrawOptions) error {
 	d.marks()
 	d.dims()
 	d.scaleBar(x0, d.dimY(2)+1.5*d.fs)
-	d.writeLegend(x0, d.dimY(2)+3.2*d.fs)
+	d.writeLegend(legend, x0, d.dimY(2)+3.2*d.fs)
 	d.b.WriteString("</svg>\n")
 	_, err := w.Write(d.b.Bytes())
 	return err

@@ -10,7 +10,7 @@ import (
 // A legendLine is one line of the drawing's legend: a sample (a ray's
 // line, a mark's glyph, or nothing) and its words.
 type legendLine struct {
-	sample string // "marginal", "chief", "rim", "part", "system", ""
+	sample string // "marginal", "chief", "rim", "part", "system", "caution" (words in colour, no sample), ""
 	text   string
 }
 
@@ -45,10 +45,27 @@ func (d *svgDoc) legend() []legendLine {
 			ls = append(ls, legendLine{"", fmt.Sprintf("× a %s ray stops at surface %d: %v", r.Name, r.Surface+1, r.Status)})
 		}
 	}
-	if len(Cautions(sc.Solution.Requirement)) > 0 {
-		ls = append(ls, legendLine{"", "laser caution: focused beams and ghost foci from surface reflections can burn skin, eyes and parts; check coatings and damage thresholds; follow your laser safety rules and officer"})
+	ls = append(ls, legendLine{"", "z from the first vertex; lengths in mm"})
+	for _, c := range Cautions(sc.Solution.Requirement) {
+		ls = append(ls, legendLine{"caution", "laser caution: " + c})
 	}
-	return append(ls, legendLine{"", "z from the first vertex; lengths in mm"})
+	return ls
+}
+
+// legendRows wraps the legend's lines to n characters; a line's sample
+// goes with its first row only.
+func (d *svgDoc) legendRows(n int) []legendLine {
+	var rows []legendLine
+	for _, l := range d.legend() {
+		for i, t := range wrapText(l.text, n) {
+			sample := l.sample
+			if i > 0 && sample != "caution" {
+				sample = ""
+			}
+			rows = append(rows, legendLine{sample, t})
+		}
+	}
+	return rows
 }
 
 // offDrawing lists the cardinal points too far away to draw.
@@ -62,10 +79,10 @@ func offDrawing(ms []Mark) string {
 	return strings.Join(s, ", ")
 }
 
-// writeLegend draws the legend lines from (x, y) down.
-func (d *svgDoc) writeLegend(x, y float64) {
+// writeLegend draws the legend's rows from (x, y) down.
+func (d *svgDoc) writeLegend(rows []legendLine, x, y float64) {
 	x += d.fs
-	for i, l := range d.legend() {
+	for i, l := range rows {
 		yy := y + float64(i)*1.5*d.fs
 		s := 2.2 * d.fs
 		switch l.sample {
@@ -83,6 +100,10 @@ func (d *svgDoc) writeLegend(x, y float64) {
 			d.glyph(Mark{Kind: "F", Z: x + 0.5*d.fs}, colour, yy)
 			fmt.Fprintf(&d.b, `<rect x="%s" y="%s" width="%s" height="%s" fill="%s"/>`+"\n", f4(x+1.3*d.fs), f4(yy-0.6*d.fs), f4(d.sw*2.5), f4(1.2*d.fs), colour)
 		}
-		d.text(x+s+0.8*d.fs, yy+0.3*d.fs, 0.8*d.fs, "start", "#000000", l.text)
+		colour := "#000000"
+		if l.sample == "caution" {
+			colour = colourCaution
+		}
+		d.text(x+s+0.8*d.fs, yy+0.3*d.fs, legendSize*d.fs, "start", colour, l.text)
 	}
 }

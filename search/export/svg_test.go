@@ -211,23 +211,31 @@ func TestSVGViewBoxHoldsTheDrawing(t *testing.T) {
 	}
 }
 
-// A drawing for a laser requirement carries the caution in its legend; one
-// for visible imaging without a beam does not.
+// A drawing for a laser requirement carries the cautions in its legend,
+// word for word those of Cautions (the one text of them); one for visible
+// imaging without a beam does not.
 func TestSVGLaserCaution(t *testing.T) {
 	for kind, want := range map[string]bool{"focus": true, "image": false} {
 		t.Run(kind, func(t *testing.T) {
-			_, root := drawSVG(t, solve(t, testRequirements()[kind])[0])
-			var text strings.Builder
+			req := testRequirements()[kind]
+			_, root := drawSVG(t, solve(t, req)[0])
+			var words []string
 			var walk func(n svgNode)
 			walk = func(n svgNode) {
-				text.WriteString(n.Text)
+				words = append(words, strings.Fields(n.Text)...)
 				for _, c := range n.Children {
 					walk(c)
 				}
 			}
 			walk(root)
-			if got := strings.Contains(text.String(), "laser caution"); got != want {
+			text := strings.Join(words, " ") // the wrapped rows read as one text
+			if got := strings.Contains(text, "laser caution"); got != want {
 				t.Errorf("laser caution shown: %v, want %v", got, want)
+			}
+			for _, c := range Cautions(req) {
+				if !strings.Contains(text, "laser caution: "+c) {
+					t.Errorf("the legend lacks the caution %q", c)
+				}
 			}
 		})
 	}
