@@ -104,22 +104,26 @@ func (sc *Scene) vertices(sys optics.System) {
 }
 
 // DefaultField picks the chief ray's field when none is asked: the
-// requirement's object height, or one that keeps the chief ray near 0.3 of
-// the smallest clear semi-aperture (for illustration; given is false then).
-// The field is an object height in mm for a finite object, an angle in
-// degrees for an object at infinity.
+// requirement's object height (finite object) or field angle (object at
+// infinity), or one that keeps the chief ray near 0.3 of the smallest
+// clear semi-aperture (for illustration; given is false then). The field
+// is an object height in mm for a finite object, an angle in degrees for
+// an object at infinity.
 func DefaultField(s Solution, asked float64) (field float64, given bool) {
-	if asked != 0 {
+	atInfinity := math.IsInf(s.ObjectZ, -1)
+	switch {
+	case asked != 0:
 		return asked, true
-	}
-	if h := s.Requirement.ObjectHeight; h > 0 && !math.IsInf(s.ObjectZ, -1) {
-		return h, true
+	case !atInfinity && s.Requirement.ObjectHeight > 0:
+		return s.Requirement.ObjectHeight, true
+	case atInfinity && s.Requirement.FieldAngle > 0:
+		return s.Requirement.FieldAngle, true
 	}
 	a := math.Inf(1)
 	for _, p := range s.Parts {
 		a = math.Min(a, p.Aperture()/2)
 	}
-	if !math.IsInf(s.ObjectZ, -1) {
+	if !atInfinity {
 		return 0.3 * a, false
 	}
 	reach := s.Envelope()

@@ -164,3 +164,33 @@ func TestSolutionVerify(t *testing.T) {
 		t.Error("a thicker part went unnoticed")
 	}
 }
+
+// The chief ray's field: the one asked, else the requirement's own (object
+// height for a finite object, field angle for an object at infinity),
+// else one chosen for illustration.
+func TestDefaultField(t *testing.T) {
+	focus, image := testRequirements()["focus"], testRequirements()["image"]
+	fs, is := solve(t, focus)[0], solve(t, image)[0]
+	withAngle := fs
+	withAngle.Requirement.FieldAngle = 1.5
+	for _, tc := range []struct {
+		name      string
+		s         Solution
+		asked     float64
+		want      float64 // 0: chosen, any positive value
+		wantGiven bool
+	}{
+		{"asked", fs, 2, 2, true},
+		{"focus with a field angle", withAngle, 0, 1.5, true},
+		{"asked beats the requirement", withAngle, 0.5, 0.5, true},
+		{"focus without one", fs, 0, 0, false},
+		{"image: the object height", is, 0, image.ObjectHeight, true},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			got, given := DefaultField(tc.s, tc.asked)
+			if given != tc.wantGiven || (tc.want != 0 && got != tc.want) || !(got > 0) {
+				t.Errorf("field %v given %v, want %v given %v", got, given, tc.want, tc.wantGiven)
+			}
+		})
+	}
+}

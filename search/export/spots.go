@@ -8,9 +8,8 @@ import (
 )
 
 // PlotOptions say which spots and fans to compute. The zero value plots
-// the requirement's wavelength (with the F and C lines beside it when the
-// requirement mentions no laser), on axis, at 0.7 of the field and at the
-// field edge (the field as DefaultField picks it).
+// the wavelengths DefaultWavelengths picks, on axis, at 0.7 of the field
+// and at the field edge (the field as DefaultField picks it).
 type PlotOptions struct {
 	// Wavelengths in nm; the first is the reference. Empty: see above.
 	Wavelengths []float64
@@ -64,11 +63,21 @@ func (sp Spots) Unit() string {
 	return "µm"
 }
 
-// DefaultWavelengths is the requirement's wavelength alone for a laser,
-// else the d line's neighbours F and C beside it (the visible band).
+// DefaultWavelengths is the requirement's wavelength followed by its band
+// (search.Requirement.Band) when one was given; else the wavelength alone
+// for a laser, or with the F and C lines beside it (the visible band).
 func DefaultWavelengths(s Solution) []float64 {
 	wl := s.Wavelength()
-	if s.Requirement.Laser() {
+	switch {
+	case len(s.Requirement.Band) > 0:
+		out := []float64{wl}
+		for _, b := range s.Requirement.Band {
+			if math.Abs(b-wl) > 0.05 { // the reference is listed once
+				out = append(out, b)
+			}
+		}
+		return out
+	case s.Requirement.Laser():
 		return []float64{wl}
 	}
 	return []float64{wl, optics.LineF, optics.LineC}

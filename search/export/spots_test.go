@@ -5,6 +5,7 @@ import (
 	"encoding/xml"
 	"image/png"
 	"math"
+	"slices"
 	"testing"
 
 	"cardinal/optics"
@@ -126,15 +127,22 @@ func TestWritePlot(t *testing.T) {
 	}
 }
 
+// The plots' wavelengths: the requirement's first, then its band, or the
+// F and C lines (Fraunhofer lines, common practice) in the visible.
 func TestDefaultWavelengths(t *testing.T) {
 	for _, tc := range []struct {
 		name string
 		req  search.Requirement
-		want int
-	}{{"visible, no laser", search.Requirement{Kind: search.Image}, 3}, {"laser", search.Requirement{Kind: search.Focus, Beam: 2, Power: 0.1}, 1}} {
+		want []float64
+	}{
+		{"visible, no laser", search.Requirement{Kind: search.Image}, []float64{optics.LineD, optics.LineF, optics.LineC}},
+		{"laser", search.Requirement{Kind: search.Focus, Beam: 2, Power: 0.1}, []float64{optics.LineD}},
+		{"band holding the reference", search.Requirement{Kind: search.Focus, Band: []float64{486.1, 587.6, 656.3}}, []float64{optics.LineD, 486.1, 656.3}},
+		{"laser with a band", search.Requirement{Kind: search.Focus, Wavelength: 1064, Power: 1, Band: []float64{1030, 1064, 1090}}, []float64{1064, 1030, 1090}},
+	} {
 		t.Run(tc.name, func(t *testing.T) {
-			if got := DefaultWavelengths(Solution{Requirement: tc.req}); len(got) != tc.want {
-				t.Errorf("%v", got)
+			if got := DefaultWavelengths(Solution{Requirement: tc.req}); !slices.Equal(got, tc.want) {
+				t.Errorf("%v, want %v", got, tc.want)
 			}
 		})
 	}
