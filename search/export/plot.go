@@ -16,11 +16,11 @@ import (
 	"gonum.org/v1/plot/vg/vgsvg"
 )
 
-// Plot sizes: one row of three square panels per field point.
+// Plot sizes: a header, then one row of three square panels per field
+// point.
 const (
-	panel    = 2.8 * vg.Inch
-	titleGap = 0.95 * vg.Inch
-	plotDPI  = 110
+	panel   = 2.8 * vg.Inch
+	plotDPI = 110
 )
 
 // WritePlot draws the spot diagrams (left) and the meridional and
@@ -28,7 +28,9 @@ const (
 // wavelength in its own colour, with gonum.org/v1/plot, as "png" or "svg".
 func (sp Spots) WritePlot(w io.Writer, title, format string) error {
 	rows := len(sp.Fields)
-	width, height := 3*panel, vg.Length(rows)*panel+titleGap
+	width := 3 * panel
+	head := sp.newHeader(title, width)
+	height := vg.Length(rows)*panel + head.height
 	var c vg.CanvasWriterTo
 	switch format {
 	case "png":
@@ -49,13 +51,13 @@ func (sp Spots) WritePlot(w io.Writer, title, format string) error {
 		}
 	}
 	tiles := draw.Tiles{Rows: rows, Cols: 3, PadX: vg.Millimeter * 4, PadY: vg.Millimeter * 4,
-		PadTop: titleGap, PadBottom: vg.Millimeter * 2, PadLeft: vg.Millimeter * 2, PadRight: vg.Millimeter * 4}
+		PadTop: head.height, PadBottom: vg.Millimeter * 2, PadLeft: vg.Millimeter * 2, PadRight: vg.Millimeter * 4}
 	for i, row := range plot.Align(grid, tiles, dc) {
 		for j, cv := range row {
 			grid[i][j].Draw(cv)
 		}
 	}
-	sp.header(dc, title, width, height)
+	head.draw(dc, height)
 	_, err := c.WriteTo(w)
 	return err
 }
@@ -128,6 +130,8 @@ func (sp Spots) addSet(spot, mer, sag *plot.Plot, s SpotSet, k int) error {
 	return nil
 }
 
+// fieldName is the short name of field point i for a panel's title, with
+// its unit.
 func (sp Spots) fieldName(i int) string {
 	switch {
 	case i == 0:
@@ -175,40 +179,4 @@ func rmsList(sets []SpotSet) string {
 		s[i] = fmt.Sprintf("%.3g", set.RMS)
 	}
 	return strings.Join(s, " | ")
-}
-
-// header writes the title and, to its right, the key to the colours (one
-// per wavelength) and to the Airy circle.
-func (sp Spots) header(dc draw.Canvas, title string, width, height vg.Length) {
-	sty := plot.New().Title.TextStyle
-	sty.Font.Size = vg.Points(12)
-	sty.XAlign, sty.YAlign = draw.XLeft, draw.YTop
-	lines := []string{title, "spots relative to the chief ray at " + fmt.Sprintf("%.1f nm", sp.Wavelengths[0])}
-	if !sp.Angular {
-		lines = append(lines, fmt.Sprintf("image plane %.3f mm behind the last vertex", sp.ImageZ))
-	} else {
-		lines = append(lines, "afocal: output directions in µrad")
-	}
-	for i, l := range lines {
-		dc.FillText(sty, vg.Point{X: vg.Millimeter * 4, Y: height - vg.Millimeter*3 - vg.Length(i)*vg.Points(16)}, l)
-		sty.Font.Size = vg.Points(10)
-	}
-	key := plot.NewLegend()
-	key.Top = true
-	for k, wl := range sp.Wavelengths {
-		g, _ := plotter.NewScatter(plotter.XYs{{}})
-		g.GlyphStyle.Color, g.GlyphStyle.Shape = plotutil.Color(k), plotutil.Shape(k)
-		l, _ := plotter.NewLine(plotter.XYs{{}, {X: 1}})
-		l.Color = plotutil.Color(k)
-		key.Add(fmt.Sprintf("%.1f nm", wl), g, l)
-	}
-	if sp.Airy > 0 {
-		l, _ := plotter.NewLine(plotter.XYs{{}, {X: 1}})
-		l.Color, l.Dashes = color.Gray{Y: 90}, []vg.Length{vg.Points(3), vg.Points(2)}
-		key.Add(fmt.Sprintf("Airy radius %.3g %s", sp.Airy, sp.Unit()), l)
-	}
-	area := dc
-	area.Min = vg.Point{X: width * 0.62, Y: height - titleGap + vg.Millimeter*2}
-	area.Max = vg.Point{X: width - vg.Millimeter*4, Y: height - vg.Millimeter*2}
-	key.Draw(area)
 }
