@@ -143,8 +143,9 @@ func drawSpots(o *drawOptions, s export.Solution, title string) error {
 		w.Close()
 		return err
 	}
-	for _, set := range sp.Sets {
-		fmt.Fprintf(e.Err, "field %.4g, %.1f nm: RMS spot radius %.3g %s (%d rays, %d lost)\n", set.Field, set.Wavelength, set.RMS, sp.Unit(), set.Passed+set.Lost, set.Lost)
+	for k, set := range sp.Sets {
+		fmt.Fprintf(e.Err, "%s, %.1f nm: RMS spot radius %.3g %s (%d rays, %d lost)\n",
+			sp.FieldText(k/len(sp.Wavelengths)), set.Wavelength, set.RMS, sp.Unit(), set.Passed+set.Lost, set.Lost)
 	}
 	if sp.Airy > 0 {
 		fmt.Fprintf(e.Err, "Airy radius at %.1f nm: %.3g %s\n", sp.Wavelengths[0], sp.Airy, sp.Unit())

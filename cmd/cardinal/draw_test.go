@@ -142,7 +142,8 @@ func TestRunDrawSpot(t *testing.T) {
 			if code != 0 {
 				t.Fatalf("exit %d: %s", code, errs)
 			}
-			mustContain(t, errs, "RMS spot radius", "Airy radius", "caution: Focused laser beams")
+			mustContain(t, errs, "RMS spot radius", "Airy radius", "caution: Focused laser beams", "on axis, 1064.0 nm: RMS")
+			checkFieldUnits(t, errs, "field angle ", "°, ")
 			f, err := os.Open(file)
 			if err != nil {
 				t.Fatal(err)
@@ -159,4 +160,38 @@ func TestRunDrawSpot(t *testing.T) {
 			}
 		})
 	}
+}
+
+// checkFieldUnits checks that every RMS line on stderr names its field
+// with its unit: "on axis", or the prefix, a number and the unit.
+func checkFieldUnits(t *testing.T, errs, prefix, unit string) {
+	t.Helper()
+	n := 0
+	for _, l := range strings.Split(errs, "\n") {
+		if !strings.Contains(l, "RMS spot radius") || strings.HasPrefix(l, "on axis, ") {
+			continue
+		}
+		n++
+		rest, ok := strings.CutPrefix(l, prefix)
+		num, _, found := strings.Cut(rest, unit)
+		if _, err := strconv.ParseFloat(num, 64); !ok || !found || err != nil {
+			t.Errorf("the field of %q is not %q, a number and %q", l, prefix, unit)
+		}
+	}
+	if n == 0 {
+		t.Errorf("no RMS line off axis in %q", errs)
+	}
+}
+
+// The spots of an imaging search name their field as an object height in
+// mm, the requirement's own (5 mm).
+func TestRunDrawSpotObjectHeight(t *testing.T) {
+	db := savedCatalog(t)
+	file := filepath.Join(t.TempDir(), "spot.png")
+	_, errs, code := cmdRun(t, db, "draw", "2", "--pick", "1", "--spot", "-o", file)
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	mustContain(t, errs, "object height 5 mm, 587.6 nm: RMS")
+	checkFieldUnits(t, errs, "object height ", " mm, ")
 }

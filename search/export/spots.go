@@ -83,6 +83,24 @@ func DefaultWavelengths(s Solution) []float64 {
 	return []float64{wl, optics.LineF, optics.LineC}
 }
 
+// FieldText names field point i with its unit: "on axis", a field angle
+// in degrees (object at infinity) or an object height in mm.
+func (sp Spots) FieldText(i int) string {
+	if i == 0 {
+		return "on axis"
+	}
+	return fieldText(sp.AtInfinity, sp.Fields[i])
+}
+
+// fieldText names a field with its unit: an angle in degrees for an object
+// at infinity, else an object height in mm.
+func fieldText(atInfinity bool, field float64) string {
+	if atInfinity {
+		return fmt.Sprintf("field angle %.4g°", field)
+	}
+	return fmt.Sprintf("object height %.4g mm", field)
+}
+
 // NewSpots traces the spots and fans.
 func NewSpots(s Solution, o PlotOptions) (Spots, error) {
 	wls := o.Wavelengths
@@ -119,7 +137,7 @@ func chiefAt(sys optics.System, s Solution, field, wl float64) (optics.Path, err
 	}
 	p := sys.Tracer(wl).Trace(b.Rays[0], imagePlane(s))
 	if p.Status != optics.Passed {
-		return optics.Path{}, fmt.Errorf("spot diagram: the chief ray of field %.4g: %w", field, p.Err())
+		return optics.Path{}, fmt.Errorf("spot diagram: the chief ray at %s: %w", fieldText(math.IsInf(s.ObjectZ, -1), field), p.Err())
 	}
 	return p, nil
 }

@@ -147,3 +147,26 @@ func TestDefaultWavelengths(t *testing.T) {
 		})
 	}
 }
+
+// A field point is named with its unit: degrees for an object at
+// infinity, mm of object height for a finite object.
+func TestFieldText(t *testing.T) {
+	angles := Spots{AtInfinity: true, Fields: []float64{0, 0.7, 1}}
+	heights := Spots{Fields: []float64{0, 3.5, 5}}
+	for _, tc := range []struct {
+		name string
+		sp   Spots
+		i    int
+		want string
+	}{
+		{"axis", angles, 0, "on axis"},
+		{"angle", angles, 1, "field angle 0.7°"},
+		{"height", heights, 2, "object height 5 mm"},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			if got := tc.sp.FieldText(tc.i); got != tc.want {
+				t.Errorf("%q, want %q", got, tc.want)
+			}
+		})
+	}
+}
