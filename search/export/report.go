@@ -39,6 +39,7 @@ type reportPick struct {
 	Plot     template.URL  // PNG as a data URI
 	Spots    Spots
 	Quality  map[string]float64
+	Limited  string // the search's diffraction-limited verdict, yes or no; "" when not traced
 	Warnings []string
 }
 
@@ -52,6 +53,8 @@ type reportPage struct {
 	RequestRows     [][]string
 	RequestHeader   []string
 	RequestNotes    [][2]string
+	QualityColumns  qualityColumns
+	RankingNote     string
 }
 
 var reportFuncs = template.FuncMap{
@@ -61,7 +64,11 @@ var reportFuncs = template.FuncMap{
 	"target":   targetText,
 	"checks":   checksText,
 	"price":    priceText,
-	"yesno":    func(b bool) string { return map[bool]string{true: "yes", false: "no"}[b] },
+	"yesno":    yesNo,
+	"spot":     spotText,
+	"airy":     airyText,
+	"limited":  limitedText,
+	"shift":    shiftText,
 	"figure":   func(v float64) string { return fmt.Sprintf("%.3g", v) },
 	"rmsAt":    rmsAt,
 	"timefmt":  func(t time.Time) string { return t.UTC().Format("2006-01-02 15:04 UTC") },
@@ -77,7 +84,9 @@ var reportTmpl = template.Must(template.New("report").Funcs(reportFuncs).Parse(r
 // fetches nothing.
 func WriteReport(w io.Writer, in ReportInput) error {
 	page := reportPage{ReportInput: in, RequirementText: DescribeRequirement(in.Requirement), Picked: map[int]bool{},
-		Cautions: Cautions(in.Requirement), RequestRows: in.Request.Rows(), RequestHeader: RequestHeader, RequestNotes: in.Request.Notes()}
+		Cautions: Cautions(in.Requirement), RequestRows: in.Request.Rows(), RequestHeader: RequestHeader, RequestNotes: in.Request.Notes(),
+		QualityColumns: qualityColumnsOf(in.Results)}
+	page.RankingNote = rankingNote(in.Requirement, page.QualityColumns)
 	for _, s := range in.Picks {
 		p, err := pickPage(s, in)
 		if err != nil {
@@ -93,6 +102,9 @@ func WriteReport(w io.Writer, in ReportInput) error {
 func pickPage(s Solution, in ReportInput) (reportPick, error) {
 	p := reportPick{Rank: s.Result.Rank, Parts: DescribeParts(s.Result.Parts),
 		Spacings: DescribeSpacings(in.Requirement.Kind, s.Result), Quality: s.Result.Quality, Warnings: s.Verify()}
+	if s.Result.ImageQuality != nil {
+		p.Limited = yesNo(s.Result.DiffractionLimited)
+	}
 	sc, err := NewScene(s, in.Draw)
 	if err != nil {
 		return p, fmt.Errorf("solution %d: %w", p.Rank, err)

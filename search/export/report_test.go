@@ -2,7 +2,12 @@ package export
 
 import (
 	"bytes"
+	"fmt"
+	"html"
+	"math"
 	"regexp"
+	"slices"
+	"strconv"
 	"strings"
 	"testing"
 	"time"
@@ -12,6 +17,14 @@ import (
 
 // testReport writes a report for the first two results of a requirement.
 func testReport(t *testing.T, req search.Requirement) string {
+	t.Helper()
+	page, _ := testReportOf(t, req)
+	return page
+}
+
+// testReportOf writes a report for the first two results of a requirement
+// and returns it with all the results.
+func testReportOf(t *testing.T, req search.Requirement) (string, []search.Result) {
 	t.Helper()
 	sols := solve(t, req)
 	var results []search.Result
@@ -33,7 +46,7 @@ func testReport(t *testing.T, req search.Requirement) string {
 	if err != nil {
 		t.Fatal(err)
 	}
-	return b.String()
+	return b.String(), results
 }
 
 // The page fetches nothing: no external style sheet, script, import or
@@ -81,5 +94,107 @@ func TestReportCautions(t *testing.T) {
 	}
 	if !strings.Contains(plain, "Lenses concentrate light") {
 		t.Error("the general caution is missing")
+	}
+}
+
+// resultsTable reads the ranked table of a report: its header and rows of
+// cell texts.
+func resultsTable(t *testing.T, page string) ([]string, [][]string) {
+	t.Helper()
+	start := strings.Index(page, `<table class="results">`)
+	if start < 0 {
+		t.Fatal("the report has no ranked table")
+	}
+	table := page[start : start+strings.Index(page[start:], "</table>")]
+	cells := func(s, tag string) []string {
+		var out []string
+		for _, m := range regexp.MustCompile(`<`+tag+`[^>]*>(.*?)</`+tag+`>`).FindAllStringSubmatch(s, -1) {
+			out = append(out, html.UnescapeString(m[1]))
+		}
+		return out
+	}
+	head := cells(table, "th")
+	var rows [][]string
+	for _, r := range regexp.MustCompile(`(?s)<tr[^>]*>(.*?)</tr>`).FindAllStringSubmatch(table, -1)[1:] {
+		rows = append(rows, cells(r[1], "td"))
+	}
+	return head, rows
+}
+
+// The ranked table shows each result's real-ray figures: the RMS spot on
+// axis and at the field edge, the Airy radius, the diffraction-limited
+// verdict and, with a band, the focal shift; the note under it says the
+// ranking used them.
+func TestReportRankedTableQuality(t *testing.T) {
+	req := testRequirements()["focus"]
+	req.FieldAngle, req.Band = 1, []float64{486.1327, 587.5618, 656.2725}
+	page, results := testReportOf(t, req)
+	head, rows := resultsTable(t, page)
+	col := map[string]int{}
+	for _, h := range []string{"RMS spot µm axis / edge", "Airy µm", "diffraction limited", "focal shift µm"} {
+		if col[h] = slices.Index(head, h); col[h] < 0 {
+			t.Fatalf("the ranked table has no column %q: %q", h, head)
+		}
+	}
+	if len(rows) != len(results) {
+		t.Fatalf("%d rows, %d results", len(rows), len(results))
+	}
+	for i, r := range results {
+		q := r.ImageQuality
+		if q == nil || q.RMSSpotEdge == nil || q.FocalShift == nil {
+			t.Fatalf("result %d was not traced with a field and a band: %+v", r.Rank, q)
+		}
+		want := map[string]string{
+			"RMS spot µm axis / edge": fmt.Sprintf("%.1f / %.1f", q.RMSSpot, *q.RMSSpotEdge),
+			"diffraction limited":     map[bool]string{true: "yes", false: "no"}[q.DiffractionLimited],
+			"focal shift µm":          fmt.Sprintf("%.0f", *q.FocalShift),
+		}
+		for h, w := range want {
+			if got := rows[i][col[h]]; got != w {
+				t.Errorf("result %d, %s: %q, want %q", r.Rank, h, got, w)
+			}
+		}
+		// The Airy radius of a beam of diameter D focused at f is 1.22
+		// lambda f / D (Born and Wolf, Principles of Optics, 7th ed.,
+		// section 8.5.2); a real marginal ray's sine differs from D / 2f by
+		// well under 1 % at f/9.
+		airy, err := strconv.ParseFloat(rows[i][col["Airy µm"]], 64)
+		if wantAiry := 1.22 * req.Lambda() * 1e-3 * *r.EFL / req.Beam; err != nil || math.Abs(airy-wantAiry) > 0.02*wantAiry {
+			t.Errorf("result %d: Airy radius cell %q, want %.2f µm within 2 %%", r.Rank, rows[i][col["Airy µm"]], wantAiry)
+		}
+	}
+	note := page[strings.Index(page, `id="ranking-note"`):]
+	note = note[:strings.Index(note, "</p>")]
+	for _, w := range []string{"first-order score", "traced with real rays at 587.5618 nm", "focal shift over the band", "best focus"} {
+		if !strings.Contains(note, w) {
+			t.Errorf("the ranking note lacks %q: %s", w, note)
+		}
+	}
+	if strings.Contains(page, "The ranking is first order (paraxial") {
+		t.Error("the report still says the ranking is first order only")
+	}
+}
+
+// The ranking note follows what the search did: first order only for an
+// expander or without an aperture, real rays too with one.
+func TestRankingNote(t *testing.T) {
+	reqs := testRequirements()
+	noBeam := reqs["focus"]
+	noBeam.Beam = 0
+	for _, tc := range []struct {
+		name      string
+		req       search.Requirement
+		want, not string
+	}{
+		{"expander", reqs["expand"], "afocal and are ranked on first order only", "traced with real rays"},
+		{"no aperture", noBeam, "no aperture was given", "traced with real rays"},
+		{"image with an NA", reqs["image"], "traced with real rays", "first order only"},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			got := rankingNote(tc.req, qualityColumns{Any: tc.req.TracesRays()})
+			if !strings.Contains(got, tc.want) || strings.Contains(got, tc.not) {
+				t.Errorf("%q: want %q in it, not %q", got, tc.want, tc.not)
+			}
+		})
 	}
 }
