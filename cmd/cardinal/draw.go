@@ -47,9 +47,10 @@ With --spot: spot diagrams and meridional and sagittal ray fans on axis, at
 0.7 of the field and at the field edge, one colour per wavelength, as PNG or
 SVG (chosen by the -o file's extension; SVG on standard output).
 
-The field is the requirement's object height, or --field (object height in mm
-for a finite object, field angle in degrees for an object at infinity); without
-either a small field is chosen and the drawing says so.`,
+The field is --field (object height in mm for a finite object, field angle in
+degrees for an object at infinity), else the search's --object-height or
+--field-angle; without any a small field is chosen and the drawing says so.
+The RMS spot radius of each field point and wavelength is printed on stderr.`,
 		Example: `  cardinal draw last --pick 1 -o layout.svg
   cardinal draw last --pick 1 --spot -o spot.png
   cardinal draw 17 --pick 2 --spot --band 486.1,587.6,656.3 -o spot.svg`,
@@ -68,7 +69,7 @@ either a small field is chosen and the drawing says so.`,
 	f.BoolVar(&o.Force, "force", false, "overwrite the output file if it exists")
 	f.BoolVar(&o.Spot, "spot", false, "spot diagrams and ray fans instead of the layout")
 	f.Float64Var(&o.Field, "field", 0, "field edge: object height in mm, or field angle in degrees for an object at infinity")
-	f.StringSliceVar(&o.Band, "band", nil, "wavelengths in nm for --spot, the first the reference (default: the search's, with F and C in the visible)")
+	f.StringSliceVar(&o.Band, "band", nil, "wavelengths in nm for --spot, the first the reference (default: the search's wavelength and band; without a band F and C beside it in the visible)")
 	return cmd
 }
 

@@ -33,9 +33,10 @@ func newReportCmd(e *env, run func(*reportOptions) error) *cobra.Command {
 		Use:   "report SEARCH --pick N[,N...] -o FILE.html",
 		Short: "One self-contained printable HTML report of chosen results",
 		Long: `Write one HTML page about chosen results of a saved search (its number, or
-"last"): the requirement, the ranked results, for each chosen result its
-to-scale layout drawing, spot diagrams and ray fans with their RMS figures,
-then the purchase request and the cautions. The page is self-contained (styles
+"last"): the requirement, the ranked results (with their real-ray figures
+where the search traced them, and a note on what the ranking used), for each
+chosen result its to-scale layout drawing, spot diagrams and ray fans with
+their RMS figures, then the purchase request and the cautions. The page is self-contained (styles
 inline, drawings as inline SVG, plots as embedded PNG): it fetches nothing, so
 it can be mailed, archived with a lab notebook or printed.`,
 		Example: `  cardinal report last --pick 1,2 -o report.html
@@ -55,7 +56,7 @@ it can be mailed, archived with a lab notebook or printed.`,
 	f.StringVarP(&o.Output, "output", "o", "", "HTML file to write; standard output if absent")
 	f.BoolVar(&o.Force, "force", false, "overwrite the output file if it exists")
 	f.Float64Var(&o.Field, "field", 0, "field edge: object height in mm, or field angle in degrees for an object at infinity")
-	f.StringSliceVar(&o.Band, "band", nil, "wavelengths in nm for the spot diagrams, the first the reference")
+	f.StringSliceVar(&o.Band, "band", nil, "wavelengths in nm for the spot diagrams, the first the reference (default as for draw --spot)")
 	return cmd
 }
 
