@@ -16,10 +16,11 @@ const (
 	// minLegendRunes is the least number of characters a legend line
 	// holds; a drawing too narrow for it is widened (its scale unchanged).
 	minLegendRunes = 60
-	// advance is the width allowed per character, in ems: a little more
-	// than the mean advance of English prose in DejaVu Sans (about 0.5 em,
-	// measured in a browser by the test of this package), the widest of the
-	// usual sans-serif fonts, so that lines wrapped by it fit.
+	// advance is the width allowed per character, in ems: more than the
+	// mean advance of the legend's words in DejaVu Sans, a wide sans-serif
+	// font (about 0.45 em, measured on a headless-browser screenshot of a
+	// drawing), so that lines wrapped by it fit; TestSVGTextInsideTheDrawing
+	// checks that they do, in a real browser.
 	advance = 0.6
 )
 
