@@ -98,18 +98,11 @@ func (o *drawOptions) validate() error {
 
 func runDraw(o *drawOptions) error {
 	e := o.env
-	sv, err := loadSaved(e, o.db, o.Search, o.Picks)
-	if err != nil {
-		return err
-	}
-	sols, err := sv.solutions(e)
+	sv, sols, err := loadSolutions(e, o.db, o.Search, o.Picks)
 	if err != nil {
 		return err
 	}
 	s := sols[0]
-	for _, c := range export.Cautions(sv.Req) {
-		fmt.Fprintln(e.Err, "caution:", c)
-	}
 	title := fmt.Sprintf("Search %d, solution %d: %s", sv.ID, s.Result.Rank, export.DescribeParts(s.Result.Parts))
 	if o.Spot {
 		return drawSpots(o, s, title)

@@ -316,12 +316,18 @@ func isKeptDemo(path string) bool {
 	return filepath.Base(path) == "demo-"+catalog.DemoVersion()+".db"
 }
 
-// printCautions writes the notes and the safety cautions (export.Cautions,
-// the one text of them) on stderr.
+// printCautions writes the notes and the safety cautions on stderr.
 func printCautions(e *env, req search.Requirement, out search.Outcome) {
 	for _, n := range out.Notes {
 		fmt.Fprintln(e.Err, "note:", n)
 	}
+	writeCautions(e, req)
+}
+
+// writeCautions writes on stderr the safety cautions the requirement calls
+// for (export.Cautions, the one text of them): every command that prints
+// results for a laser requirement uses it.
+func writeCautions(e *env, req search.Requirement) {
 	for _, c := range export.Cautions(req) {
 		fmt.Fprintln(e.Err, "caution:", c)
 	}

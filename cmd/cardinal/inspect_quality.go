@@ -10,7 +10,6 @@ import (
 	"cardinal/importers"
 	"cardinal/optics"
 	"cardinal/search"
-	"cardinal/search/export"
 )
 
 // rayOptions are the real-ray flags of `cardinal inspect`. The zero value
@@ -143,9 +142,7 @@ func (ro rayOptions) printCautions(e *env, wl float64) {
 	if ro.NA > 0 {
 		req = search.Requirement{Kind: search.Image, NA: ro.NA, Wavelength: wl}
 	}
-	for _, c := range export.Cautions(req) {
-		fmt.Fprintln(e.Err, "caution:", c)
-	}
+	writeCautions(e, req)
 }
 
 func num(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }

@@ -74,20 +74,13 @@ func (o *reportOptions) validate() error {
 
 func runReport(o *reportOptions) error {
 	e := o.env
-	sv, err := loadSaved(e, o.db, o.Search, o.Picks)
-	if err != nil {
-		return err
-	}
-	sols, err := sv.solutions(e)
+	sv, sols, err := loadSolutions(e, o.db, o.Search, o.Picks)
 	if err != nil {
 		return err
 	}
 	rq, err := export.BuildRequest(sv.ID, sv.Req, sv.Picks, o.Qty, sv.stock())
 	if err != nil {
 		return usageErrorf("%v", err)
-	}
-	for _, c := range export.Cautions(sv.Req) {
-		fmt.Fprintln(e.Err, "caution:", c)
 	}
 	in := export.ReportInput{Search: sv.ID, SearchedAt: sv.At, GeneratedAt: e.Now(), Requirement: sv.Req,
 		Results: sv.Results, Picks: sols, Request: rq,

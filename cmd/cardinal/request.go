@@ -157,6 +157,22 @@ type savedSearch struct {
 	Drawer  map[string]importers.DrawerItem
 }
 
+// loadSolutions loads the saved search with its picked results rebuilt as
+// solutions from the catalog, and writes the cautions its requirement
+// calls for: what draw and report start from.
+func loadSolutions(e *env, db, ref string, picks []int) (*savedSearch, []export.Solution, error) {
+	sv, err := loadSaved(e, db, ref, picks)
+	if err != nil {
+		return nil, nil, err
+	}
+	sols, err := sv.solutions(e)
+	if err != nil {
+		return nil, nil, err
+	}
+	writeCautions(e, sv.Req)
+	return sv, sols, nil
+}
+
 // loadSaved reads the saved search ref, picks its results by rank and
 // reads their parts and the drawer from the catalog.
 func loadSaved(e *env, db, ref string, picks []int) (*savedSearch, error) {
