@@ -288,3 +288,21 @@ func qualityNotes(req Requirement, traced, met int, js []judgement) []string {
 }
 
 func formatG(v float64) string { return fmt.Sprintf("%g", v) }
+
+// QualityShown says which real-ray figures a list of results carries, so
+// that a table shows their columns: Any when some result was traced, Edge
+// when one has a field-edge spot, Colour when one has a focal shift.
+type QualityShown struct{ Any, Edge, Colour bool }
+
+// ShownQuality looks through the results for the figures they carry.
+func ShownQuality(rs []Result) QualityShown {
+	var qs QualityShown
+	for _, r := range rs {
+		if q := r.ImageQuality; q != nil {
+			qs.Any = true
+			qs.Edge = qs.Edge || q.RMSSpotEdge != nil
+			qs.Colour = qs.Colour || q.FocalShift != nil
+		}
+	}
+	return qs
+}

@@ -13,7 +13,7 @@ import (
 // where any result has them.
 func resultGrid(req search.Requirement, rs []search.Result) grid {
 	target := map[search.Kind]string{search.Focus: "EFL", search.Image: "mag", search.Expand: "expansion"}[req.Kind]
-	qc := qualityColumnsOf(rs)
+	qc := qualityColumns{search.ShownQuality(rs)}
 	g := grid{Header: []string{"#", "parts", "wd", "gap", "back", "envelope", "track", target, "error"}}
 	g.Header = append(append(g.Header, qc.header()...), "checks", "price", "drawer", "why")
 	for _, r := range rs {
@@ -26,32 +26,20 @@ func resultGrid(req search.Requirement, rs []search.Result) grid {
 	return g
 }
 
-// qualityColumns says which real-ray columns a table has: none when no
+// qualityColumns are the real-ray columns of find's table: none when no
 // result was traced; the edge spot and the focal shift only where given.
-type qualityColumns struct{ any, edge, colour bool }
-
-func qualityColumnsOf(rs []search.Result) qualityColumns {
-	var qc qualityColumns
-	for _, r := range rs {
-		if q := r.ImageQuality; q != nil {
-			qc.any = true
-			qc.edge = qc.edge || q.RMSSpotEdge != nil
-			qc.colour = qc.colour || q.FocalShift != nil
-		}
-	}
-	return qc
-}
+type qualityColumns struct{ search.QualityShown }
 
 func (qc qualityColumns) header() []string {
-	if !qc.any {
+	if !qc.Any {
 		return nil
 	}
 	spot := "spot um"
-	if qc.edge {
+	if qc.Edge {
 		spot = "spot um axis/edge"
 	}
 	h := []string{spot, "airy um", "diffr. limited"}
-	if qc.colour {
+	if qc.Colour {
 		h = append(h, "focal shift um")
 	}
 	return h
@@ -61,11 +49,11 @@ func (qc qualityColumns) header() []string {
 // traced: RMS spots at best focus, the Airy radius, the Marechal verdict
 // and the focal shift over the band.
 func (qc qualityColumns) cells(q *search.ImageQuality) []string {
-	if !qc.any {
+	if !qc.Any {
 		return nil
 	}
 	c := []string{"-", "-", "-"}
-	if qc.colour {
+	if qc.Colour {
 		c = append(c, "-")
 	}
 	if q == nil {
@@ -76,7 +64,7 @@ func (qc qualityColumns) cells(q *search.ImageQuality) []string {
 		c[0] += " / " + fixed(*q.RMSSpotEdge, 1)
 	}
 	c[1], c[2] = fixed(q.AiryRadius, 1), yesNo(q.DiffractionLimited)
-	if qc.colour && q.FocalShift != nil {
+	if qc.Colour && q.FocalShift != nil {
 		c[3] = fixed(*q.FocalShift, 0)
 	}
 	return c

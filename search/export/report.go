@@ -53,7 +53,7 @@ type reportPage struct {
 	RequestRows     [][]string
 	RequestHeader   []string
 	RequestNotes    [][2]string
-	QualityColumns  qualityColumns
+	QualityColumns  search.QualityShown
 	RankingNote     string
 }
 
@@ -85,7 +85,7 @@ var reportTmpl = template.Must(template.New("report").Funcs(reportFuncs).Parse(r
 func WriteReport(w io.Writer, in ReportInput) error {
 	page := reportPage{ReportInput: in, RequirementText: DescribeRequirement(in.Requirement), Picked: map[int]bool{},
 		Cautions: Cautions(in.Requirement), RequestRows: in.Request.Rows(), RequestHeader: RequestHeader, RequestNotes: in.Request.Notes(),
-		QualityColumns: qualityColumnsOf(in.Results)}
+		QualityColumns: search.ShownQuality(in.Results)}
 	page.RankingNote = rankingNote(in.Requirement, page.QualityColumns)
 	for _, s := range in.Picks {
 		p, err := pickPage(s, in)

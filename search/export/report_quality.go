@@ -6,23 +6,6 @@ import (
 	"cardinal/search"
 )
 
-// qualityColumns says which real-ray columns the report's ranked table
-// has: none when no result was traced; the edge spot and the focal shift
-// only where the search gave a field and a band.
-type qualityColumns struct{ Any, Edge, Colour bool }
-
-func qualityColumnsOf(rs []search.Result) qualityColumns {
-	var qc qualityColumns
-	for _, r := range rs {
-		if q := r.ImageQuality; q != nil {
-			qc.Any = true
-			qc.Edge = qc.Edge || q.RMSSpotEdge != nil
-			qc.Colour = qc.Colour || q.FocalShift != nil
-		}
-	}
-	return qc
-}
-
 // spotText is the RMS spot on axis, and at the field edge where given, in
 // µm at best focus; "–" where the result was not traced.
 func spotText(r search.Result) string {
@@ -70,7 +53,7 @@ func yesNo(b bool) string {
 // real-ray stage (search/score.go, search/quality.go) do it: a first-order
 // score, then for a requirement with an aperture the image quality of the
 // first-order survivors.
-func rankingNote(req search.Requirement, qc qualityColumns) string {
+func rankingNote(req search.Requirement, qc search.QualityShown) string {
 	first := "Lower score ranks first. The first-order score adds the error against the tolerance, the envelope over a reference length, a step per extra part, the price and the pieces not in the drawer, from paraxial figures at the parts' real principal points."
 	switch {
 	case req.Kind == search.Expand:

@@ -191,7 +191,7 @@ func TestRankingNote(t *testing.T) {
 		{"image with an NA", reqs["image"], "traced with real rays", "first order only"},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
-			got := rankingNote(tc.req, qualityColumns{Any: tc.req.TracesRays()})
+			got := rankingNote(tc.req, search.QualityShown{Any: tc.req.TracesRays()})
 			if !strings.Contains(got, tc.want) || strings.Contains(got, tc.not) {
 				t.Errorf("%q: want %q in it, not %q", got, tc.want, tc.not)
 			}
