@@ -82,6 +82,7 @@ func runReport(o *reportOptions) error {
 	if err != nil {
 		return usageErrorf("%v", err)
 	}
+	rq.AddBuilds(sols)
 	in := export.ReportInput{Search: sv.ID, SearchedAt: sv.At, GeneratedAt: e.Now(), Requirement: sv.Req,
 		Results: sv.Results, Picks: sols, Request: rq,
 		Draw: export.DrawOptions{Field: o.Field}, Plot: export.PlotOptions{Field: o.Field, Wavelengths: o.wavelengths}}

@@ -111,6 +111,11 @@ func runRequest(o *requestOptions) error {
 	if err != nil {
 		return usageErrorf("%v", err)
 	}
+	sols, err := sv.solutions(o.env)
+	if err != nil {
+		return err
+	}
+	rq.AddBuilds(sols)
 	w, err := openOutput(o.env, o.Output, o.Force)
 	if err != nil {
 		return err

@@ -57,6 +57,9 @@ type PickedSolution struct {
 	Rank     int    `json:"rank"`
 	Parts    string `json:"parts"`
 	Spacings string `json:"spacings"`
+	// Build is how to put the solution together (AddBuilds); nil when the
+	// request was made without the rebuilt solutions.
+	Build *Build `json:"build,omitempty"`
 }
 
 // A Request is a purchase request for the picked solutions of a search.
@@ -101,6 +104,19 @@ func BuildRequest(searchID int64, req search.Requirement, picks []search.Result,
 	}
 	rq.group(lines)
 	return rq, nil
+}
+
+// AddBuilds attaches to each picked solution its build sheet, from the
+// solutions rebuilt from the catalog (matched by rank).
+func (rq *Request) AddBuilds(sols []Solution) {
+	for _, s := range sols {
+		for i := range rq.Solutions {
+			if rq.Solutions[i].Rank == s.Result.Rank {
+				b := s.Build()
+				rq.Solutions[i].Build = &b
+			}
+		}
+	}
 }
 
 // lineFor returns the line of a part, making it from the stock on first use.

@@ -8,7 +8,7 @@ import (
 )
 
 // RequestHeader names the columns of a request's rows.
-var RequestHeader = []string{"supplier", "part", "description", "needed", "in_drawer", "location", "to_order", "unit_price", "line_total", "currency"}
+var RequestHeader = []string{"supplier", "part", "description", "needed", "in_drawer", "location", "to_order", "unit_price", "line_total", "currency", "url"}
 
 // Rows lays the request out as a table: each supplier's lines, then its
 // subtotal (one row per currency), then the grand totals, one row per
@@ -19,25 +19,31 @@ func (r Request) Rows() [][]string {
 	for _, g := range r.Suppliers {
 		for _, l := range g.Lines {
 			rows = append(rows, []string{l.Supplier, l.Part, l.Description, strconv.Itoa(l.Needed),
-				strconv.Itoa(l.InDrawer), l.Location, strconv.Itoa(l.ToOrder), money(l.UnitPrice), money(l.LineTotal), l.Currency})
+				strconv.Itoa(l.InDrawer), l.Location, strconv.Itoa(l.ToOrder), money(l.UnitPrice), money(l.LineTotal), l.Currency, l.URL})
 		}
 		for _, m := range g.Subtotals {
-			rows = append(rows, []string{g.Supplier, "subtotal", "", "", "", "", "", "", money(&m.Amount), m.Currency})
+			rows = append(rows, []string{g.Supplier, "subtotal", "", "", "", "", "", "", money(&m.Amount), m.Currency, ""})
 		}
 	}
 	for _, m := range r.Totals {
-		rows = append(rows, []string{"total", "", "", "", "", "", "", "", money(&m.Amount), m.Currency})
+		rows = append(rows, []string{"total", "", "", "", "", "", "", "", money(&m.Amount), m.Currency, ""})
 	}
 	return rows
 }
 
 // Notes are what the request says beside its table, as name and text: the
-// search, the requirement, each solution with its spacings, the number of
-// systems, parts without a price, and the cautions.
+// search, the requirement, each solution with its spacings and its build
+// sheet step by step, the number of systems, parts without a price, and
+// the cautions.
 func (r Request) Notes() [][2]string {
 	n := [][2]string{{"search", strconv.FormatInt(r.Search, 10)}, {"requirement", r.RequirementText}}
 	for _, s := range r.Solutions {
 		n = append(n, [2]string{fmt.Sprintf("solution %d", s.Rank), s.Parts + "; " + s.Spacings})
+		if s.Build != nil {
+			for _, l := range s.Build.Lines(SidesOf(r.Requirement.Kind)) {
+				n = append(n, [2]string{fmt.Sprintf("build %d", s.Rank), l})
+			}
+		}
 	}
 	n = append(n, [2]string{"systems", fmt.Sprintf("%d (quantities are for %d of each solution)", r.Systems, r.Systems)})
 	if len(r.Unpriced) > 0 {

@@ -3,6 +3,7 @@ package export
 import (
 	"bytes"
 	"encoding/csv"
+	"fmt"
 	"math"
 	"slices"
 	"strings"
@@ -207,5 +208,52 @@ func TestCautions(t *testing.T) {
 				t.Errorf("%d cautions, want %d", len(got), tc.want)
 			}
 		})
+	}
+}
+
+// Every format of a request names where to buy each part (the url column
+// of the rows, and the JSON line), and a request with its solutions
+// rebuilt carries each one's build sheet in its notes.
+func TestRequestURLAndBuild(t *testing.T) {
+	req := testRequirements()["image"]
+	sols := solve(t, req)[:2]
+	stock := map[string]Stock{}
+	for _, e := range testEntries(t) {
+		e.URL = "https://test.example.com/" + e.Part.Name
+		stock[e.Part.ID()] = Stock{Entry: e}
+	}
+	var picks []search.Result
+	for _, s := range sols {
+		picks = append(picks, s.Result)
+	}
+	rq, err := BuildRequest(3, req, picks, 1, stock)
+	if err != nil {
+		t.Fatal(err)
+	}
+	rq.AddBuilds(sols)
+	url := slices.Index(RequestHeader, "url")
+	for _, r := range rq.Rows() {
+		if r[1] == "subtotal" || r[0] == "total" {
+			continue
+		}
+		if want := "https://test.example.com/" + r[1]; r[url] != want {
+			t.Errorf("row %q: url %q, want %q", r, r[url], want)
+		}
+	}
+	builds := map[string][]string{}
+	for _, n := range rq.Notes() {
+		if strings.HasPrefix(n[0], "build ") {
+			builds[n[0]] = append(builds[n[0]], n[1])
+		}
+	}
+	for _, s := range sols {
+		lines := builds[fmt.Sprintf("build %d", s.Result.Rank)]
+		want := s.Build().Lines(SidesOf(req.Kind))
+		if !slices.Equal(lines, want) {
+			t.Errorf("solution %d: build notes %q, want %q", s.Result.Rank, lines, want)
+		}
+		if len(lines) < 4 || !strings.HasPrefix(lines[0], "object to first vertex") || !strings.Contains(strings.Join(lines, "\n"), "toward the object") {
+			t.Errorf("solution %d: build notes %q", s.Result.Rank, lines)
+		}
 	}
 }
