@@ -39,7 +39,8 @@ type cand struct {
 	// greatest sag of the last, over the clear aperture: for spheres, a
 	// quick lower bound on the edge clearance.
 	frontMin, backMax float64
-	price             float64 // price term of one piece (see score.go)
+	unit              float64 // price term of one piece (see score.go)
+	price             float64 // price term of using it once: unit, 0 when the drawer holds a piece
 	away              float64 // 1 when no piece is in the drawer, else 0
 	qty               int     // pieces in the drawer
 	key               int32   // rank of the part ID, for deterministic ties
@@ -54,7 +55,7 @@ type prepared struct {
 	surfs    []optics.Surface // outer surfaces of the candidates, two each
 	warnings []string
 	outside  []string // media used outside their dispersion range
-	priceRef float64
+	priceRefs map[string]float64 // median price by currency
 }
 
 // prepare filters the items by the requirement's part constraints and
@@ -97,9 +98,12 @@ func prepare(items []Item, req Requirement) *prepared {
 		p.warnings = append(p.warnings, fmt.Sprintf("%g nm is outside the range of the dispersion formulas of %s: their indices are extrapolated",
 			req.Lambda(), strings.Join(p.outside, ", ")))
 	}
-	p.priceRef = priceReference(items)
+	p.priceRefs = priceReferences(items)
 	for i := range p.cands {
-		p.cands[i].price = priceTerm(items[p.cands[i].item].Entry.Price, p.priceRef)
+		c := &p.cands[i]
+		e := items[c.item].Entry
+		c.unit = priceTerm(e.Price, e.Currency, p.priceRefs)
+		c.price = c.unit * c.away
 	}
 	p.cands = byTier(p.cands)
 	return p

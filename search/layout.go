@@ -90,7 +90,7 @@ func (s *search) finish(l *layout) bool {
 	a := &s.c[l.a]
 	if l.pair() {
 		b := &s.c[l.b]
-		l.score = s.sc.pair(a, b, l.err, l.env, pairAway(a, b))
+		l.score = s.sc.pair(l.err, l.env, pairAway(a, b), pairPrice(a, b))
 	} else {
 		l.score = s.sc.singlet(a, l.err, l.env)
 	}

@@ -121,7 +121,7 @@ func (s *search) pairImage(i, j int32) {
 			continue
 		}
 		l.env = a.L + l.gap + b.L
-		if bd := s.bound(); s.sc.pair(a, b, 0, l.env, pairAway(a, b)) > bd+margin(bd) {
+		if bd := s.bound(); s.sc.pair(0, l.env, pairAway(a, b), pairPrice(a, b)) > bd+margin(bd) {
 			s.solved++ // out of the results whatever the checks say
 			continue
 		}

@@ -67,7 +67,7 @@ func margin(x float64) float64 { return 1e-9 * (1 + math.Abs(x)) }
 // out the envelope and error terms.
 func (s *search) restBound(a *cand, n *node) float64 {
 	w := s.sc.w
-	return w.Elements + w.Price*(a.price+n.priceMin) + w.Drawer*(a.away+n.awayMin)/2
+	return w.Elements + w.Price*(a.price+n.priceMin) + w.Drawer*(a.away+n.awayMin)
 }
 
 // open tells whether some candidate b in node n could, after a, give a

@@ -4,6 +4,8 @@ import (
 	"encoding/json"
 	"fmt"
 	"math"
+	"slices"
+	"sort"
 	"strings"
 )
 
@@ -46,12 +48,19 @@ type Result struct {
 	ErrorPct float64 `json:"error_pct"`
 	Checks   []Check `json:"checks"`
 	Meets    bool    `json:"meets"`
-	// Price is the sum over the pieces, nil when a price is not stated.
-	Price    *float64 `json:"price"`
-	Currency string   `json:"currency,omitempty"`
-	InDrawer bool     `json:"in_drawer"`
-	Score    float64  `json:"score"`
-	Reason   string   `json:"reason"`
+	// Prices is the price of every piece the layout uses, one amount per
+	// currency (amounts in different currencies are never added), by
+	// currency; PriceUnknown is true when some piece has no stated price
+	// (its price is then in no amount).
+	Prices       []Amount `json:"prices"`
+	PriceUnknown bool     `json:"price_unknown,omitempty"`
+	// ToOrder is the number of pieces to order after those the drawer
+	// holds, and OrderPrices their price per currency.
+	ToOrder     int      `json:"pieces_to_order"`
+	OrderPrices []Amount `json:"order_prices"`
+	InDrawer    bool     `json:"in_drawer"`
+	Score       float64  `json:"score"`
+	Reason      string   `json:"reason"`
 	// ImageQuality holds the real-ray figures (quality.go), its keys
 	// inline in the JSON; nil when real rays were not traced.
 	*ImageQuality
@@ -60,7 +69,44 @@ type Result struct {
 	Quality map[string]float64 `json:"-"`
 }
 
-// UnmarshalJSON reads a result and fills Quality from its figures.
+// An Amount is a sum of money in one currency.
+type Amount struct {
+	Amount   float64 `json:"amount"`
+	Currency string  `json:"currency"`
+}
+
+// String is "12.50 XTS", the currency left out when not stated.
+func (a Amount) String() string {
+	return strings.TrimSpace(fmt.Sprintf("%.2f %s", a.Amount, a.Currency))
+}
+
+// AmountsText writes amounts in different currencies side by side, never
+// summed: "9.50 USD + 21.00 EUR"; "-" for none.
+func AmountsText(as []Amount) string {
+	if len(as) == 0 {
+		return "-"
+	}
+	s := make([]string, len(as))
+	for i, a := range as {
+		s[i] = a.String()
+	}
+	return strings.Join(s, " + ")
+}
+
+// addAmount adds v to the amount of its currency, keeping the list sorted
+// by currency.
+func addAmount(as []Amount, v float64, currency string) []Amount {
+	i := sort.Search(len(as), func(i int) bool { return as[i].Currency >= currency })
+	if i < len(as) && as[i].Currency == currency {
+		as[i].Amount += v
+		return as
+	}
+	return slices.Insert(as, i, Amount{Amount: v, Currency: currency})
+}
+
+// UnmarshalJSON reads a result and fills Quality from its figures. A
+// result saved before prices were kept per currency (one "price" and
+// "currency") is read into Prices.
 func (r *Result) UnmarshalJSON(b []byte) error {
 	type plain Result // the same fields, without this method
 	var p plain
@@ -68,6 +114,15 @@ func (r *Result) UnmarshalJSON(b []byte) error {
 		return err
 	}
 	*r = Result(p)
+	if r.Prices == nil {
+		var old struct {
+			Price    *float64 `json:"price"`
+			Currency string   `json:"currency"`
+		}
+		if json.Unmarshal(b, &old) == nil && old.Price != nil {
+			r.Prices = []Amount{{Amount: *old.Price, Currency: old.Currency}}
+		}
+	}
 	if r.ImageQuality != nil {
 		r.Quality = r.ImageQuality.Figures()
 	}
@@ -94,35 +149,37 @@ func (s *search) result(p *prepared, l *layout, rank int) Result {
 	case Expand:
 		r.Expansion = ptr(l.value)
 	}
-	s.fillParts(p, &r, l, idx)
+	s.fillParts(p, &r, idx)
 	r.Checks = s.checks(l)
 	r.Reason = s.reason(&r, l)
 	return r
 }
 
-func (s *search) fillParts(p *prepared, r *Result, l *layout, idx []int32) {
-	price, known := 0.0, true
+// fillParts names the parts and prices the pieces: all of them, and those
+// to order after the drawer's (the same part twice draws on one drawer
+// quantity).
+func (s *search) fillParts(p *prepared, r *Result, idx []int32) {
+	r.Prices, r.OrderPrices = []Amount{}, []Amount{}
+	used := map[int32]int{}
 	for _, ci := range idx {
 		c := &s.c[ci]
 		e := p.items[c.item].Entry
 		r.Parts = append(r.Parts, PartUse{Supplier: e.Part.Supplier, Part: e.Part.Name, Reversed: c.rev})
-		if e.Price > 0 {
-			price += e.Price
-			if r.Currency == "" {
-				r.Currency = e.Currency
-			}
-		} else {
-			known = false
+		used[c.item]++
+		order := used[c.item] > c.qty
+		if order {
+			r.ToOrder++
+		}
+		if !(e.Price > 0) {
+			r.PriceUnknown = true
+			continue
+		}
+		r.Prices = addAmount(r.Prices, e.Price, e.Currency)
+		if order {
+			r.OrderPrices = addAmount(r.OrderPrices, e.Price, e.Currency)
 		}
 	}
-	if known {
-		r.Price = ptr(price)
-	}
-	if l.pair() {
-		r.InDrawer = pairAway(&s.c[l.a], &s.c[l.b]) == 0
-	} else {
-		r.InDrawer = s.c[l.a].away == 0
-	}
+	r.InDrawer = r.ToOrder == 0
 }
 
 func ptr(v float64) *float64 { return &v }
@@ -196,10 +253,13 @@ func (s *search) reason(r *Result, l *layout) string {
 		w = append(w, fmt.Sprintf("%.2g%% off target", math.Abs(r.ErrorPct)))
 	}
 	w = append(w, fmt.Sprintf("%.0f mm long", l.env))
-	if r.InDrawer {
-		w = append(w, "in the drawer")
+	switch n := len(r.Parts); {
+	case r.InDrawer:
+		w = append(w, "parts at hand in the drawer")
+	case r.ToOrder < n:
+		w = append(w, fmt.Sprintf("%d of %d pieces at hand in the drawer", n-r.ToOrder, n))
 	}
-	if r.Price == nil {
+	if r.PriceUnknown {
 		w = append(w, "price unknown")
 	}
 	return strings.Join(w, ", ")

@@ -10,9 +10,25 @@ import (
 //	Error * |achieved - target| / tolerance      (0 for a pair solved at the target)
 //	+ Envelope * envelope / reference length      (EFL for focus, track for image, 100 mm for expand)
 //	+ Elements * (number of parts - 1)
-//	+ Price * sum over pieces of price / median catalog price (unknown price counts as the median)
-//	+ Drawer * share of the pieces not available from the drawer
+//	+ Price * sum over the pieces to order of price / median price of the parts in its currency
+//	+ Drawer * number of pieces to order
 //	+ Quality * sharpness term                    (only when real rays are traced, see below)
+//
+// The pieces to order are the pieces the layout uses less those the drawer
+// holds: a pair that uses one part twice needs two pieces, so with one in
+// the drawer one is to order. A piece already in the drawer costs nothing
+// to this build. A price counts against the median of the stated prices of
+// the catalog's parts in the same currency (amounts in different
+// currencies are never added or compared directly); an unknown price counts
+// as that median.
+//
+// The default weights are Error 1, Envelope 1, Elements 0.5, Price 0.5,
+// Drawer 1, Quality 1. So a piece to order at the median price costs 1.5: a
+// layout built entirely from the drawer that meets every requirement ranks
+// above one that needs two median-priced pieces bought unless that purchase
+// is better on the other terms by more than 3, for example three reference
+// lengths shorter, or a blur three doublings smaller. --prefer multiplies
+// one weight by three.
 //
 // Lower is better. The first five terms are each a sum over the parts of
 // something that can only grow, which is what lets the search bound the
@@ -39,7 +55,7 @@ type Weights struct {
 // WeightsFor returns the weights of a preference: the balanced default, or
 // one term made three times as heavy.
 func WeightsFor(p Prefer) Weights {
-	w := Weights{Error: 1, Envelope: 1, Elements: 0.5, Price: 0.5, Drawer: 0.5, Quality: 1}
+	w := Weights{Error: 1, Envelope: 1, Elements: 0.5, Price: 0.5, Drawer: 1, Quality: 1}
 	switch p {
 	case PreferSharp:
 		w.Quality *= 3
@@ -64,17 +80,24 @@ func refLength(r Requirement) float64 {
 	return 100
 }
 
-// priceReference is the median of the stated prices, 1 when none is stated.
-func priceReference(items []Item) float64 {
-	var ps []float64
+// priceReferences are the medians of the stated prices, by currency (the
+// empty currency is a currency of its own).
+func priceReferences(items []Item) map[string]float64 {
+	by := map[string][]float64{}
 	for _, it := range items {
 		if it.Entry.Price > 0 {
-			ps = append(ps, it.Entry.Price)
+			by[it.Entry.Currency] = append(by[it.Entry.Currency], it.Entry.Price)
 		}
 	}
-	if len(ps) == 0 {
-		return 1
+	refs := make(map[string]float64, len(by))
+	for cur, ps := range by {
+		refs[cur] = median(ps)
 	}
+	return refs
+}
+
+// median of a non-empty list; the list is sorted in place.
+func median(ps []float64) float64 {
 	sort.Float64s(ps)
 	n := len(ps)
 	if n%2 == 1 {
@@ -83,10 +106,11 @@ func priceReference(items []Item) float64 {
 	return (ps[n/2-1] + ps[n/2]) / 2
 }
 
-// priceTerm is the price of one piece over the reference; an unknown price
-// counts as the reference.
-func priceTerm(price, ref float64) float64 {
-	if !(price > 0) {
+// priceTerm is the price of one piece over the median of its currency; an
+// unknown price counts as the median.
+func priceTerm(price float64, currency string, refs map[string]float64) float64 {
+	ref := refs[currency]
+	if !(price > 0) || !(ref > 0) {
 		return 1
 	}
 	return price / ref
@@ -114,31 +138,36 @@ func (s scorer) errTerm(err float64) float64 {
 	return math.Abs(err) / s.tol
 }
 
-// singlet scores one part.
+// singlet scores one part; c.price and c.away are 0 when the drawer holds
+// a piece.
 func (s scorer) singlet(c *cand, err, envelope float64) float64 {
 	return s.w.Error*s.errTerm(err) + s.w.Envelope*envelope/s.lref + s.w.Price*c.price + s.w.Drawer*c.away
 }
 
-// pair scores two parts; away is the number of pieces (0, 1 or 2) not
-// available from the drawer.
-func (s scorer) pair(a, b *cand, err, envelope, away float64) float64 {
+// pair scores two parts; away is the number of pieces (0, 1 or 2) to order
+// and price their price term (pairAway, pairPrice).
+func (s scorer) pair(err, envelope, away, price float64) float64 {
 	return s.w.Error*s.errTerm(err) + s.w.Envelope*envelope/s.lref + s.w.Elements +
-		s.w.Price*(a.price+b.price) + s.w.Drawer*away/2
+		s.w.Price*price + s.w.Drawer*away
 }
 
-// pairAway counts the pieces of a pair not available from the drawer: the
-// same part twice needs two pieces.
+// pairAway counts the pieces of a pair to order after the drawer's: the
+// same part twice needs two pieces. It is never less than a.away + b.away,
+// which the pruning bounds use.
 func pairAway(a, b *cand) float64 {
 	if a.item == b.item {
-		switch {
-		case a.qty >= 2:
-			return 0
-		case a.qty == 1:
-			return 1
-		}
-		return 2
+		return float64(max(0, 2-a.qty))
 	}
 	return a.away + b.away
+}
+
+// pairPrice is the price term of the pieces of a pair to order; never less
+// than a.price + b.price.
+func pairPrice(a, b *cand) float64 {
+	if a.item == b.item {
+		return float64(max(0, 2-a.qty)) * a.unit
+	}
+	return a.price + b.price
 }
 
 // firstOrderTol is the absolute tolerance on the requirement's target.

@@ -24,8 +24,7 @@ func TestPreferShiftsRanking(t *testing.T) {
 		balanced, pref string // first part under each
 		prefer         Prefer
 	}{
-		{"drawer", []Item{priced("CHEAP", 4, 10, 0), priced("HELD", 4, 40, 1)}, "CHEAP", "HELD", PreferDraw},
-		{"cheap", []Item{priced("CHEAP", 4, 10, 0), priced("HELD", 4, 40, 1)}, "CHEAP", "CHEAP", PreferCheap},
+		{"cheap", []Item{priced("CHEAP", 4, 10, 0), priced("DEAR", 4, 40, 0)}, "CHEAP", "CHEAP", PreferCheap},
 		{"short", []Item{priced("THIN", 3, 12, 0), priced("THICK", 15, 6, 0)}, "THICK", "THIN", PreferShort},
 	}
 	for _, tt := range tests {
@@ -68,7 +67,7 @@ func TestScoreIsDocumentedSum(t *testing.T) {
 		median := 20.0 // of the stated prices 10, 20, 30
 		for _, r := range out.Results {
 			want := w.Error*math.Abs(r.Error)/(0.4*160) + w.Envelope*r.Envelope/160 + w.Elements*float64(len(r.Parts)-1)
-			away := 0.0
+			toOrder := 0
 			for k, u := range r.Parts {
 				price, held := 0.0, 0
 				for _, it := range its {
@@ -79,15 +78,18 @@ func TestScoreIsDocumentedSum(t *testing.T) {
 				if price == 0 {
 					price = median
 				}
-				want += w.Price * price / median
 				if len(r.Parts) == 2 && r.Parts[0].Part == r.Parts[1].Part {
 					held -= k // the second piece needs a second one in the drawer
 				}
-				if held < 1 {
-					away++
+				if held < 1 { // only a piece to order is priced
+					toOrder++
+					want += w.Price * price / median
 				}
 			}
-			want += w.Drawer * away / float64(len(r.Parts))
+			if toOrder != r.ToOrder {
+				t.Errorf("%s: %d pieces to order, want %d", partsID(r), r.ToOrder, toOrder)
+			}
+			want += w.Drawer * float64(toOrder)
 			checkNear(t, "score of "+partsID(r), r.Score, want, 1e-9, 1e-9)
 		}
 	}

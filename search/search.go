@@ -238,7 +238,7 @@ func (s *search) bestFirst(i int32, open *nodeQueue) {
 // pairBound is the least score a then b can have: every term but the
 // error, with the envelope at its least (the parts the gap minimum apart).
 func (s *search) pairBound(a, b *cand) float64 {
-	return s.sc.pair(a, b, 0, a.L+s.lim.gapMin+b.L, pairAway(a, b))
+	return s.sc.pair(0, a.L+s.lim.gapMin+b.L, pairAway(a, b), pairPrice(a, b))
 }
 
 // nodeBound is a node and the least score of a layout through it.
@@ -328,7 +328,7 @@ func (s *search) firstOrder() ([]int32, []float64) {
 	for i := range s.c {
 		a := &s.c[i]
 		order[i] = int32(i)
-		lb[i] = w.Elements + w.Price*(a.price+priceMin) + w.Drawer*(a.away+awayMin)/2 +
+		lb[i] = w.Elements + w.Price*(a.price+priceMin) + w.Drawer*(a.away+awayMin) +
 			w.Envelope*(a.L+s.lim.gapMin+lMin)/s.sc.lref
 	}
 	sort.SliceStable(order, func(x, y int) bool { return lb[order[x]] < lb[order[y]] })

@@ -59,9 +59,13 @@ part or an expander is admitted within the tolerance and its error shown.
 Lengths in mm: working distance is object plane to first vertex, back
 clearance last vertex to image (or focal) plane, envelope first to last
 vertex, gap between the facing vertices. Results meeting every constraint are
-ranked by a score (error against tolerance, envelope, number of parts, price,
-parts in the drawer; --prefer shifts it). Every run is saved; its id is
-printed on stderr.
+ranked by a score (error against tolerance, envelope, number of parts, and
+the pieces to order after the drawer's with their price; --prefer shifts it).
+A piece in the drawer costs nothing, so a layout built from the drawer ranks
+first unless a purchase is clearly better. A price counts against the median
+price of the parts in its own currency; amounts in different currencies are
+never added (the price column shows each currency's amount). Every run is
+saved; its id is printed on stderr.
 
 With an aperture (--beam for focus, --na for image) the best first-order
 layouts (3 x --top, at least 30) are traced with real rays at the wavelength

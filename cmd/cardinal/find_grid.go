@@ -122,11 +122,16 @@ func checksCell(r search.Result) string {
 	return "fails " + strings.Join(bad, ",")
 }
 
+// priceCell is the price of every piece, one amount per currency (never
+// summed across currencies); "?" for a price not stated.
 func priceCell(r search.Result) string {
-	if r.Price == nil {
+	switch {
+	case len(r.Prices) == 0:
 		return "?"
+	case r.PriceUnknown:
+		return search.AmountsText(r.Prices) + " + ?"
 	}
-	return strings.TrimSpace(fixed(*r.Price, 2) + " " + r.Currency)
+	return search.AmountsText(r.Prices)
 }
 
 func yesNo(b bool) string {

@@ -162,7 +162,7 @@ func TestRunFind(t *testing.T) {
 		{"keplerian at 1064 nm warns of the internal focus", []string{"--expand", "3", "--expand-tol", "3%", "--keplerian", "--wavelength", "1064"}, 0,
 			[]string{"keplerian"}, []string{"focus between its parts"}, nil},
 		{"nothing that short", []string{"--efl", "75", "--length-max", "0.8"}, exitNoResult,
-			nil, []string{"none meets every constraint", "longer than the length maximum", "nearest misses", "fails envelope"}, nil},
+			nil, []string{"none meets every constraint", "longer than the length maximum", "nearest misses", "fails gap,envelope"}, nil},
 		{"ultraviolet is a laser wavelength", []string{"--efl", "100", "--efl-tol", "3%", "--wavelength", "355"}, 0,
 			nil, []string{"laser safety officer"}, nil},
 		{"no part strong enough", []string{"--track", "20", "--mag", "-1", "--elements", "1"}, exitNoResult,

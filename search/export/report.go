@@ -162,9 +162,15 @@ func checksText(r search.Result) string {
 	return fmt.Sprintf("misses %v", bad)
 }
 
+// priceText is the price of every piece, one amount per currency (never
+// summed across currencies), "?" when no piece's price is stated and a
+// "+ ?" when some are not.
 func priceText(r search.Result) string {
-	if r.Price == nil {
+	switch {
+	case len(r.Prices) == 0:
 		return "?"
+	case r.PriceUnknown:
+		return search.AmountsText(r.Prices) + " + ?"
 	}
-	return fmt.Sprintf("%.2f %s", *r.Price, r.Currency)
+	return search.AmountsText(r.Prices)
 }
