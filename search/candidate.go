@@ -49,12 +49,12 @@ type cand struct {
 
 // prepared holds the candidates of one search and what was set aside.
 type prepared struct {
-	items    []Item
-	cands    []cand // sorted by power
-	skipped  map[string]int
-	surfs    []optics.Surface // outer surfaces of the candidates, two each
-	warnings []string
-	outside  []string // media used outside their dispersion range
+	items     []Item
+	cands     []cand // sorted by power
+	skipped   map[string]int
+	surfs     []optics.Surface // outer surfaces of the candidates, two each
+	warnings  []string
+	outside   []string           // media used outside their dispersion range
 	priceRefs map[string]float64 // median price by currency
 }
 
