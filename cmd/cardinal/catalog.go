@@ -1,6 +1,8 @@
 package main
 
 import (
+	"cardinal/search/present"
+
 	"bytes"
 	"context"
 	"fmt"
@@ -163,7 +165,7 @@ type catalogListOptions struct {
 	DiameterMin, DiameterMax float64
 	Suppliers, Kinds         []string
 	InDrawer                 bool
-	Format                   string
+	out                      outputFlags
 	filter                   catalog.Filter // built by validate
 }
 
@@ -196,12 +198,12 @@ column, with the reversed orientation, under the key names of inspect.`,
 	f.StringSliceVar(&o.Suppliers, "supplier", nil, "only these suppliers (repeat or separate with commas)")
 	f.StringSliceVar(&o.Kinds, "kind", nil, "only parts of every kind given: "+strings.Join(catalog.KindNames, ", "))
 	f.BoolVar(&o.InDrawer, "in-drawer", false, "only parts with at least one piece in the drawer")
-	f.StringVar(&o.Format, "format", "table", "output format: table, json, csv or md")
+	addOutputFlags(f, &o.out, true)
 	return cmd
 }
 
 func (o *catalogListOptions) validate() error {
-	if err := checkFormat(o.Format); err != nil {
+	if err := checkFormat(o.out.Format); err != nil {
 		return err
 	}
 	efl, err := parseRange(o.EFL)
@@ -282,10 +284,10 @@ func runCatalogList(o *catalogListOptions) error {
 			fmt.Fprintf(o.env.Err, "cardinal: warning: %s: %s\n", r.ID(), w)
 		}
 	}
-	if len(rows) == 0 && o.Format == "table" {
+	if len(rows) == 0 && o.out.Format == "table" {
 		fmt.Fprintln(o.env.Err, "cardinal: no part matches; widen the filters or run 'cardinal catalog list' without any")
 	}
-	return writePartRows(o.env, o.Format, rows)
+	return writePartRows(o.env, o.out, rows)
 }
 
 // A listedPart is one part in `catalog list --format json`: the keys of
@@ -330,52 +332,49 @@ func listed(r catalog.PartRow) listedPart {
 	return l
 }
 
-func writePartRows(e *env, format string, rows []catalog.PartRow) error {
+func writePartRows(e *env, o outputFlags, rows []catalog.PartRow) error {
 	parts := make([]listedPart, len(rows))
 	for i, r := range rows {
 		parts[i] = listed(r)
 	}
-	if format == "csv" {
-		return render(e.Out, format, listCSVGrid(parts), nil)
-	}
-	g := grid{Header: []string{"part", "kind", "diameter mm", "EFL mm", "BFD mm", "FFD mm", "length mm", "drawer", "warnings"}}
-	for _, p := range parts {
-		g.Rows = append(g.Rows, []string{p.Supplier + ":" + p.Part, p.Kind, mm(p.DiameterMm), optMM(p.EFLMm),
-			optMM(p.BFDMm), optMM(p.FFDMm), mm(p.LengthMm), strconv.Itoa(p.Quantity), strconv.Itoa(len(p.Warnings))})
-	}
-	return render(e.Out, format, g, parts)
+	return render(e, e.Out, o, partTable(parts), parts)
 }
 
-// listCSVGrid is the machine-readable CSV: the JSON keys as the header,
-// numbers in full precision.
-func listCSVGrid(parts []listedPart) grid {
-	g := grid{Header: []string{"supplier", "part", "description", "kind", "wavelength_nm", "diameter_mm",
-		"clear_aperture_mm", "length_mm", "power_dpt", "efl_mm", "bfd_mm", "ffd_mm", "principal_mm",
-		"principal_prime_mm", "reversed_bfd_mm", "reversed_ffd_mm", "reversed_principal_mm",
-		"reversed_principal_prime_mm", "quantity", "location", "warnings"}}
-	num := func(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
-	opt := func(v *float64) string {
-		if v == nil {
-			return ""
+// partTable describes the listed parts once: a short default set for a
+// terminal, every figure (the JSON keys) for CSV and --wide.
+func partTable(parts []listedPart) present.Table {
+	opt := func(p *float64) present.Cell {
+		if p == nil {
+			return present.Cell{Text: "afocal"}
 		}
-		return num(*v)
+		return present.Num(*p, 3)
 	}
+	t := present.Table{Columns: []present.Column{
+		{Key: "name", Label: "part"}, {Key: "supplier", Label: "supplier", Optional: true}, {Key: "part", Label: "part number", Optional: true},
+		{Key: "description", Label: "description", Optional: true}, {Key: "kind", Label: "kind"},
+		{Key: "wavelength_nm", Label: "wavelength", Unit: "nm", Optional: true},
+		{Key: "diameter_mm", Label: "diameter", Unit: "mm"},
+		{Key: "clear_aperture_mm", Label: "clear aperture", Unit: "mm", Optional: true},
+		{Key: "length_mm", Label: "length", Unit: "mm"}, {Key: "power_dpt", Label: "power", Unit: "dpt", Optional: true},
+		{Key: "efl_mm", Label: "EFL", Unit: "mm"}, {Key: "bfd_mm", Label: "BFD", Unit: "mm"}, {Key: "ffd_mm", Label: "FFD", Unit: "mm"},
+		{Key: "principal_mm", Label: "P", Unit: "mm", Optional: true},
+		{Key: "principal_prime_mm", Label: "P'", Unit: "mm", Optional: true},
+		{Key: "reversed_bfd_mm", Label: "BFD reversed", Unit: "mm", Optional: true},
+		{Key: "reversed_ffd_mm", Label: "FFD reversed", Unit: "mm", Optional: true},
+		{Key: "reversed_principal_mm", Label: "P reversed", Unit: "mm", Optional: true},
+		{Key: "reversed_principal_prime_mm", Label: "P' reversed", Unit: "mm", Optional: true},
+		{Key: "quantity", Label: "drawer"}, {Key: "location", Label: "location", Optional: true},
+		{Key: "warnings", Label: "warnings", Note: true},
+	}}
 	for _, p := range parts {
-		g.Rows = append(g.Rows, []string{p.Supplier, p.Part, p.Description, p.Kind, num(p.WavelengthNm),
-			num(p.DiameterMm), num(p.ClearApertureMm), num(p.LengthMm), num(p.PowerDpt), opt(p.EFLMm),
-			opt(p.BFDMm), opt(p.FFDMm), opt(p.PrincipalMm), opt(p.PrincipalPrimeMm), opt(p.ReversedBFDMm),
-			opt(p.ReversedFFDMm), opt(p.ReversedPrincipalMm), opt(p.ReversedPrincipalPrimeMm),
-			strconv.Itoa(p.Quantity), p.Location, strings.Join(p.Warnings, "; ")})
+		t.Add(present.Text(p.Supplier+":"+p.Part), present.Text(p.Supplier), present.Text(p.Part), present.Text(p.Description), present.Text(p.Kind),
+			present.Num(p.WavelengthNm, 4), present.Num(p.DiameterMm, 2), present.Num(p.ClearApertureMm, 2),
+			present.Num(p.LengthMm, 3), present.Num(p.PowerDpt, 3), opt(p.EFLMm), opt(p.BFDMm), opt(p.FFDMm),
+			opt(p.PrincipalMm), opt(p.PrincipalPrimeMm), opt(p.ReversedBFDMm), opt(p.ReversedFFDMm),
+			opt(p.ReversedPrincipalMm), opt(p.ReversedPrincipalPrimeMm), present.Int(p.Quantity),
+			present.Text(p.Location), present.Text(strings.Join(p.Warnings, "; ")))
 	}
-	return g
-}
-
-// optMM formats a focal value that an afocal part lacks.
-func optMM(v *float64) string {
-	if v == nil {
-		return "afocal"
-	}
-	return mm(*v)
+	return t
 }
 
 // catalogExportOptions are the flags of `catalog export`.

@@ -1,10 +1,11 @@
 package main
 
 import (
+	"cardinal/search/present"
+
 	"bytes"
 	"context"
 	"fmt"
-	"strconv"
 
 	"github.com/spf13/cobra"
 
@@ -171,7 +172,10 @@ func runDrawerList(o *drawerListOptions) error {
 		byID[r.ID()] = r
 	}
 	out := make([]drawerEntry, len(items))
-	g := grid{Header: []string{"part", "quantity", "location", "EFL mm", "diameter mm", "description"}}
+	t := present.Table{Columns: []present.Column{{Key: "name", Label: "part"},
+		{Key: "supplier", Label: "supplier", Optional: true}, {Key: "part", Label: "part number", Optional: true},
+		{Key: "quantity", Label: "quantity"}, {Key: "location", Label: "location"}, {Key: "efl_mm", Label: "EFL", Unit: "mm"},
+		{Key: "diameter_mm", Label: "diameter", Unit: "mm"}, {Key: "description", Label: "description", Note: true}}}
 	for i, it := range items {
 		r := byID[it.ID()]
 		d := drawerEntry{Supplier: it.Supplier, Part: it.Part, Quantity: it.Quantity, Location: it.Location,
@@ -181,7 +185,12 @@ func runDrawerList(o *drawerListOptions) error {
 			d.EFLMm = &efl
 		}
 		out[i] = d
-		g.Rows = append(g.Rows, []string{it.ID(), strconv.Itoa(it.Quantity), it.Location, optMM(d.EFLMm), mm(d.DiameterMm), d.Description})
+		efl := present.OptNum(d.EFLMm, 3)
+		if d.EFLMm == nil {
+			efl.Text = "afocal"
+		}
+		t.Add(present.Text(it.ID()), present.Text(it.Supplier), present.Text(it.Part), present.Int(it.Quantity), present.Text(it.Location), efl,
+			present.Num(d.DiameterMm, 2), present.Text(d.Description))
 	}
-	return render(o.env.Out, o.Format, g, out)
+	return render(o.env, o.env.Out, outputFlags{Format: o.Format}, t, out)
 }

@@ -16,7 +16,10 @@ type env struct {
 	// Terminal is true when Out is a terminal (tables read by people);
 	// false for pipes.
 	Terminal bool
-	Now      func() time.Time
+	// TermWidth is the terminal's width in characters, 0 when Out is not
+	// a terminal (then COLUMNS, else a default, is used: output.go).
+	TermWidth int
+	Now       func() time.Time
 	// Getenv reads the environment (CARDINAL_DB, XDG_DATA_HOME, HOME).
 	Getenv func(string) string
 }
@@ -24,8 +27,9 @@ type env struct {
 func newEnv() *env {
 	return &env{
 		In: os.Stdin, Out: os.Stdout, Err: os.Stderr,
-		Terminal: isatty.IsTerminal(os.Stdout.Fd()),
-		Now:      time.Now,
-		Getenv:   os.Getenv,
+		Terminal:  isatty.IsTerminal(os.Stdout.Fd()),
+		TermWidth: terminalWidth(os.Stdout.Fd()),
+		Now:       time.Now,
+		Getenv:    os.Getenv,
 	}
 }

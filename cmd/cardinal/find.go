@@ -13,6 +13,7 @@ import (
 	"cardinal/catalog"
 	"cardinal/search"
 	"cardinal/search/export"
+	"cardinal/search/present"
 )
 
 // findOptions are the flags of `cardinal find`, bound as given; Req is the
@@ -29,10 +30,12 @@ type findOptions struct {
 	Galilean, Keplerian            bool
 	LengthMax, DiameterMax, GapMin float64
 	Elements, Top                  int
-	Supplier, Prefer, Spec, Format string
+	Supplier, Prefer, Spec         string
 	DrawerOnly                     bool
 	FieldAngle, Power              float64
 	Band                           []float64
+
+	out outputFlags
 
 	Req search.Requirement
 }
@@ -117,14 +120,14 @@ are ranked on first order only.`,
 	f.IntVar(&opts.Top, "top", search.DefaultTop, "results to show (0: all that meet the requirement)")
 	f.StringVar(&opts.Prefer, "prefer", "", "rank weight to raise: drawer, short, cheap or sharp (image quality)")
 	f.StringVar(&opts.Spec, "spec", "", "JSON requirement file; flags given override it")
-	f.StringVar(&opts.Format, "format", "table", "output format: table, json, csv or md")
+	addOutputFlags(f, &opts.out, true)
 	return cmd
 }
 
 // validate builds the requirement from the spec file and the flags given,
 // and checks it.
 func (o *findOptions) validate() error {
-	if err := checkFormat(o.Format); err != nil {
+	if err := checkFormat(o.out.Format); err != nil {
 		return err
 	}
 	req := search.Defaults()
@@ -273,7 +276,7 @@ func runFind(o *findOptions) error {
 	if len(out.Results) == 0 {
 		return noResult(e, o, doc, out)
 	}
-	return render(e.Out, o.Format, resultGrid(o.Req, out.Results), doc)
+	return render(e, e.Out, o.out, present.Results(o.Req, out.Results), doc)
 }
 
 // loadItems reads the parts the requirement may use, with the drawer.
@@ -341,8 +344,8 @@ func writeCautions(e *env, req search.Requirement) {
 // the JSON document for programs, words and a table of misses on stderr for
 // people, never an empty table. It returns the no-result error.
 func noResult(e *env, o *findOptions, doc findOutput, out search.Outcome) error {
-	if o.Format == "json" {
-		if err := render(e.Out, "json", grid{}, doc); err != nil {
+	if o.out.Format == "json" {
+		if err := render(e, e.Out, o.out, present.Table{}, doc); err != nil {
 			return err
 		}
 		return noResultErrorf("nothing meets the requirement (see \"why\" and \"misses\")")
@@ -352,7 +355,7 @@ func noResult(e *env, o *findOptions, doc findOutput, out search.Outcome) error 
 	}
 	if len(out.Misses) > 0 {
 		fmt.Fprintln(e.Err, "nearest misses:")
-		if err := render(e.Err, "table", resultGrid(o.Req, out.Misses), nil); err != nil {
+		if err := render(e, e.Err, outputFlags{Format: "table"}, present.Results(o.Req, out.Misses), nil); err != nil {
 			return err
 		}
 	}

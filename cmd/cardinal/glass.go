@@ -1,6 +1,8 @@
 package main
 
 import (
+	"cardinal/search/present"
+
 	"bytes"
 	"context"
 	"fmt"
@@ -136,19 +138,20 @@ func runGlassList(o *glassListOptions) error {
 	for _, g := range user {
 		out = append(out, describeGlass(g.Name, "user", g.Formula, g.Coefficients, g.Medium(), g.Source))
 	}
-	g := grid{Header: []string{"name", "origin", "formula", "nd", "Vd", "range nm", "source"}}
+	t := present.Table{Columns: []present.Column{{Key: "name", Label: "name"}, {Key: "origin", Label: "origin"},
+		{Key: "formula", Label: "formula"}, {Key: "nd", Label: "nd"}, {Key: "vd", Label: "Vd"},
+		{Key: "min_nm", Label: "from", Unit: "nm"}, {Key: "max_nm", Label: "to", Unit: "nm"}, {Key: "source", Label: "source", Note: true}}}
 	for _, l := range out {
-		vd := "-"
-		if l.Vd != nil {
-			vd = fixed(*l.Vd, 2)
+		rng := func(v float64) present.Cell {
+			if l.MinNm == 0 && l.MaxNm == 0 {
+				return present.Cell{Text: present.Missing}
+			}
+			return present.Num(v, 0)
 		}
-		rng := "-"
-		if l.MinNm != 0 || l.MaxNm != 0 {
-			rng = fmt.Sprintf("%g-%g", l.MinNm, l.MaxNm)
-		}
-		g.Rows = append(g.Rows, []string{l.Name, l.Origin, l.Formula, fixed(l.Nd, 5), vd, rng, l.Source})
+		t.Add(present.Text(l.Name), present.Text(l.Origin), present.Text(l.Formula), present.Num(l.Nd, 5),
+			present.OptNum(l.Vd, 2), rng(l.MinNm), rng(l.MaxNm), present.Text(l.Source))
 	}
-	return render(o.env.Out, o.Format, g, out)
+	return render(o.env, o.env.Out, outputFlags{Format: o.Format}, t, out)
 }
 
 // builtinGlasses describes the built-in glasses, by name.

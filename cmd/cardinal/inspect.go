@@ -1,6 +1,8 @@
 package main
 
 import (
+	"cardinal/search/present"
+
 	"bytes"
 	"errors"
 	"fmt"
@@ -136,7 +138,7 @@ func runInspect(o *inspectOptions) error {
 		}
 	}
 	o.Rays.printCautions(o.env, o.Wavelength)
-	return writeInspections(o.env.Out, o.Format, results)
+	return writeInspections(o.env, o.env.Out, o.Format, results)
 }
 
 // loadInspectEntries reads the parts to inspect: the --file, or the
@@ -368,12 +370,12 @@ func formatNm(wl float64) string { return strconv.FormatFloat(wl, 'g', -1, 64) }
 // writeInspections prints the results: JSON, one CSV row per part, or for
 // people (table, md) one "figure | value | unit" block per part, which reads
 // in 100 columns.
-func writeInspections(w io.Writer, format string, rs []inspection) error {
+func writeInspections(e *env, w io.Writer, format string, rs []inspection) error {
 	switch format {
 	case "json":
-		return render(w, format, grid{}, rs)
+		return render(e, w, outputFlags{Format: format}, present.Table{}, rs)
 	case "csv":
-		return render(w, format, inspectionGrid(rs), nil)
+		return render(e, w, outputFlags{Format: format}, inspectionTable(rs), nil)
 	}
 	for i, r := range rs {
 		if i > 0 {
@@ -384,7 +386,7 @@ func writeInspections(w io.Writer, format string, rs []inspection) error {
 			title = "### " + title + "\n"
 		}
 		fmt.Fprintln(w, title)
-		if err := render(w, format, figureGrid(r), nil); err != nil {
+		if err := render(e, w, outputFlags{Format: format}, figureTable(r), nil); err != nil {
 			return err
 		}
 	}
@@ -406,33 +408,33 @@ func inspectionTitle(r inspection) string {
 	return t
 }
 
-// figureGrid is the vertical layout of one part for people.
-func figureGrid(r inspection) grid {
+// figureTable is the vertical layout of one part for people.
+func figureTable(r inspection) present.Table {
 	c := r.card
-	g := grid{Header: []string{"figure", "value", "unit"}}
-	add := func(figure, value, unit string) { g.Rows = append(g.Rows, []string{figure, value, unit}) }
+	var rows [][]string
+	add := func(figure, value, unit string) { rows = append(rows, []string{figure, value, unit}) }
 	const front, back = "mm from first vertex", "mm from last vertex"
-	add("length, vertex to vertex", mm(c.Length), "mm")
-	add("power", fixed(c.Dioptres(), 4), "dioptres")
+	add("length, vertex to vertex", present.Fixed(c.Length, 3), "mm")
+	add("power", present.Fixed(c.Dioptres(), 4), "dioptres")
 	if c.Afocal {
-		add("angular magnification", fixed(c.AngularMagnification, 6), "(afocal)")
-		add("lateral magnification", fixed(c.LateralMagnification, 6), "(afocal)")
+		add("angular magnification", present.Fixed(c.AngularMagnification, 6), "(afocal)")
+		add("lateral magnification", present.Fixed(c.LateralMagnification, 6), "(afocal)")
 	} else {
-		add("EFL", mm(c.EFL), "mm")
-		add("front focal length f, P to F", mm(c.FFront), "mm")
-		add("back focal length f', P' to F'", mm(c.FBack), "mm")
-		add("focal point F (FFD)", mm(c.F), front)
-		add("focal point F' (BFD)", mm(c.FPrime), back)
-		add("principal point P", mm(c.P), front)
-		add("principal point P'", mm(c.PPrime), back)
-		add("nodal point N", mm(c.N), front)
-		add("nodal point N'", mm(c.NPrime), back)
-		add("anti-principal point, front", mm(c.AP), front)
-		add("anti-principal point, back", mm(c.APPrime), back)
-		add("anti-nodal point, front", mm(c.AN), front)
-		add("anti-nodal point, back", mm(c.ANPrime), back)
+		add("EFL", present.Fixed(c.EFL, 3), "mm")
+		add("front focal length f, P to F", present.Fixed(c.FFront, 3), "mm")
+		add("back focal length f', P' to F'", present.Fixed(c.FBack, 3), "mm")
+		add("focal point F (FFD)", present.Fixed(c.F, 3), front)
+		add("focal point F' (BFD)", present.Fixed(c.FPrime, 3), back)
+		add("principal point P", present.Fixed(c.P, 3), front)
+		add("principal point P'", present.Fixed(c.PPrime, 3), back)
+		add("nodal point N", present.Fixed(c.N, 3), front)
+		add("nodal point N'", present.Fixed(c.NPrime, 3), back)
+		add("anti-principal point, front", present.Fixed(c.AP, 3), front)
+		add("anti-principal point, back", present.Fixed(c.APPrime, 3), back)
+		add("anti-nodal point, front", present.Fixed(c.AN, 3), front)
+		add("anti-nodal point, back", present.Fixed(c.ANPrime, 3), back)
 	}
-	add("edge thickness", mm(r.EdgeThicknessMm), "mm at "+strconv.FormatFloat(r.diameter, 'g', -1, 64)+" mm diameter")
+	add("edge thickness", present.Fixed(r.EdgeThicknessMm, 3), "mm at "+strconv.FormatFloat(r.diameter, 'g', -1, 64)+" mm diameter")
 	for i, m := range r.media {
 		where := fmt.Sprintf("index, surface %d to %d", i, i+1)
 		switch i {
@@ -441,41 +443,38 @@ func figureGrid(r inspection) grid {
 		case len(r.media) - 1:
 			where = "index of image space"
 		}
-		add(where, fixed(r.indices[i], 6), m.Name())
+		add(where, present.Fixed(r.indices[i], 6), m.Name())
 	}
-	g.Rows = append(g.Rows, qualityRows(r)...)
-	return g
+	return textTable([]string{"figure", "value", "unit"}, append(rows, qualityRows(r)...))
 }
 
-// inspectionGrid is one row per part with the JSON keys as header; numbers
-// in full precision, empty for an afocal part's focal quantities.
-func inspectionGrid(rs []inspection) grid {
-	g := grid{Header: []string{"supplier", "part", "reversed", "wavelength_nm", "length_mm", "efl_mm", "f_front_mm", "f_back_mm",
+// inspectionTable is one row per part with the JSON keys as header;
+// numbers in full precision, empty for an afocal part's focal quantities.
+func inspectionTable(rs []inspection) present.Table {
+	keys := []string{"supplier", "part", "reversed", "wavelength_nm", "length_mm", "efl_mm", "f_front_mm", "f_back_mm",
 		"ffd_mm", "bfd_mm", "focal_mm", "focal_prime_mm", "principal_mm", "principal_prime_mm", "nodal_mm", "nodal_prime_mm",
-		"antiprincipal_mm", "antiprincipal_prime_mm", "antinodal_mm", "antinodal_prime_mm", "edge_thickness_mm", "warnings"}}
+		"antiprincipal_mm", "antiprincipal_prime_mm", "antinodal_mm", "antinodal_prime_mm", "edge_thickness_mm", "warnings"}
 	rays := len(rs) > 0 && rs[0].rays != nil
 	if rays {
-		g.Header = append(g.Header, qualityKeys...)
+		keys = append(keys, qualityKeys...)
 	}
-	num := func(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
-	opt := func(p *float64) string {
-		if p == nil {
-			return ""
-		}
-		return num(*p)
+	t := present.Table{}
+	for _, k := range keys {
+		t.Columns = append(t.Columns, present.Column{Key: k, Label: k})
 	}
 	for _, r := range rs {
-		row := []string{r.Supplier, r.Part, strconv.FormatBool(r.Reversed), num(r.WavelengthNm), num(r.LengthMm)}
+		row := []present.Cell{present.Text(r.Supplier), present.Text(r.Part), present.Bool(r.Reversed),
+			present.Num(r.WavelengthNm, 4), present.Num(r.LengthMm, 3)}
 		for _, p := range []*float64{r.EFLMm, r.FFrontMm, r.FBackMm, r.FFDMm, r.BFDMm, r.FocalMm, r.FocalPrimeMm,
 			r.PrincipalMm, r.PrincipalPrimeMm, r.NodalMm, r.NodalPrimeMm, r.AntiPrincipalMm, r.AntiPrincipalPrimeMm,
 			r.AntiNodalMm, r.AntiNodalPrimeMm} {
-			row = append(row, opt(p))
+			row = append(row, present.OptNum(p, 3))
 		}
-		row = append(row, num(r.EdgeThicknessMm), strings.Join(r.Warnings, "; "))
+		row = append(row, present.Num(r.EdgeThicknessMm, 3), present.Text(strings.Join(r.Warnings, "; ")))
 		if rays {
 			row = append(row, qualityCells(r.ImageQuality)...)
 		}
-		g.Rows = append(g.Rows, row)
+		t.Add(row...)
 	}
-	return g
+	return t
 }

@@ -1,6 +1,8 @@
 package main
 
 import (
+	"cardinal/search/present"
+
 	"fmt"
 	"math"
 	"strconv"
@@ -152,21 +154,18 @@ func num(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
 var qualityKeys = []string{"rms_spot_um", "rms_spot_edge_um", "airy_radius_um", "wavefront_rms_waves",
 	"diffraction_limited", "focal_shift_um", "best_focus_shift_mm"}
 
-// qualityCells are the CSV cells of qualityKeys, empty where a figure does
+// qualityCells are the cells of qualityKeys, missing where a figure does
 // not apply or the part was not traced.
-func qualityCells(q *search.ImageQuality) []string {
-	c := make([]string, len(qualityKeys))
+func qualityCells(q *search.ImageQuality) []present.Cell {
+	c := make([]present.Cell, len(qualityKeys))
+	for i := range c {
+		c[i] = present.Cell{Text: present.Missing}
+	}
 	if q == nil {
 		return c
 	}
-	opt := func(p *float64) string {
-		if p == nil {
-			return ""
-		}
-		return num(*p)
-	}
-	c[0], c[1], c[2], c[3] = num(q.RMSSpot), opt(q.RMSSpotEdge), num(q.AiryRadius), num(q.WavefrontRMS)
-	c[4], c[5], c[6] = strconv.FormatBool(q.DiffractionLimited), opt(q.FocalShift), num(q.BestFocusShift)
+	c[0], c[1], c[2], c[3] = present.Num(q.RMSSpot, 2), present.OptNum(q.RMSSpotEdge, 2), present.Num(q.AiryRadius, 2), present.Num(q.WavefrontRMS, 4)
+	c[4], c[5], c[6] = present.Bool(q.DiffractionLimited), present.OptNum(q.FocalShift, 1), present.Num(q.BestFocusShift, 3)
 	return c
 }
 
@@ -180,18 +179,18 @@ func qualityRows(r inspection) [][]string {
 	if q == nil {
 		return [][]string{{"real-ray figures", "-", "not traced (see warnings)"}}
 	}
-	rows := [][]string{{"RMS spot on axis, best focus", fixed(q.RMSSpot, 2), "um"}}
+	rows := [][]string{{"RMS spot on axis, best focus", present.Fixed(q.RMSSpot, 2), "um"}}
 	if q.RMSSpotEdge != nil {
-		rows = append(rows, []string{"RMS spot at the field edge, same plane", fixed(*q.RMSSpotEdge, 2), "um"})
+		rows = append(rows, []string{"RMS spot at the field edge, same plane", present.Fixed(*q.RMSSpotEdge, 2), "um"})
 	}
 	rows = append(rows,
-		[]string{"Airy radius, 1.22 lambda / (2 NA')", fixed(q.AiryRadius, 2), "um"},
-		[]string{"wavefront error, RMS", fixed(q.WavefrontRMS, 4), "waves"},
-		[]string{"diffraction limited", yesNo(q.DiffractionLimited), "Marechal: 0.07 waves RMS or less"})
+		[]string{"Airy radius, 1.22 lambda / (2 NA')", present.Fixed(q.AiryRadius, 2), "um"},
+		[]string{"wavefront error, RMS", present.Fixed(q.WavefrontRMS, 4), "waves"},
+		[]string{"diffraction limited", present.Bool(q.DiffractionLimited).Text, "Marechal: 0.07 waves RMS or less"})
 	if q.FocalShift != nil {
-		rows = append(rows, []string{"focal shift over the band", fixed(*q.FocalShift, 1), "um"})
+		rows = append(rows, []string{"focal shift over the band", present.Fixed(*q.FocalShift, 1), "um"})
 	} else {
 		rows = append(rows, []string{"focal shift over the band", "-", "no --band: one wavelength gives no colour figure"})
 	}
-	return append(rows, []string{"best focus from the paraxial image", mm(q.BestFocusShift), "mm, + away from the part"})
+	return append(rows, []string{"best focus from the paraxial image", present.Fixed(q.BestFocusShift, 3), "mm, + away from the part"})
 }

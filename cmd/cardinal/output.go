@@ -1,14 +1,16 @@
 package main
 
 import (
-	"encoding/csv"
 	"encoding/json"
 	"fmt"
 	"io"
+	"strconv"
 	"strings"
 
-	"github.com/olekukonko/tablewriter"
-	"github.com/olekukonko/tablewriter/tw"
+	"github.com/spf13/pflag"
+	"golang.org/x/sys/unix"
+
+	"cardinal/search/present"
 )
 
 // formats every result-printing command accepts.
@@ -23,61 +25,94 @@ func checkFormat(f string) error {
 	return usageErrorf("unknown --format %q: use one of %s", f, strings.Join(formats, ", "))
 }
 
-// grid is tabular output: the table, csv and md formats.
-type grid struct {
-	Header []string
-	Rows   [][]string
+// outputFlags are the flags every result-printing command shares.
+type outputFlags struct {
+	Format  string
+	Columns []string
+	Wide    bool
 }
 
-// render writes data in the chosen format: the grid for table, csv and md,
-// the value v (snake_case keys with units in the names) for json.
-func render(w io.Writer, format string, g grid, v any) error {
-	switch format {
+// addOutputFlags binds --format and, for tables with optional columns,
+// --columns and --wide.
+func addOutputFlags(f *pflag.FlagSet, o *outputFlags, columns bool) {
+	f.StringVar(&o.Format, "format", "table", "output format: table, json, csv or md")
+	if columns {
+		f.StringSliceVar(&o.Columns, "columns", nil, "columns to show, by key, in this order (see --format csv for the keys)")
+		f.BoolVar(&o.Wide, "wide", false, "show every column, not only the default set")
+	}
+}
+
+// width is the width tables are fitted to: the terminal's columns, else
+// the COLUMNS variable, else present.DefaultWidth.
+func (e *env) width() int {
+	if e.TermWidth > 0 {
+		return e.TermWidth
+	}
+	if n, err := strconv.Atoi(strings.TrimSpace(e.Getenv("COLUMNS"))); err == nil && n > 0 {
+		return n
+	}
+	return present.DefaultWidth
+}
+
+// terminalWidth reads the width of the terminal on fd, 0 when it is not one.
+func terminalWidth(fd uintptr) int {
+	ws, err := unix.IoctlGetWinsize(int(fd), unix.TIOCGWINSZ)
+	if err != nil {
+		return 0
+	}
+	return int(ws.Col)
+}
+
+// render writes a table in the chosen format: JSON is the document v (the
+// command's typed output, snake_case keys with units) unless v is nil or
+// columns were chosen, then the table's rows as objects; a terminal table is
+// fitted to the width, and how it was fitted is said on stderr.
+func render(e *env, w io.Writer, o outputFlags, t present.Table, v any) error {
+	// Data formats carry every column unless some were chosen; tables for
+	// people the default set.
+	data := o.Format == "csv" || o.Format == "json"
+	t, err := t.Select(o.Columns, o.Wide || data, data)
+	if err != nil {
+		return usageErrorf("--columns: %v", err)
+	}
+	switch o.Format {
 	case "json":
+		if v == nil || len(o.Columns) > 0 {
+			return present.WriteJSON(w, t)
+		}
 		enc := json.NewEncoder(w)
 		enc.SetIndent("", "  ")
 		return enc.Encode(v)
 	case "csv":
-		cw := csv.NewWriter(w)
-		if err := cw.Write(g.Header); err != nil {
-			return err
-		}
-		if err := cw.WriteAll(g.Rows); err != nil {
-			return err
-		}
-		return cw.Error()
+		return present.WriteCSV(w, t)
 	case "md":
-		fmt.Fprintf(w, "| %s |\n", strings.Join(mdEscape(g.Header), " | "))
-		fmt.Fprintf(w, "|%s\n", strings.Repeat(" --- |", len(g.Header)))
-		for _, r := range g.Rows {
-			fmt.Fprintf(w, "| %s |\n", strings.Join(mdEscape(r), " | "))
-		}
-		return nil
-	default:
-		t := tablewriter.NewTable(w, tablewriter.WithHeaderAutoFormat(tw.Off), tablewriter.WithRowAutoWrap(tw.WrapNone))
-		t.Header(g.Header)
-		if err := t.Bulk(g.Rows); err != nil {
-			return err
-		}
-		return t.Render()
+		return present.WriteMarkdown(w, t)
 	}
+	fit, err := present.WriteTerminal(w, t, e.width())
+	if n := fit.Note(); n != "" && err == nil {
+		note(e, n)
+	}
+	return err
 }
 
-func mdEscape(cells []string) []string {
-	out := make([]string, len(cells))
-	for i, c := range cells {
-		out[i] = strings.ReplaceAll(strings.ReplaceAll(c, "|", `\|`), "\n", " ")
-	}
-	return out
+// note writes one line for people on stderr, wrapped to the width.
+func note(e *env, s string) {
+	fmt.Fprintln(e.Err, present.Wrap(s, e.width()))
 }
 
-// mm formats a length for people: fixed decimals, no "-0.000".
-func mm(v float64) string { return fixed(v, 3) }
-
-func fixed(v float64, decimals int) string {
-	s := fmt.Sprintf("%.*f", decimals, v)
-	if strings.Trim(s, "-0.") == "" {
-		s = strings.TrimPrefix(s, "-")
+// textTable is a table of text for people (the inspect blocks): every cell
+// is its own raw value.
+func textTable(header []string, rows [][]string) present.Table {
+	t := present.Table{}
+	for _, h := range header {
+		t.Columns = append(t.Columns, present.Column{Key: h, Label: h})
 	}
-	return s
+	for _, r := range rows {
+		cells := make([]present.Cell, len(r))
+		for i, c := range r {
+			cells[i] = present.Text(c)
+		}
+		t.Add(cells...)
+	}
+	return t
 }

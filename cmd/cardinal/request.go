@@ -1,6 +1,8 @@
 package main
 
 import (
+	"cardinal/search/present"
+
 	"context"
 	"encoding/json"
 	"errors"
@@ -120,7 +122,7 @@ func runRequest(o *requestOptions) error {
 	if err != nil {
 		return err
 	}
-	if err := writeRequest(w, o.Format, rq); err != nil {
+	if err := writeRequest(o.env, w, o.Format, rq); err != nil {
 		w.Close()
 		return err
 	}
@@ -130,10 +132,10 @@ func runRequest(o *requestOptions) error {
 // writeRequest writes the request in a format: JSON as the Request value,
 // CSV through the injection-safe writer, table and md with the notes
 // (requirement, spacings, cautions) above the table.
-func writeRequest(w io.Writer, format string, rq export.Request) error {
+func writeRequest(e *env, w io.Writer, format string, rq export.Request) error {
 	switch format {
 	case "json":
-		return render(w, "json", grid{}, rq)
+		return render(e, w, outputFlags{Format: format}, present.Table{}, rq)
 	case "csv":
 		return rq.WriteCSV(w)
 	}
@@ -147,7 +149,7 @@ func writeRequest(w io.Writer, format string, rq export.Request) error {
 		}
 	}
 	fmt.Fprintln(w)
-	return render(w, format, grid{Header: export.RequestHeader, Rows: rq.Rows()}, nil)
+	return render(e, w, outputFlags{Format: format}, textTable(export.RequestHeader, rq.Rows()), nil)
 }
 
 // savedSearch is a saved search with the picked results and what the

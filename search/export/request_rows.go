@@ -5,6 +5,8 @@ import (
 	"io"
 	"strconv"
 	"strings"
+
+	"cardinal/search/present"
 )
 
 // RequestHeader names the columns of a request's rows.
@@ -59,11 +61,11 @@ func (r Request) Notes() [][2]string {
 }
 
 // WriteCSV writes the request as CSV a spreadsheet can open safely (see
-// SafeCell): the header, the rows, an empty row, then the notes as
+// present.SafeCell): the header, the rows, an empty row, then the notes as
 // name,text rows; every row has the header's number of cells, so that a
 // strict CSV reader takes it.
 func (r Request) WriteCSV(w io.Writer) error {
-	c := NewSafeCSV(w)
+	c := present.NewSafeCSV(w)
 	rows := append([][]string{RequestHeader}, r.Rows()...)
 	rows = append(rows, nil)
 	for _, n := range r.Notes() {

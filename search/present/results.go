@@ -1,0 +1,210 @@
+package present
+
+import (
+	"math"
+	"slices"
+	"strings"
+
+	"cardinal/search"
+)
+
+// Results describes find's results (and the nearest misses) once: the
+// columns every format shows, their keys the JSON keys of search.Result.
+// The default set depends on the requirement's kind; the real-ray columns
+// are there only when a result was traced, the edge spot and the focal
+// shift only when a field or a band was given.
+func Results(req search.Requirement, rs []search.Result) Table {
+	anyFails := false
+	for _, r := range rs {
+		anyFails = anyFails || !r.Meets
+	}
+	cols := resultColumns(req, rs, search.ShownQuality(rs), anyFails)
+	t := Table{Columns: make([]Column, len(cols))}
+	for i, c := range cols {
+		t.Columns[i] = c.Column
+	}
+	for _, r := range rs {
+		row := make([]Cell, len(cols))
+		for i, c := range cols {
+			row[i] = c.cell(r)
+		}
+		t.Add(row...)
+	}
+	return t
+}
+
+// resultColumn is a column and how a result fills it.
+type resultColumn struct {
+	Column
+	cell func(search.Result) Cell
+}
+
+func resultColumns(req search.Requirement, rs []search.Result, qs search.QualityShown, anyFails bool) []resultColumn {
+	focus, image, expand := req.Kind == search.Focus, req.Kind == search.Image, req.Kind == search.Expand
+	cols := []resultColumn{
+		{Column{Key: "rank", Label: "#"}, func(r search.Result) Cell { return Int(r.Rank) }},
+		{Column{Key: "parts", Label: "parts"}, func(r search.Result) Cell { return Text(PartsText(r.Parts)) }},
+		{Column{Key: "working_distance_mm", Label: "wd", Unit: "mm", Optional: !image},
+			func(r search.Result) Cell { return OptNum(r.WorkingDistance, 2) }},
+		{Column{Key: "gap_mm", Label: "gap", Unit: "mm"}, func(r search.Result) Cell { return OptNum(r.Gap, 2) }},
+		{Column{Key: "back_clearance_mm", Label: "back", Unit: "mm", Optional: expand},
+			func(r search.Result) Cell { return OptNum(r.BackClearance, 2) }},
+		{Column{Key: "envelope_mm", Label: "envelope", Unit: "mm", Optional: !expand},
+			func(r search.Result) Cell { return Num(r.Envelope, 2) }},
+		{Column{Key: "track_mm", Label: "track", Unit: "mm", Optional: !image},
+			func(r search.Result) Cell { return OptNum(r.Track, 2) }},
+		{Column{Key: "efl_mm", Label: "EFL", Unit: "mm", Optional: !focus}, func(r search.Result) Cell { return OptNum(r.EFL, 3) }},
+		{Column{Key: "magnification", Label: "mag", Optional: !image},
+			func(r search.Result) Cell { return OptNum(r.Magnification, 4) }},
+		{Column{Key: "expansion", Label: "expansion", Optional: !expand},
+			func(r search.Result) Cell { return OptNum(r.Expansion, 3) }},
+		{Column{Key: "form", Label: "form", Optional: !expand}, func(r search.Result) Cell { return Text(string(r.Form)) }},
+		{Column{Key: "error_pct", Label: "error", Unit: "%"}, func(r search.Result) Cell { return errorCell(r.ErrorPct) }},
+	}
+	cols = append(cols, qualityColumns(qs)...)
+	cols = append(cols,
+		resultColumn{Column{Key: "failed_checks", Label: "checks", Optional: !anyFails}, checksCell},
+		resultColumn{Column{Key: "price", Label: "price", TextOnly: true}, priceCell})
+	cols = append(cols, priceColumns(rs)...)
+	return append(cols,
+		resultColumn{Column{Key: "pieces_to_order", Label: "to order", Optional: true},
+			func(r search.Result) Cell { return Int(r.ToOrder) }},
+		resultColumn{Column{Key: "in_drawer", Label: "drawer"}, func(r search.Result) Cell { return Bool(r.InDrawer) }},
+		resultColumn{Column{Key: "score", Label: "score", Optional: true}, func(r search.Result) Cell { return Num(r.Score, 3) }},
+		resultColumn{Column{Key: "reason", Label: "why", Note: true}, func(r search.Result) Cell { return Text(r.Reason) }},
+	)
+}
+
+// qualityColumns are the real-ray figures: none when no result was traced.
+func qualityColumns(qs search.QualityShown) []resultColumn {
+	if !qs.Any {
+		return nil
+	}
+	q := func(f func(*search.ImageQuality) Cell) func(search.Result) Cell {
+		return func(r search.Result) Cell {
+			if r.ImageQuality == nil {
+				return Cell{Text: Missing}
+			}
+			return f(r.ImageQuality)
+		}
+	}
+	cols := []resultColumn{
+		{Column{Key: "rms_spot_um", Label: "spot", Unit: "µm"}, q(func(iq *search.ImageQuality) Cell { return Num(iq.RMSSpot, 1) })},
+		{Column{Key: "rms_spot_edge_um", Label: "edge spot", Unit: "µm", Optional: !qs.Edge},
+			q(func(iq *search.ImageQuality) Cell { return OptNum(iq.RMSSpotEdge, 1) })},
+		{Column{Key: "airy_radius_um", Label: "Airy", Unit: "µm", Optional: true}, q(func(iq *search.ImageQuality) Cell { return Num(iq.AiryRadius, 1) })},
+		{Column{Key: "wavefront_rms_waves", Label: "wavefront", Unit: "waves", Optional: true},
+			q(func(iq *search.ImageQuality) Cell { return Num(iq.WavefrontRMS, 3) })},
+		{Column{Key: "diffraction_limited", Label: "diffraction limited"},
+			q(func(iq *search.ImageQuality) Cell { return Bool(iq.DiffractionLimited) })},
+		{Column{Key: "focal_shift_um", Label: "focal shift", Unit: "µm", Optional: !qs.Colour},
+			q(func(iq *search.ImageQuality) Cell { return OptNum(iq.FocalShift, 0) })},
+		{Column{Key: "best_focus_shift_mm", Label: "best focus", Unit: "mm", Optional: true},
+			q(func(iq *search.ImageQuality) Cell { return Num(iq.BestFocusShift, 3) })},
+	}
+	return cols
+}
+
+// PartsText names the parts in light order, "(reversed)" after a part
+// that is turned around.
+func PartsText(ps []search.PartUse) string {
+	s := make([]string, len(ps))
+	for i, p := range ps {
+		s[i] = p.ID()
+		if p.Reversed {
+			s[i] += " (reversed)"
+		}
+	}
+	return strings.Join(s, " + ")
+}
+
+// errorCell is the error in percent of the target, "0" within rounding.
+func errorCell(pct float64) Cell {
+	if math.IsNaN(pct) || math.IsInf(pct, 0) {
+		return Cell{Text: Missing}
+	}
+	c := Cell{Text: Signed(pct), Raw: pct}
+	return c
+}
+
+// Signed is a percentage with a sign and two significant figures, "0"
+// within rounding: how an error reads in a table.
+func Signed(pct float64) string {
+	if math.Abs(pct) < 5e-4 {
+		return "0"
+	}
+	s := Fixed(pct, 2)
+	if a := math.Abs(pct); a < 0.1 {
+		s = Fixed(pct, 4)
+	} else if a < 1 {
+		s = Fixed(pct, 3)
+	}
+	if pct > 0 {
+		s = "+" + s
+	}
+	return s
+}
+
+// ChecksText is "all met", or the checks a layout fails.
+func ChecksText(r search.Result) string {
+	var bad []string
+	for _, c := range r.Checks {
+		if !c.OK {
+			bad = append(bad, c.Name)
+		}
+	}
+	if len(bad) == 0 {
+		return "all met"
+	}
+	return "fails " + strings.Join(bad, ", ")
+}
+
+func checksCell(r search.Result) Cell {
+	t := ChecksText(r)
+	if t == "all met" {
+		return Cell{Text: t, Raw: ""}
+	}
+	return Cell{Text: t, Raw: strings.TrimPrefix(t, "fails ")}
+}
+
+// PriceText is the price of every piece, one amount per currency (never
+// summed across currencies), "?" for a price not stated.
+func PriceText(r search.Result) string {
+	switch {
+	case len(r.Prices) == 0:
+		return "?"
+	case r.PriceUnknown:
+		return search.AmountsText(r.Prices) + " + ?"
+	}
+	return search.AmountsText(r.Prices)
+}
+
+func priceCell(r search.Result) Cell { return Cell{Text: PriceText(r)} }
+
+// priceColumns hold the price in each currency the results use, one plain
+// number per cell (price_XTS): what a spreadsheet reads in place of the
+// text of the price column.
+func priceColumns(rs []search.Result) []resultColumn {
+	var cur []string
+	for _, r := range rs {
+		for _, a := range r.Prices {
+			if !slices.Contains(cur, a.Currency) {
+				cur = append(cur, a.Currency)
+			}
+		}
+	}
+	slices.Sort(cur)
+	cols := make([]resultColumn, len(cur))
+	for i, c := range cur {
+		cols[i] = resultColumn{Column{Key: "price_" + c, Label: "price", Unit: c, Optional: true},
+			func(r search.Result) Cell {
+				for _, a := range r.Prices {
+					if a.Currency == c {
+						return Num(a.Amount, 2)
+					}
+				}
+				return Cell{Text: Missing}
+			}}
+	}
+	return cols
+}
