@@ -37,6 +37,11 @@
 //	           with computed values, worked out again when a glass changes)
 //	drawer     part_id, quantity, location
 //	searches   id, kind, requirement and results (JSON), created_at (RFC 3339)
+//	search_index
+//	           derived data: one packed record per part (id_key
+//	           SUPPLIER:PART, part_id, record) with what the first-order
+//	           search needs, read in one sequential pass by SearchIndex
+//	           (index.go documents the record; RebuildIndex writes it anew)
 //
 // The view part_summary shows one readable row per part with its forward
 // computed columns, power in dioptres, drawer quantity and warning count.
@@ -48,5 +53,7 @@
 // nothing and lists every problem with its line; importing the same rows
 // again changes nothing; a changed row is updated and recomputed; a changed
 // glass recomputes every part that uses it. The computed columns come from
-// package optics, the same code that inspect and search use.
+// package optics, the same code that inspect and search use. The search
+// index is written in the same transactions as the rows it is derived
+// from (and built by the migration that adds it), so it is never stale.
 package catalog

@@ -105,6 +105,9 @@ func recomputeUsing(ctx context.Context, tx *sql.Tx, names []string) ([]string, 
 		if err := writeWarnings(ctx, w, ids[i], importers.ComputedWarnings(e), true); err != nil {
 			return nil, err
 		}
+		if err := writeIndexRow(ctx, w, ids[i], e); err != nil {
+			return nil, err
+		}
 		out = append(out, e.Part.ID())
 	}
 	return out, nil

@@ -43,7 +43,7 @@ func (s *Store) Import(ctx context.Context, entries []importers.Entry, dryRun bo
 	w := newTxWriter(tx)
 	for _, en := range entries {
 		e := newStoredEntry(en)
-		what, err := upsert(ctx, w, e)
+		what, err := upsert(ctx, w, e, glasses)
 		if err != nil {
 			return rep, s.wrapWriteError(fmt.Errorf("line %d: %s: %w", e.Line, e.Part.ID(), err))
 		}
@@ -74,21 +74,21 @@ const (
 )
 
 // upsert stores one entry unless the stored part is identical.
-func upsert(ctx context.Context, tx *txWriter, e storedEntry) (upsertResult, error) {
+func upsert(ctx context.Context, tx *txWriter, e storedEntry, glasses optics.GlassTable) (upsertResult, error) {
 	var id int64
 	var fp string
 	err := tx.QueryRowContext(ctx, "SELECT id, fingerprint FROM parts WHERE supplier = ? AND part = ?",
 		e.Part.Supplier, e.Part.Name).Scan(&id, &fp)
 	switch {
 	case errors.Is(err, sql.ErrNoRows):
-		_, err = writePart(ctx, tx, 0, e)
+		_, err = writePart(ctx, tx, 0, e, glasses)
 		return added, err
 	case err != nil:
 		return unchanged, err
 	case fp == e.fingerprint:
 		return unchanged, nil
 	}
-	_, err = writePart(ctx, tx, id, e)
+	_, err = writePart(ctx, tx, id, e, glasses)
 	return updated, err
 }
 

@@ -2,10 +2,12 @@ package catalog
 
 import (
 	"context"
+	"database/sql"
 	"embed"
 	"fmt"
 	"io/fs"
 	"sort"
+	"strings"
 )
 
 // The schema migrations, numbered from 1 in their file names
@@ -17,22 +19,37 @@ var migrationFS embed.FS
 
 var migrations = loadMigrations()
 
-func loadMigrations() []string {
+// A migration is one numbered script, and the name it has after its
+// number (search_index.sql).
+type migration struct {
+	name, script string
+}
+
+// migrationHooks run after the script of every migration whose name
+// contains their key, in the same transaction: the work SQL alone cannot
+// do. A migration that empties search_index (its name containing
+// "search_index") has the index rebuilt from the readable tables.
+var migrationHooks = map[string]func(context.Context, *sql.Tx) error{
+	"search_index": rebuildIndex,
+}
+
+func loadMigrations() []migration {
 	names, err := fs.Glob(migrationFS, "migrations/*.sql")
 	if err != nil {
 		panic("catalog: " + err.Error())
 	}
 	sort.Strings(names)
-	out := make([]string, len(names))
+	out := make([]migration, len(names))
 	for i, n := range names {
-		if want := fmt.Sprintf("migrations/%04d_", i+1); len(n) < len(want) || n[:len(want)] != want {
+		want := fmt.Sprintf("migrations/%04d_", i+1)
+		if len(n) < len(want) || n[:len(want)] != want {
 			panic(fmt.Sprintf("catalog: migration %s is out of sequence, want %s*.sql", n, want))
 		}
 		b, err := migrationFS.ReadFile(n)
 		if err != nil {
 			panic("catalog: " + err.Error())
 		}
-		out[i] = string(b)
+		out[i] = migration{name: n[len(want):], script: string(b)}
 	}
 	return out
 }
@@ -52,7 +69,7 @@ func (s *Store) migrate(ctx context.Context, version int) error {
 	return nil
 }
 
-func (s *Store) applyMigration(ctx context.Context, version int, script string) error {
+func (s *Store) applyMigration(ctx context.Context, version int, m migration) error {
 	tx, err := s.db.BeginTx(ctx, nil)
 	if err != nil {
 		return err
@@ -66,8 +83,15 @@ func (s *Store) applyMigration(ctx context.Context, version int, script string) 
 	if current >= version {
 		return nil
 	}
-	if _, err := tx.ExecContext(ctx, script); err != nil {
+	if _, err := tx.ExecContext(ctx, m.script); err != nil {
 		return fmt.Errorf("migration %d: %w", version, err)
+	}
+	for key, hook := range migrationHooks {
+		if strings.Contains(m.name, key) {
+			if err := hook(ctx, tx); err != nil {
+				return fmt.Errorf("migration %d: %w", version, err)
+			}
+		}
 	}
 	// PRAGMA takes no placeholders; version is our own integer.
 	if _, err := tx.ExecContext(ctx, fmt.Sprintf("PRAGMA user_version = %d", version)); err != nil {

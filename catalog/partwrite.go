@@ -31,8 +31,9 @@ func (s storedEntry) warnings() []string {
 
 // writePart stores an entry inside tx: a new part when id is 0, otherwise
 // the part with that id replaced (its drawer row is kept). Its surfaces,
-// warnings and computed columns are written anew. It returns the part id.
-func writePart(ctx context.Context, tx *txWriter, id int64, e storedEntry) (int64, error) {
+// warnings, computed columns and search index record are written anew.
+// It returns the part id.
+func writePart(ctx context.Context, tx *txWriter, id int64, e storedEntry, glasses optics.GlassTable) (int64, error) {
 	p := e.Part
 	cols := []any{p.Description, p.Diameter, p.ClearAperture, kindOf(p),
 		nullIfZero(e.StatedEFL), nullIfZero(e.StatedBFD), nullIfZero(e.StatedEdge),
@@ -71,7 +72,12 @@ func writePart(ctx context.Context, tx *txWriter, id int64, e storedEntry) (int6
 	if err := writeWarnings(ctx, tx, id, e.computed, true); err != nil {
 		return 0, err
 	}
-	return id, writeComputed(ctx, tx, id, p)
+	if err := writeComputed(ctx, tx, id, p); err != nil {
+		return 0, err
+	}
+	indexed := e.Entry
+	indexed.Part = catalogMedia(p, glasses)
+	return id, writeIndexRow(ctx, tx, id, indexed)
 }
 
 func writeSurfaces(ctx context.Context, tx *txWriter, id int64, p optics.Part) error {

@@ -95,7 +95,7 @@ func mustImport(t *testing.T, s *Store, es []importers.Entry) ImportReport {
 func checksum(t *testing.T, s *Store) string {
 	t.Helper()
 	h := sha256.New()
-	for _, table := range []string{"parts", "surfaces", "glasses", "computed", "warnings", "drawer", "searches"} {
+	for _, table := range []string{"parts", "surfaces", "glasses", "computed", "warnings", "drawer", "searches", "search_index"} {
 		rows, err := s.db.QueryContext(ctx, "SELECT * FROM "+table+" ORDER BY 1, 2")
 		if err != nil {
 			t.Fatal(err)

@@ -49,7 +49,12 @@ type cand struct {
 
 // prepared holds the candidates of one search and what was set aside.
 type prepared struct {
-	items     []Item
+	info []partInfo // per item
+	// full returns an item's full prescription; fetch, when not nil, must
+	// first be given the items whose prescriptions will be asked for (the
+	// index path reads them from the catalog then).
+	full      func(item int32) optics.Part
+	fetch     func(items []int32) error
 	cands     []cand // sorted by power
 	skipped   map[string]int
 	surfs     []optics.Surface // outer surfaces of the candidates, two each
@@ -58,24 +63,49 @@ type prepared struct {
 	priceRefs map[string]float64 // median price by currency
 }
 
+// partInfo is what the output says of an item besides its figures.
+type partInfo struct {
+	supplier, name, currency string
+	price                    float64
+}
+
 // prepare filters the items by the requirement's part constraints and
 // computes the candidates at the requirement's wavelength, in chunks over
 // the processors, merged in item order.
 func prepare(items []Item, req Requirement) *prepared {
 	keys := idRanks(items)
-	workers := max(1, min(runtime.GOMAXPROCS(0), 4, len(items)/1000))
+	info := make([]partInfo, len(items))
+	for i, it := range items {
+		e := &it.Entry
+		info[i] = partInfo{supplier: e.Part.Supplier, name: e.Part.Name, currency: e.Currency, price: e.Price}
+	}
+	p := inChunks(len(items), func(lo, hi int) *prepared { return prepareChunk(items, keys, lo, hi, req) })
+	p.info = info
+	p.full = func(i int32) optics.Part { return items[i].Entry.Part }
+	p.finish(req)
+	return p
+}
+
+// inChunks runs chunk over [0, n) in pieces on the processors and merges
+// what they prepared, in order.
+func inChunks(n int, chunk func(lo, hi int) *prepared) *prepared {
+	workers := max(1, min(runtime.GOMAXPROCS(0), 4, n/1000))
 	parts := make([]*prepared, workers)
 	var wg sync.WaitGroup
 	for k := range parts {
-		lo, hi := k*len(items)/workers, (k+1)*len(items)/workers
+		lo, hi := k*n/workers, (k+1)*n/workers
 		wg.Add(1)
 		go func(k int) {
 			defer wg.Done()
-			parts[k] = prepareChunk(items, keys, lo, hi, req)
+			parts[k] = chunk(lo, hi)
 		}(k)
 	}
 	wg.Wait()
-	p := &prepared{items: items, skipped: map[string]int{}, cands: make([]cand, 0, 2*len(items))}
+	total := 0
+	for _, q := range parts {
+		total += len(q.cands)
+	}
+	p := &prepared{skipped: map[string]int{}, cands: make([]cand, 0, total), surfs: make([]optics.Surface, 0, 2*total)}
 	outside := map[string]bool{}
 	for _, q := range parts {
 		for _, c := range q.cands {
@@ -93,20 +123,24 @@ func prepare(items []Item, req Requirement) *prepared {
 			}
 		}
 	}
+	return p
+}
+
+// finish words the warnings, prices the candidates and sorts them.
+func (p *prepared) finish(req Requirement) {
 	if len(p.outside) > 0 {
 		sort.Strings(p.outside)
 		p.warnings = append(p.warnings, fmt.Sprintf("%g nm is outside the range of the dispersion formulas of %s: their indices are extrapolated",
 			req.Lambda(), strings.Join(p.outside, ", ")))
 	}
-	p.priceRefs = priceReferences(items)
+	p.priceRefs = priceReferences(p.info)
 	for i := range p.cands {
 		c := &p.cands[i]
-		e := items[c.item].Entry
-		c.unit = priceTerm(e.Price, e.Currency, p.priceRefs)
+		e := &p.info[c.item]
+		c.unit = priceTerm(e.price, e.currency, p.priceRefs)
 		c.price = c.unit * c.away
 	}
 	p.cands = byTier(p.cands)
-	return p
 }
 
 // prepareChunk computes the candidates of items[lo:hi].
@@ -130,7 +164,7 @@ func prepareChunk(items []Item, keys []int32, lo, hi int, req Requirement) *prep
 			continue
 		}
 		first, last := part.Surfaces[0], part.Surfaces[len(part.Surfaces)-1]
-		p.add(c, part.Aperture()/2, first, last, it, int32(i), keys[i], false)
+		p.add(c, part.Aperture()/2, first, last, it.Drawer, int32(i), keys[i], false)
 		if !part.Symmetric() {
 			// The part turned around, in air: its reduced matrix is
 			// [D B; C A] (reversibility of paraxial rays; Gerrard and
@@ -138,17 +172,18 @@ func prepareChunk(items []Item, keys []int32, lo, hi int, req Requirement) *prep
 			m := c.Matrix
 			rc := optics.FromMatrix(optics.Mat2{A: m.D, B: m.B, C: m.C, D: m.A}, 1, 1)
 			rc.Length = c.Length
-			p.add(rc, part.Aperture()/2, last.Reversed(), first.Reversed(), it, int32(i), keys[i], true)
+			p.add(rc, part.Aperture()/2, last.Reversed(), first.Reversed(), it.Drawer, int32(i), keys[i], true)
 		}
 	}
 	return p
 }
 
 // add appends the candidate of one part in one orientation, by its
-// cardinal points c in air, its clear semi-aperture and its outer surfaces.
-func (p *prepared) add(c optics.Cardinal, semi float64, first, last optics.Surface, it Item, item, key int32, rev bool) {
+// cardinal points c in air, its clear semi-aperture, its outer surfaces and
+// the pieces in the drawer.
+func (p *prepared) add(c optics.Cardinal, semi float64, first, last optics.Surface, qty int, item, key int32, rev bool) {
 	p.cands = append(p.cands, cand{
-		item: item, rev: rev, key: key, qty: it.Drawer, away: float64(b2i(it.Drawer < 1)),
+		item: item, rev: rev, key: key, qty: qty, away: float64(b2i(qty < 1)),
 		phi: c.Power, f: c.EFL, L: c.Length,
 		P: c.P, Pp: c.PPrime, F: c.F, Fp: c.FPrime,
 		delta:    c.Length + c.PPrime - c.P,
@@ -169,23 +204,38 @@ func (p *prepared) warn(sys optics.System, lambda float64, warned map[string]boo
 		}
 		warned[m.Name()] = true
 		if lo, hi := m.Range(); optics.RangeWarning(m, lambda) != "" {
-			p.outside = append(p.outside, fmt.Sprintf("%s (%.0f-%.0f nm)", m.Name(), lo, hi))
+			p.outside = append(p.outside, rangeNote(m.Name(), lo, hi))
 		}
 	}
+}
+
+// rangeNote names a medium with the range of its dispersion formula.
+func rangeNote(name string, lo, hi float64) string {
+	return fmt.Sprintf("%s (%.0f-%.0f nm)", name, lo, hi)
 }
 
 // filter tells why an item takes no part in the search, or "".
 func (p *prepared) filter(it Item, req Requirement) string {
 	part := it.Entry.Part
-	switch {
-	case req.Supplier != "" && !strings.EqualFold(part.Supplier, req.Supplier):
-		return "other supplier"
-	case req.DrawerOnly && it.Drawer < 1:
-		return "not in the drawer"
-	case req.DiameterMax > 0 && part.Diameter > req.DiameterMax:
-		return fmt.Sprintf("diameter over %g mm", req.DiameterMax)
-	case part.Validate() != nil:
+	if r := setAside(part.Supplier, part.Diameter, it.Drawer, req); r != "" {
+		return r
+	}
+	if part.Validate() != nil {
 		return "invalid prescription"
+	}
+	return ""
+}
+
+// setAside tells why a part of this supplier, diameter and drawer quantity
+// takes no part in the search, or "".
+func setAside(supplier string, diameter float64, qty int, req Requirement) string {
+	switch {
+	case req.Supplier != "" && !strings.EqualFold(supplier, req.Supplier):
+		return "other supplier"
+	case req.DrawerOnly && qty < 1:
+		return "not in the drawer"
+	case req.DiameterMax > 0 && diameter > req.DiameterMax:
+		return fmt.Sprintf("diameter over %g mm", req.DiameterMax)
 	}
 	return ""
 }

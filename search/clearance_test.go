@@ -56,7 +56,7 @@ func TestRayHeightsThin(t *testing.T) {
 	s := newSearch(p, req, limitsOf(req), 0)
 	var ia, ib int32 = -1, -1
 	for i, c := range p.cands {
-		switch p.items[c.item].Entry.Part.Name {
+		switch p.info[c.item].name {
 		case "A":
 			ia = int32(i)
 		case "B":

@@ -80,6 +80,17 @@ func demoItems(t testing.TB) []Item {
 // demo catalog, for the requirements of the issue and their variants.
 func TestPrunedEqualsExhaustiveDemo(t *testing.T) {
 	its := demoItems(t)
+	for name, r := range demoRequirements() {
+		t.Run(name, func(t *testing.T) {
+			out := samePruned(t, its, r)
+			t.Logf("%d results, %d pairs solved of %d", len(out.Results), out.Evaluated, out.Candidates*out.Candidates)
+		})
+	}
+}
+
+// demoRequirements are the requirements of the README's examples and
+// their variants.
+func demoRequirements() map[string]Requirement {
 	focus := focusReq(75)
 	focus.Beam, focus.BFDMin, focus.Wavelength, focus.Top = 6, 40, 1064, 10
 	img := imageReq(300, -0.36)
@@ -99,13 +110,11 @@ func TestPrunedEqualsExhaustiveDemo(t *testing.T) {
 		drawer := r
 		drawer.DrawerOnly, drawer.Prefer = true, PreferDraw
 		reqs[name+" drawer"] = drawer
+		dline := r
+		dline.Wavelength = 0
+		reqs[name+" d line"] = dline
 	}
-	for name, r := range reqs {
-		t.Run(name, func(t *testing.T) {
-			out := samePruned(t, its, r)
-			t.Logf("%d results, %d pairs solved of %d", len(out.Results), out.Evaluated, out.Candidates*out.Candidates)
-		})
-	}
+	return reqs
 }
 
 // randomRequirement draws a requirement of any kind with random limits.

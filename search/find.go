@@ -40,7 +40,11 @@ func run(items []Item, req Requirement, prune bool) (Outcome, error) {
 	if err := req.Validate(); err != nil {
 		return Outcome{}, err
 	}
-	p := prepare(items, req)
+	return runPrepared(prepare(items, req), req, prune)
+}
+
+// runPrepared searches the prepared candidates.
+func runPrepared(p *prepared, req Requirement, prune bool) (Outcome, error) {
 	s := newSearch(p, req, limitsOf(req), survivors(req))
 	if prune {
 		s.pruned()
@@ -52,6 +56,9 @@ func run(items []Item, req Requirement, prune bool) (Outcome, error) {
 	met, traced := len(ls), 0
 	var js []judgement
 	if req.TracesRays() {
+		if err := s.fetchJudged(p, ls); err != nil {
+			return Outcome{}, err
+		}
 		ls, js, traced = s.judge(p, ls)
 	}
 	for k := range ls {

@@ -222,7 +222,7 @@ func (s *search) system(p *prepared, l *layout) optics.System {
 // part is candidate i's part, turned as the candidate is.
 func (s *search) part(p *prepared, i int32) optics.Part {
 	c := &s.c[i]
-	part := p.items[c.item].Entry.Part
+	part := p.full(c.item)
 	if c.rev {
 		part = part.Reversed()
 	}

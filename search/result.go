@@ -163,20 +163,20 @@ func (s *search) fillParts(p *prepared, r *Result, idx []int32) {
 	used := map[int32]int{}
 	for _, ci := range idx {
 		c := &s.c[ci]
-		e := p.items[c.item].Entry
-		r.Parts = append(r.Parts, PartUse{Supplier: e.Part.Supplier, Part: e.Part.Name, Reversed: c.rev})
+		e := &p.info[c.item]
+		r.Parts = append(r.Parts, PartUse{Supplier: e.supplier, Part: e.name, Reversed: c.rev})
 		used[c.item]++
 		order := used[c.item] > c.qty
 		if order {
 			r.ToOrder++
 		}
-		if !(e.Price > 0) {
+		if !(e.price > 0) {
 			r.PriceUnknown = true
 			continue
 		}
-		r.Prices = addAmount(r.Prices, e.Price, e.Currency)
+		r.Prices = addAmount(r.Prices, e.price, e.currency)
 		if order {
-			r.OrderPrices = addAmount(r.OrderPrices, e.Price, e.Currency)
+			r.OrderPrices = addAmount(r.OrderPrices, e.price, e.currency)
 		}
 	}
 	r.InDrawer = r.ToOrder == 0

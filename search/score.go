@@ -82,11 +82,11 @@ func refLength(r Requirement) float64 {
 
 // priceReferences are the medians of the stated prices, by currency (the
 // empty currency is a currency of its own).
-func priceReferences(items []Item) map[string]float64 {
+func priceReferences(info []partInfo) map[string]float64 {
 	by := map[string][]float64{}
-	for _, it := range items {
-		if it.Entry.Price > 0 {
-			by[it.Entry.Currency] = append(by[it.Entry.Currency], it.Entry.Price)
+	for i := range info {
+		if e := &info[i]; e.price > 0 {
+			by[e.currency] = append(by[e.currency], e.price)
 		}
 	}
 	refs := make(map[string]float64, len(by))

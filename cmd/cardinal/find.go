@@ -259,13 +259,9 @@ func runFind(o *findOptions) error {
 	}
 	defer st.Close()
 	ctx := context.Background()
-	items, err := loadItems(ctx, st, o.Req)
+	out, err := findIndexed(ctx, st, o.Req)
 	if err != nil {
 		return err
-	}
-	out, err := search.Find(items, o.Req)
-	if err != nil {
-		return usageErrorf("%v", err)
 	}
 	doc := findOutput{Requirement: out.Requirement, Results: out.Results, Why: out.Why, Misses: out.Misses,
 		Notes: append(append([]string(nil), out.Notes...), export.Cautions(o.Req)...)}
@@ -279,17 +275,23 @@ func runFind(o *findOptions) error {
 	return render(e, e.Out, o.out, present.Results(o.Req, out.Results), doc)
 }
 
-// loadItems reads the parts the requirement may use, with the drawer.
-func loadItems(ctx context.Context, st *catalog.Store, req search.Requirement) ([]search.Item, error) {
-	entries, err := st.Entries(ctx, catalog.Filter{InDrawer: req.DrawerOnly})
-	if err != nil {
-		return nil, catalogError(err)
+// findIndexed runs the search on the catalog's search index, which holds
+// every part the requirement may use (the drawer's only, for --drawer-only),
+// and closes the index before the run is saved.
+func findIndexed(ctx context.Context, st *catalog.Store, req search.Requirement) (search.Outcome, error) {
+	if err := req.Validate(); err != nil {
+		return search.Outcome{}, usageErrorf("%v", err)
 	}
-	drawer, err := st.Drawer(ctx)
+	ix, err := st.SearchIndex(ctx, catalog.IndexOptions{InDrawer: req.DrawerOnly})
 	if err != nil {
-		return nil, catalogError(err)
+		return search.Outcome{}, catalogError(err)
 	}
-	return search.Items(entries, drawer), nil
+	defer ix.Close()
+	out, err := search.FindIndexed(ctx, ix, req)
+	if err != nil {
+		return search.Outcome{}, catalogError(err)
+	}
+	return out, nil
 }
 
 // saveSearch stores the run and says its id on stderr.
