@@ -1,6 +1,7 @@
 package search
 
 import (
+	"bytes"
 	"encoding/json"
 	"errors"
 	"fmt"
@@ -62,9 +63,9 @@ type Requirement struct {
 	Track        float64   `json:"track_mm,omitempty"`
 	Mag          float64   `json:"magnification,omitempty"`
 	MagTol       Tolerance `json:"mag_tol,omitzero"`
-	ObjectHeight float64   `json:"object_height_mm,omitempty"` // half the object field
-	NA           float64   `json:"na,omitempty"`               // object-space numerical aperture
-	WDMin        float64   `json:"wd_min_mm,omitempty"`        // working distance minimum
+	ObjectHeight float64   `json:"object_height_mm,omitempty"`        // half the object field
+	NA           float64   `json:"na,omitempty"`                      // object-space numerical aperture
+	WDMin        float64   `json:"working_distance_min_mm,omitempty"` // working distance minimum
 
 	// Expand: output over input beam diameter, positive.
 	Expansion float64   `json:"expansion,omitempty"`
@@ -72,22 +73,66 @@ type Requirement struct {
 	Form      Form      `json:"form,omitempty"`
 
 	// Common.
-	Beam        float64 `json:"beam_mm,omitempty"`         // collimated input beam diameter (focus, expand)
-	BFDMin      float64 `json:"bfd_min_mm,omitempty"`      // back clearance minimum (focus, image)
-	LengthMax   float64 `json:"length_max_mm,omitempty"`   // envelope maximum; 0 none
-	DiameterMax float64 `json:"diameter_max_mm,omitempty"` // part diameter maximum; 0 none
-	GapMin      float64 `json:"gap_min_mm"`                // edge clearance between facing parts; zero is zero
-	Elements    int     `json:"elements,omitempty"`        // 1 singlets only; 2 (or 0) singlets and pairs
-	Wavelength  float64 `json:"wavelength_nm,omitempty"`   // 0 means the d line
-	Supplier    string  `json:"supplier,omitempty"`        // only this supplier's parts; "" all
-	DrawerOnly  bool    `json:"drawer_only,omitempty"`     // only parts in the drawer
-	Top         int     `json:"top"`                       // results to keep; 0 all that meet
+	Beam        float64 `json:"beam_mm,omitempty"`               // collimated input beam diameter (focus, expand)
+	BFDMin      float64 `json:"back_clearance_min_mm,omitempty"` // back clearance minimum (focus, image)
+	LengthMax   float64 `json:"envelope_max_mm,omitempty"`       // envelope maximum; 0 none
+	DiameterMax float64 `json:"diameter_max_mm,omitempty"`       // part diameter maximum; 0 none
+	GapMin      float64 `json:"gap_min_mm"`                      // edge clearance between facing parts; zero is zero
+	Elements    int     `json:"elements,omitempty"`              // 1 singlets only; 2 (or 0) singlets and pairs
+	Wavelength  float64 `json:"wavelength_nm,omitempty"`         // 0 means the d line
+	Supplier    string  `json:"supplier,omitempty"`              // only this supplier's parts; "" all
+	DrawerOnly  bool    `json:"in_drawer,omitempty"`             // only parts in the drawer
+	Top         int     `json:"top"`                             // results to keep; 0 all that meet
 	Prefer      Prefer  `json:"prefer,omitempty"`
 
 	// Real rays and safety (see quality.go).
 	FieldAngle float64   `json:"field_angle_deg,omitempty"` // focus: field edge for the real-ray figures, degrees
 	Band       []float64 `json:"band_nm,omitempty"`         // wavelengths of the colour figures, nm; none: no colour figure
 	Power      float64   `json:"power_w,omitempty"`         // laser power, W: brings the laser cautions
+}
+
+// formerKeys are the spec and saved-search keys of earlier versions, read
+// as the names the glossary uses now.
+var formerKeys = map[string]string{
+	"wd_min_mm":     "working_distance_min_mm",
+	"bfd_min_mm":    "back_clearance_min_mm",
+	"length_max_mm": "envelope_max_mm",
+	"drawer_only":   "in_drawer",
+}
+
+// UnmarshalJSON reads a requirement, its keys as MarshalJSON writes them
+// or as earlier versions did (formerKeys); an unknown key is an error.
+func (r *Requirement) UnmarshalJSON(b []byte) error {
+	var m map[string]json.RawMessage
+	if err := json.Unmarshal(b, &m); err != nil {
+		return err
+	}
+	renamed := false
+	for old, now := range formerKeys {
+		if v, ok := m[old]; ok {
+			if _, both := m[now]; both {
+				return fmt.Errorf("json: both %q and its former name %q given", now, old)
+			}
+			m[now] = v
+			delete(m, old)
+			renamed = true
+		}
+	}
+	if renamed {
+		var err error
+		if b, err = json.Marshal(m); err != nil {
+			return err
+		}
+	}
+	type plain Requirement // the same fields, without this method
+	p := plain(*r)
+	dec := json.NewDecoder(bytes.NewReader(b))
+	dec.DisallowUnknownFields()
+	if err := dec.Decode(&p); err != nil {
+		return err
+	}
+	*r = Requirement(p)
+	return nil
 }
 
 // Defaults returns the requirement the command line and spec files start
@@ -196,7 +241,7 @@ func (r Requirement) validateFocus(bad func(string, ...any)) {
 		bad("the EFL tolerance %s is as large as the EFL itself", r.EFLTol)
 	}
 	r.notFor("focus", bad, named{"--track", r.Track}, named{"--mag", r.Mag}, named{"--na", r.NA},
-		named{"--object-height", r.ObjectHeight}, named{"--wd-min", r.WDMin}, named{"--expand", r.Expansion})
+		named{"--object-height", r.ObjectHeight}, named{"--working-distance-min", r.WDMin}, named{"--expand", r.Expansion})
 	if r.Form != AnyForm {
 		bad("--galilean and --keplerian apply to --expand only")
 	}
@@ -242,8 +287,8 @@ func (r Requirement) validateExpand(bad func(string, ...any)) {
 		bad("unknown expander form %q: use keplerian or galilean", r.Form)
 	}
 	r.notFor("expand", bad, named{"--efl", r.EFL}, named{"--track", r.Track}, named{"--mag", r.Mag},
-		named{"--na", r.NA}, named{"--object-height", r.ObjectHeight}, named{"--wd-min", r.WDMin},
-		named{"--bfd-min", r.BFDMin}, named{"--field-angle", r.FieldAngle})
+		named{"--na", r.NA}, named{"--object-height", r.ObjectHeight}, named{"--working-distance-min", r.WDMin},
+		named{"--back-clearance-min", r.BFDMin}, named{"--field-angle", r.FieldAngle})
 	if len(r.Band) > 0 {
 		bad("--band does not apply to an expand requirement: expanders are ranked on first order only")
 	}

@@ -19,11 +19,10 @@ type drawOptions struct {
 	Output string
 	Force  bool
 	Spot   bool
-	Field  float64
-	Band   []string
+	field  fieldFlags
+	Band   []float64
 
-	wavelengths []float64
-	format      string // svg or png
+	format string // svg or png
 }
 
 func init() {
@@ -68,8 +67,8 @@ The RMS spot radius of each field point and wavelength is printed on stderr.`,
 	f.StringVarP(&o.Output, "output", "o", "", "file to write (.svg, or .png with --spot); standard output if absent")
 	f.BoolVar(&o.Force, "force", false, "overwrite the output file if it exists")
 	f.BoolVar(&o.Spot, "spot", false, "spot diagrams and ray fans instead of the layout")
-	f.Float64Var(&o.Field, "field", 0, "field edge: object height in mm, or field angle in degrees for an object at infinity")
-	f.StringSliceVar(&o.Band, "band", nil, "wavelengths in nm for --spot, the first the reference (default: the search's wavelength and band; without a band F and C beside it in the visible)")
+	addFieldFlags(f, &o.field)
+	f.Float64SliceVar(&o.Band, "band", nil, "wavelengths in nm for --spot, the first the reference (default: the search's wavelength and band; without a band F and C beside it in the visible)")
 	return cmd
 }
 
@@ -91,9 +90,7 @@ func (o *drawOptions) validate() error {
 	if len(o.Band) > 0 && !o.Spot {
 		return usageErrorf("--band applies to --spot plots only")
 	}
-	var err error
-	o.wavelengths, err = parseBand(o.Band)
-	return err
+	return checkBand(o.Band)
 }
 
 func runDraw(o *drawOptions) error {
@@ -103,11 +100,15 @@ func runDraw(o *drawOptions) error {
 		return err
 	}
 	s := sols[0]
+	field, err := o.field.value(sv.Req)
+	if err != nil {
+		return err
+	}
 	title := fmt.Sprintf("Search %d, solution %d: %s", sv.ID, s.Result.Rank, export.DescribeParts(s.Result.Parts))
 	if o.Spot {
-		return drawSpots(o, s, title)
+		return drawSpots(o, s, field, title)
 	}
-	sc, err := export.NewScene(s, export.DrawOptions{Field: o.Field})
+	sc, err := export.NewScene(s, export.DrawOptions{Field: field})
 	if err != nil {
 		return fmt.Errorf("search %d, solution %d: %w", sv.ID, s.Result.Rank, err)
 	}
@@ -115,7 +116,7 @@ func runDraw(o *drawOptions) error {
 	if err != nil {
 		return err
 	}
-	if err := sc.WriteSVG(w, export.DrawOptions{Field: o.Field, Title: title}); err != nil {
+	if err := sc.WriteSVG(w, export.DrawOptions{Field: field, Title: title}); err != nil {
 		w.Close()
 		return err
 	}
@@ -123,9 +124,9 @@ func runDraw(o *drawOptions) error {
 }
 
 // drawSpots writes the spot and fan plots and prints the RMS radii.
-func drawSpots(o *drawOptions, s export.Solution, title string) error {
+func drawSpots(o *drawOptions, s export.Solution, field float64, title string) error {
 	e := o.env
-	sp, err := export.NewSpots(s, export.PlotOptions{Wavelengths: o.wavelengths, Field: o.Field})
+	sp, err := export.NewSpots(s, export.PlotOptions{Wavelengths: o.Band, Field: field})
 	if err != nil {
 		return fmt.Errorf("%s: %w", title, err)
 	}

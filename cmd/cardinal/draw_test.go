@@ -23,14 +23,15 @@ func TestDrawFlags(t *testing.T) {
 		{"layout to stdout", []string{"last", "--pick", "1"}, func(o *drawOptions) bool { return o.format == "svg" && o.Output == "" }, ""},
 		{"spot png", []string{"last", "--pick", "2", "--spot", "-o", "s.PNG", "--band", "486.1,587.6"},
 			func(o *drawOptions) bool {
-				return o.format == "png" && o.Spot && slices.Equal(o.wavelengths, []float64{486.1, 587.6})
+				return o.format == "png" && o.Spot && slices.Equal(o.Band, []float64{486.1, 587.6})
 			}, ""},
-		{"field", []string{"last", "--pick", "1", "--field", "2.5"}, func(o *drawOptions) bool { return o.Field == 2.5 }, ""},
+		{"former --field", []string{"last", "--pick", "1", "--field", "2.5"}, func(o *drawOptions) bool { return o.field.Former == 2.5 }, ""},
+		{"field angle", []string{"last", "--pick", "1", "--field-angle", "1.5"}, func(o *drawOptions) bool { return o.field.Angle == 1.5 }, ""},
 		{"two picks", []string{"last", "--pick", "1,2"}, nil, "one result at a time"},
 		{"layout as png", []string{"last", "--pick", "1", "-o", "a.png"}, nil, "the layout drawing is SVG"},
 		{"unknown extension", []string{"last", "--pick", "1", "--spot", "-o", "a.pdf"}, nil, "name the file .svg"},
 		{"band without spot", []string{"last", "--pick", "1", "--band", "500"}, nil, "--spot plots only"},
-		{"band not a number", []string{"last", "--pick", "1", "--spot", "--band", "green"}, nil, `--band "green"`},
+		{"band not a number", []string{"last", "--pick", "1", "--spot", "--band", "green"}, nil, `"green" for "--band"`},
 		{"no pick", []string{"last"}, nil, "--pick"},
 	} {
 		t.Run(tc.name, func(t *testing.T) {

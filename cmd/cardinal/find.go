@@ -77,9 +77,9 @@ field edge (--field-angle, --object-height) against the Airy radius, and the
 focal shift over --band. Each row shows the spot, the Airy radius and whether
 the wavefront is diffraction limited (0.07 waves RMS, Marechal). Expanders
 are ranked on first order only.`,
-		Example: `  cardinal find --efl 75 --efl-tol 1% --beam 6 --bfd-min 40 --wavelength 1064
-  cardinal find --track 300 --mag -0.36 --mag-tol 2% --object-height 5 --na 0.02 --wd-min 60 --bfd-min 15
-  cardinal find --expand 5 --expand-tol 2% --beam 2 --galilean --length-max 150
+		Example: `  cardinal find --efl 75 --efl-tol 1% --beam 6 --back-clearance-min 40 --wavelength 1064
+  cardinal find --track 300 --mag -0.36 --mag-tol 2% --object-height 5 --na 0.02 --working-distance-min 60 --back-clearance-min 15
+  cardinal find --expand 5 --expand-tol 2% --beam 2 --galilean --envelope-max 150
   cardinal find --efl 100 --beam 10 --field-angle 1 --band 486.1,587.6,656.3 --prefer sharp
   cardinal find --spec relay.json --top 3 --format json`,
 		Args: cobra.NoArgs,
@@ -96,7 +96,7 @@ are ranked on first order only.`,
 	f.Float64Var(&opts.EFL, "efl", 0, "focus: effective focal length to reach, mm")
 	f.StringVar(&opts.EFLTol, "efl-tol", "1%", "EFL tolerance: percent (1%) or mm (0.5mm)")
 	f.Float64Var(&opts.Beam, "beam", 0, "collimated input beam diameter, mm (checks ray heights)")
-	f.Float64Var(&opts.BFDMin, "bfd-min", 0, "least back clearance, last vertex to the focal or image plane, mm")
+	f.Float64Var(&opts.BFDMin, "back-clearance-min", 0, "least back clearance, last vertex to the focal or image plane, mm")
 	f.Float64Var(&opts.Wavelength, "wavelength", 587.5618, "wavelength, nm")
 	f.Float64Var(&opts.Power, "power", 0, "laser power, W (brings the laser cautions)")
 	f.Float64Var(&opts.FieldAngle, "field-angle", 0, "focus: field edge for the real-ray spot, degrees")
@@ -106,17 +106,17 @@ are ranked on first order only.`,
 	f.StringVar(&opts.MagTol, "mag-tol", "1%", "magnification tolerance: percent (2%) or absolute (0.01)")
 	f.Float64Var(&opts.ObjectHeight, "object-height", 0, "image: half the object field, mm (checks ray heights)")
 	f.Float64Var(&opts.NA, "na", 0, "image: object-space numerical aperture (checks ray heights)")
-	f.Float64Var(&opts.WDMin, "wd-min", 0, "image: least working distance, mm")
+	f.Float64Var(&opts.WDMin, "working-distance-min", 0, "image: least working distance, object plane to first vertex, mm")
 	f.Float64Var(&opts.Expand, "expand", 0, "expand: output over input beam diameter")
 	f.StringVar(&opts.ExpandTol, "expand-tol", "1%", "expansion tolerance: percent (2%) or absolute (0.05)")
 	f.BoolVar(&opts.Galilean, "galilean", false, "expand: negative and positive part, no internal focus")
 	f.BoolVar(&opts.Keplerian, "keplerian", false, "expand: two positive parts, an internal focus")
-	f.Float64Var(&opts.LengthMax, "length-max", 0, "longest envelope, first to last vertex, mm (0: no limit)")
+	f.Float64Var(&opts.LengthMax, "envelope-max", 0, "longest envelope, first to last vertex, mm (0: no limit)")
 	f.Float64Var(&opts.DiameterMax, "diameter-max", 0, "largest part diameter, mm (0: no limit)")
 	f.Float64Var(&opts.GapMin, "gap-min", search.DefaultGapMin, "least edge clearance between facing parts, mm")
 	f.IntVar(&opts.Elements, "elements", 2, "1: single parts only; 2: single parts and pairs")
 	f.StringVar(&opts.Supplier, "supplier", "", "only parts of this supplier")
-	f.BoolVar(&opts.DrawerOnly, "drawer-only", false, "only parts in the drawer")
+	f.BoolVar(&opts.DrawerOnly, "in-drawer", false, "only parts in the drawer")
 	f.IntVar(&opts.Top, "top", search.DefaultTop, "results to show (0: all that meet the requirement)")
 	f.StringVar(&opts.Prefer, "prefer", "", "rank weight to raise: drawer, short, cheap or sharp (image quality)")
 	f.StringVar(&opts.Spec, "spec", "", "JSON requirement file; flags given override it")
@@ -156,15 +156,15 @@ func (o *findOptions) apply(req *search.Requirement) error {
 	if err := o.applyKind(req, set); err != nil {
 		return err
 	}
-	floats := map[string]*float64{"efl": &req.EFL, "beam": &req.Beam, "bfd-min": &req.BFDMin,
+	floats := map[string]*float64{"efl": &req.EFL, "beam": &req.Beam, "back-clearance-min": &req.BFDMin,
 		"wavelength": &req.Wavelength, "track": &req.Track, "mag": &req.Mag,
-		"object-height": &req.ObjectHeight, "na": &req.NA, "wd-min": &req.WDMin, "expand": &req.Expansion,
-		"length-max": &req.LengthMax, "diameter-max": &req.DiameterMax, "gap-min": &req.GapMin,
+		"object-height": &req.ObjectHeight, "na": &req.NA, "working-distance-min": &req.WDMin, "expand": &req.Expansion,
+		"envelope-max": &req.LengthMax, "diameter-max": &req.DiameterMax, "gap-min": &req.GapMin,
 		"power": &req.Power, "field-angle": &req.FieldAngle}
-	values := map[string]float64{"efl": o.EFL, "beam": o.Beam, "bfd-min": o.BFDMin,
+	values := map[string]float64{"efl": o.EFL, "beam": o.Beam, "back-clearance-min": o.BFDMin,
 		"wavelength": o.Wavelength, "track": o.Track, "mag": o.Mag,
-		"object-height": o.ObjectHeight, "na": o.NA, "wd-min": o.WDMin, "expand": o.Expand,
-		"length-max": o.LengthMax, "diameter-max": o.DiameterMax, "gap-min": o.GapMin,
+		"object-height": o.ObjectHeight, "na": o.NA, "working-distance-min": o.WDMin, "expand": o.Expand,
+		"envelope-max": o.LengthMax, "diameter-max": o.DiameterMax, "gap-min": o.GapMin,
 		"power": o.Power, "field-angle": o.FieldAngle}
 	for name, p := range floats {
 		if set(name) {
@@ -221,7 +221,7 @@ func (o *findOptions) applyRest(req *search.Requirement, set func(string) bool) 
 	if set("supplier") {
 		req.Supplier = o.Supplier
 	}
-	if set("drawer-only") {
+	if set("in-drawer") {
 		req.DrawerOnly = o.DrawerOnly
 	}
 	if set("prefer") {

@@ -17,10 +17,8 @@ type reportOptions struct {
 	Qty    int
 	Output string
 	Force  bool
-	Field  float64
-	Band   []string
-
-	wavelengths []float64
+	field  fieldFlags
+	Band   []float64
 }
 
 func init() {
@@ -51,30 +49,33 @@ it can be mailed, archived with a lab notebook or printed.`,
 		},
 	}
 	f := cmd.Flags()
+	f.SetNormalizeFunc(formerFlagNames) // --quantity, the former name of --systems
 	f.IntSliceVar(&o.Picks, "pick", nil, "ranks of the results to detail, e.g. 1,2 (required)")
-	f.IntVar(&o.Qty, "quantity", 1, "number of systems to build of each picked solution, for the request")
+	f.IntVar(&o.Qty, "systems", 1, "number of systems to build of each picked solution, for the request")
 	f.StringVarP(&o.Output, "output", "o", "", "HTML file to write; standard output if absent")
 	f.BoolVar(&o.Force, "force", false, "overwrite the output file if it exists")
-	f.Float64Var(&o.Field, "field", 0, "field edge: object height in mm, or field angle in degrees for an object at infinity")
-	f.StringSliceVar(&o.Band, "band", nil, "wavelengths in nm for the spot diagrams, the first the reference (default as for draw --spot)")
+	addFieldFlags(f, &o.field)
+	f.Float64SliceVar(&o.Band, "band", nil, "wavelengths in nm for the spot diagrams, the first the reference (default as for draw --spot)")
 	return cmd
 }
 
 func (o *reportOptions) validate() error {
 	if o.Qty < 1 {
-		return usageErrorf("--quantity %d: give the number of systems, 1 or more", o.Qty)
+		return usageErrorf("--systems %d: give the number of systems, 1 or more", o.Qty)
 	}
 	if err := checkPicks(o.Picks, false); err != nil {
 		return err
 	}
-	var err error
-	o.wavelengths, err = parseBand(o.Band)
-	return err
+	return checkBand(o.Band)
 }
 
 func runReport(o *reportOptions) error {
 	e := o.env
 	sv, sols, err := loadSolutions(e, o.db, o.Search, o.Picks)
+	if err != nil {
+		return err
+	}
+	field, err := o.field.value(sv.Req)
 	if err != nil {
 		return err
 	}
@@ -85,7 +86,7 @@ func runReport(o *reportOptions) error {
 	rq.AddBuilds(sols)
 	in := export.ReportInput{Search: sv.ID, SearchedAt: sv.At, GeneratedAt: e.Now(), Requirement: sv.Req,
 		Results: sv.Results, Picks: sols, Request: rq,
-		Draw: export.DrawOptions{Field: o.Field}, Plot: export.PlotOptions{Field: o.Field, Wavelengths: o.wavelengths}}
+		Draw: export.DrawOptions{Field: field}, Plot: export.PlotOptions{Field: field, Wavelengths: o.Band}}
 	w, err := openOutput(e, o.Output, o.Force)
 	if err != nil {
 		return err

@@ -18,10 +18,10 @@ func TestReportFlags(t *testing.T) {
 		{"picks", []string{"last", "--pick", "1,2", "-o", "r.html", "--quantity", "3"}, func(o *reportOptions) bool {
 			return slices.Equal(o.Picks, []int{1, 2}) && o.Output == "r.html" && o.Qty == 3
 		}, ""},
-		{"band", []string{"last", "--pick", "1", "--band", "1064"}, func(o *reportOptions) bool { return slices.Equal(o.wavelengths, []float64{1064}) }, ""},
+		{"band", []string{"last", "--pick", "1", "--band", "1064"}, func(o *reportOptions) bool { return slices.Equal(o.Band, []float64{1064}) }, ""},
 		{"no pick", []string{"last"}, nil, "--pick"},
-		{"no systems", []string{"last", "--pick", "1", "--quantity", "-1"}, nil, "--quantity -1"},
-		{"band out of range", []string{"last", "--pick", "1", "--band", "50"}, nil, `--band "50"`},
+		{"no systems", []string{"last", "--pick", "1", "--quantity", "-1"}, nil, "--systems -1"},
+		{"band out of range", []string{"last", "--pick", "1", "--band", "50"}, nil, "--band 50"},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			e, _, _ := testEnv()

@@ -11,7 +11,6 @@ import (
 	"io/fs"
 	"os"
 	"slices"
-	"strconv"
 	"time"
 
 	"github.com/spf13/cobra"
@@ -66,8 +65,9 @@ stay numbers.`,
 		},
 	}
 	f := cmd.Flags()
+	f.SetNormalizeFunc(formerFlagNames) // --quantity, the former name of --systems
 	f.IntSliceVar(&o.Picks, "pick", nil, "ranks of the results to buy for, e.g. 1,3 (required)")
-	f.IntVar(&o.Qty, "quantity", 1, "number of systems to build of each picked solution")
+	f.IntVar(&o.Qty, "systems", 1, "number of systems to build of each picked solution")
 	f.StringVar(&o.Format, "format", "table", "output format: table, json, csv or md")
 	f.StringVarP(&o.Output, "output", "o", "", "write to this file instead of standard output")
 	f.BoolVar(&o.Force, "force", false, "overwrite the output file if it exists")
@@ -79,7 +79,7 @@ func (o *requestOptions) validate() error {
 		return err
 	}
 	if o.Qty < 1 {
-		return usageErrorf("--quantity %d: give the number of systems, 1 or more", o.Qty)
+		return usageErrorf("--systems %d: give the number of systems, 1 or more", o.Qty)
 	}
 	return checkPicks(o.Picks, false)
 }
@@ -309,16 +309,3 @@ func closeOutput(e *env, w io.WriteCloser, path, what string) error {
 type nopCloser struct{ io.Writer }
 
 func (nopCloser) Close() error { return nil }
-
-// parseBand reads a comma-separated list of wavelengths in nm.
-func parseBand(s []string) ([]float64, error) {
-	var out []float64
-	for _, f := range s {
-		v, err := strconv.ParseFloat(f, 64)
-		if err != nil || !(v >= 150 && v <= 20000) {
-			return nil, usageErrorf("--band %q: give wavelengths in nm between 150 and 20000, separated by commas", f)
-		}
-		out = append(out, v)
-	}
-	return out, nil
-}

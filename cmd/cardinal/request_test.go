@@ -98,7 +98,7 @@ func TestRequestFlags(t *testing.T) {
 		want func(*requestOptions) bool
 		err  string
 	}{
-		{"picks and quantity", []string{"last", "--pick", "1,3", "--quantity", "2", "--format", "csv", "-o", "r.csv", "--force"},
+		{"picks and former --quantity", []string{"last", "--pick", "1,3", "--quantity", "2", "--format", "csv", "-o", "r.csv", "--force"},
 			func(o *requestOptions) bool {
 				return o.Search == "last" && slices.Equal(o.Picks, []int{1, 3}) && o.Qty == 2 && o.Format == "csv" && o.Output == "r.csv" && o.Force
 			}, ""},
@@ -106,7 +106,7 @@ func TestRequestFlags(t *testing.T) {
 		{"no pick", []string{"last"}, nil, "--pick"},
 		{"rank zero", []string{"last", "--pick", "0"}, nil, "ranks start at 1"},
 		{"repeated rank", []string{"last", "--pick", "2,2"}, nil, "twice"},
-		{"no systems", []string{"last", "--pick", "1", "--quantity", "0"}, nil, "--quantity 0"},
+		{"no systems", []string{"last", "--pick", "1", "--quantity", "0"}, nil, "--systems 0"},
 		{"unknown format", []string{"last", "--pick", "1", "--format", "xlsx"}, nil, "unknown --format"},
 		{"no search", []string{"--pick", "1"}, nil, "accepts 1 arg"},
 	} {

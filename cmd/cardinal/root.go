@@ -5,6 +5,7 @@ import (
 	"strings"
 
 	"github.com/spf13/cobra"
+	"github.com/spf13/pflag"
 )
 
 // commands holds the constructors of the top-level commands; each command's
@@ -34,6 +35,8 @@ Paraxial figures hold near the axis; check real-ray figures before you build.`,
 	for _, c := range commands {
 		root.AddCommand(c(e))
 	}
+	root.SetGlobalNormalizationFunc(formerFlagNames)
+	wrapHelp(root, e)
 	for _, h := range rootHooks { // db.go: the persistent --db flag
 		h(root, e)
 	}
@@ -55,4 +58,35 @@ func execute(args []string, e *env) int {
 		fmt.Fprintf(e.Err, "cardinal: %v\n", err)
 	}
 	return exitCode(err)
+}
+
+// formerNames maps the flag names of earlier versions to the glossary's
+// ('cardinal help glossary'), so that scripts written for them still run;
+// help shows only the new names.
+var formerNames = map[string]string{
+	"bfd-min":     "back-clearance-min",
+	"wd-min":      "working-distance-min",
+	"length-max":  "envelope-max",
+	"drawer-only": "in-drawer",
+}
+
+func formerFlagNames(f *pflag.FlagSet, name string) pflag.NormalizedName {
+	if name == "quantity" && (f.Name() == "request" || f.Name() == "report") {
+		return "systems" // pieces keep --quantity in 'drawer set'
+	}
+	if now, ok := formerNames[name]; ok {
+		return pflag.NormalizedName(now)
+	}
+	return pflag.NormalizedName(name)
+}
+
+// wrapHelp fits the flag lists of every help page to the width tables use
+// (output.go): the terminal's, else COLUMNS, else 100.
+func wrapHelp(root *cobra.Command, e *env) {
+	cobra.AddTemplateFunc("wrappedFlags", func(f *pflag.FlagSet) string { return f.FlagUsagesWrapped(e.width()) })
+	t := root.UsageTemplate()
+	for _, set := range []string{".LocalFlags", ".InheritedFlags"} {
+		t = strings.ReplaceAll(t, "{{"+set+".FlagUsages | trimTrailingWhitespaces}}", "{{wrappedFlags "+set+" | trimTrailingWhitespaces}}")
+	}
+	root.SetUsageTemplate(t)
 }
