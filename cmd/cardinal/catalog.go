@@ -17,21 +17,19 @@ import (
 	"cardinal/optics"
 )
 
-func init() {
-	commands = append(commands, func(e *env) *cobra.Command {
-		cmd := &cobra.Command{
-			Use:   "catalog",
-			Short: "Import, list, export and remove the parts of your catalog",
-			Long: `Your catalog is one SQLite file of lens prescriptions with every part's
+func newCatalogCmd(e *env) *cobra.Command {
+	cmd := &cobra.Command{
+		Use:   "catalog",
+		Short: "Import, list, export and remove the parts of your catalog",
+		Long: `Your catalog is one SQLite file of lens prescriptions with every part's
 cardinal points worked out at the d line (587.5618 nm), in both orientations.
 It lives in $XDG_DATA_HOME/cardinal/catalog.db (by default
 ~/.local/share/cardinal/catalog.db); --db PATH or CARDINAL_DB choose another.
 Until you import a file, read commands show the built-in demo catalog.`,
-		}
-		cmd.AddCommand(newCatalogImportCmd(e, runCatalogImport), newCatalogListCmd(e, runCatalogList),
-			newCatalogExportCmd(e, runCatalogExport), newCatalogRemoveCmd(e, runCatalogRemove))
-		return cmd
-	})
+	}
+	cmd.AddCommand(newCatalogImportCmd(e, runCatalogImport), newCatalogListCmd(e, runCatalogList),
+		newCatalogExportCmd(e, runCatalogExport), newCatalogRemoveCmd(e, runCatalogRemove))
+	return cmd
 }
 
 // importOptions are the arguments of the three import commands

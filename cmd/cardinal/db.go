@@ -16,14 +16,9 @@ import (
 	"cardinal/importers"
 )
 
-// rootHooks run on the root command once it is built (root.go calls them);
-// this file adds the persistent --db flag through one.
-var rootHooks []func(root *cobra.Command, e *env)
-
-func init() {
-	rootHooks = append(rootHooks, func(root *cobra.Command, e *env) {
-		root.PersistentFlags().String("db", "", "catalog file (default: $CARDINAL_DB, else $XDG_DATA_HOME/cardinal/catalog.db, else ~/.local/share/cardinal/catalog.db)")
-	})
+// addDBFlag adds the persistent --db flag every command reads.
+func addDBFlag(root *cobra.Command) {
+	root.PersistentFlags().String("db", "", "catalog file (default: $CARDINAL_DB, else $XDG_DATA_HOME/cardinal/catalog.db, else ~/.local/share/cardinal/catalog.db)")
 }
 
 // dbFlag reads the persistent --db flag of the command line, "" if unset

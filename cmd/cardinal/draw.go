@@ -25,10 +25,6 @@ type drawOptions struct {
 	format string // svg or png
 }
 
-func init() {
-	commands = append(commands, func(e *env) *cobra.Command { return newDrawCmd(e, runDraw) })
-}
-
 func newDrawCmd(e *env, run func(*drawOptions) error) *cobra.Command {
 	o := &drawOptions{env: e}
 	cmd := &cobra.Command{

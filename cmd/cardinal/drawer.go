@@ -13,17 +13,15 @@ import (
 	"cardinal/importers"
 )
 
-func init() {
-	commands = append(commands, func(e *env) *cobra.Command {
-		cmd := &cobra.Command{
-			Use:   "drawer",
-			Short: "Record which catalog parts you have at hand, how many and where",
-			Long: `The drawer is the lenses you hold: for each catalog part, a quantity and a
+func newDrawerCmd(e *env) *cobra.Command {
+	cmd := &cobra.Command{
+		Use:   "drawer",
+		Short: "Record which catalog parts you have at hand, how many and where",
+		Long: `The drawer is the lenses you hold: for each catalog part, a quantity and a
 location. 'cardinal find --in-drawer' and 'catalog list --in-drawer' use it.`,
-		}
-		cmd.AddCommand(newDrawerImportCmd(e, runDrawerImport), newDrawerSetCmd(e, runDrawerSet), newDrawerListCmd(e, runDrawerList))
-		return cmd
-	})
+	}
+	cmd.AddCommand(newDrawerImportCmd(e, runDrawerImport), newDrawerSetCmd(e, runDrawerSet), newDrawerListCmd(e, runDrawerList))
+	return cmd
 }
 
 func newDrawerImportCmd(e *env, run func(*importOptions) error) *cobra.Command {

@@ -40,10 +40,6 @@ type findOptions struct {
 	Req search.Requirement
 }
 
-func init() {
-	commands = append(commands, func(e *env) *cobra.Command { return newFindCmd(e, runFind) })
-}
-
 func newFindCmd(e *env, run func(*findOptions) error) *cobra.Command {
 	opts := &findOptions{env: e}
 	cmd := &cobra.Command{

@@ -15,20 +15,18 @@ import (
 	"cardinal/optics"
 )
 
-func init() {
-	commands = append(commands, func(e *env) *cobra.Command {
-		cmd := &cobra.Command{
-			Use:   "glass",
-			Short: "Import and list the glasses your parts are made of",
-			Long: `Parts name their glass by a six-digit code (517642: nd 1.517, Vd 64.2), a
+func newGlassCmd(e *env) *cobra.Command {
+	cmd := &cobra.Command{
+		Use:   "glass",
+		Short: "Import and list the glasses your parts are made of",
+		Long: `Parts name their glass by a six-digit code (517642: nd 1.517, Vd 64.2), a
 built-in name (fused-silica, caf2, sapphire, water) or a glass of your own,
 imported from a glass CSV: name, formula (sellmeier, cauchy, constant, abbe),
 coefficients separated by spaces, min_nm, max_nm, source. Changing a glass
 recomputes every part made of it.`,
-		}
-		cmd.AddCommand(newGlassImportCmd(e, runGlassImport), newGlassListCmd(e, runGlassList))
-		return cmd
-	})
+	}
+	cmd.AddCommand(newGlassImportCmd(e, runGlassImport), newGlassListCmd(e, runGlassList))
+	return cmd
 }
 
 func newGlassImportCmd(e *env, run func(*importOptions) error) *cobra.Command {

@@ -43,10 +43,6 @@ type inspectOptions struct {
 	Rays rayOptions
 }
 
-func init() {
-	commands = append(commands, func(e *env) *cobra.Command { return newInspectCmd(e, runInspect) })
-}
-
 func newInspectCmd(e *env, run func(*inspectOptions) error) *cobra.Command {
 	opts := &inspectOptions{env: e}
 	cmd := &cobra.Command{

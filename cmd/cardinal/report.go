@@ -21,10 +21,6 @@ type reportOptions struct {
 	Band   []float64
 }
 
-func init() {
-	commands = append(commands, func(e *env) *cobra.Command { return newReportCmd(e, runReport) })
-}
-
 func newReportCmd(e *env, run func(*reportOptions) error) *cobra.Command {
 	o := &reportOptions{env: e}
 	cmd := &cobra.Command{

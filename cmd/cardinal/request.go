@@ -33,10 +33,6 @@ type requestOptions struct {
 	Force  bool
 }
 
-func init() {
-	commands = append(commands, func(e *env) *cobra.Command { return newRequestCmd(e, runRequest) })
-}
-
 func newRequestCmd(e *env, run func(*requestOptions) error) *cobra.Command {
 	o := &requestOptions{env: e}
 	cmd := &cobra.Command{

@@ -8,9 +8,20 @@ import (
 	"github.com/spf13/pflag"
 )
 
-// commands holds the constructors of the top-level commands; each command's
-// file adds its own in an init function.
-var commands []func(*env) *cobra.Command
+// commands builds the top-level commands, in the order help lists them.
+func commands(e *env) []*cobra.Command {
+	return []*cobra.Command{
+		newFindCmd(e, runFind),
+		newInspectCmd(e, runInspect),
+		newRequestCmd(e, runRequest),
+		newDrawCmd(e, runDraw),
+		newReportCmd(e, runReport),
+		newCatalogCmd(e),
+		newGlassCmd(e),
+		newDrawerCmd(e),
+		newVersionCmd(e),
+	}
+}
 
 func newRootCmd(e *env) *cobra.Command {
 	root := &cobra.Command{
@@ -32,14 +43,10 @@ Paraxial figures hold near the axis; check real-ray figures before you build.`,
 	root.SetFlagErrorFunc(func(c *cobra.Command, err error) error {
 		return usageErrorf("%v (see '%s --help')", err, c.CommandPath())
 	})
-	for _, c := range commands {
-		root.AddCommand(c(e))
-	}
+	root.AddCommand(commands(e)...)
 	root.SetGlobalNormalizationFunc(formerFlagNames)
 	wrapHelp(root, e)
-	for _, h := range rootHooks { // db.go: the persistent --db flag
-		h(root, e)
-	}
+	addDBFlag(root)
 	return root
 }
 

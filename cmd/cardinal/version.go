@@ -6,18 +6,16 @@ import (
 	"github.com/spf13/cobra"
 )
 
-func init() {
-	commands = append(commands, func(e *env) *cobra.Command {
-		return &cobra.Command{
-			Use:   "version",
-			Short: "Print the program version",
-			Args:  cobra.NoArgs,
-			RunE: func(*cobra.Command, []string) error {
-				_, err := fmt.Fprintln(e.Out, "cardinal", version)
-				return err
-			},
-		}
-	})
+func newVersionCmd(e *env) *cobra.Command {
+	return &cobra.Command{
+		Use:   "version",
+		Short: "Print the program version",
+		Args:  cobra.NoArgs,
+		RunE: func(*cobra.Command, []string) error {
+			_, err := fmt.Fprintln(e.Out, "cardinal", version)
+			return err
+		},
+	}
 }
 
 var version = "0.1.0-dev"
