@@ -44,6 +44,7 @@ Paraxial figures hold near the axis; check real-ray figures before you build.`,
 		return usageErrorf("%v (see '%s --help')", err, c.CommandPath())
 	})
 	root.AddCommand(commands(e)...)
+	root.AddCommand(topicCommands()...)
 	root.SetGlobalNormalizationFunc(formerFlagNames)
 	wrapHelp(root, e)
 	addDBFlag(root)

@@ -1,0 +1,32 @@
+package main
+
+import (
+	"embed"
+	"strings"
+
+	"github.com/spf13/cobra"
+)
+
+// helpTopics holds the reference pages 'cardinal help TOPIC' prints: what
+// the README leaves to the program.
+//
+//go:embed help/*.txt
+var helpTopics embed.FS
+
+// topics lists the help topics: a name, a one-line summary, the file.
+var topics = []struct{ name, short string }{
+	{"glossary", "One name per idea: flags, columns, JSON and CSV keys"},
+}
+
+// topicCommands are the help topics as cobra help-only commands.
+func topicCommands() []*cobra.Command {
+	var cs []*cobra.Command
+	for _, t := range topics {
+		b, err := helpTopics.ReadFile("help/" + t.name + ".txt")
+		if err != nil {
+			panic("cardinal: help topic " + t.name + " not embedded")
+		}
+		cs = append(cs, &cobra.Command{Use: t.name, Short: t.short, Long: strings.TrimRight(string(b), "\n")})
+	}
+	return cs
+}

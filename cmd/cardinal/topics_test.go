@@ -1,0 +1,60 @@
+package main
+
+import (
+	"regexp"
+	"strings"
+	"testing"
+
+	"github.com/spf13/cobra"
+	"github.com/spf13/pflag"
+)
+
+// Every flag the glossary names exists on some command under that name, or
+// is a former name that resolves to one: the glossary cannot drift from the
+// flags.
+func TestGlossaryFlagsExist(t *testing.T) {
+	root := newRootCmd(&env{Getenv: func(string) string { return "" }})
+	have := map[string]bool{}
+	var walk func(c *cobra.Command)
+	walk = func(c *cobra.Command) {
+		c.Flags().VisitAll(func(f *pflag.Flag) { have[f.Name] = true })
+		c.PersistentFlags().VisitAll(func(f *pflag.Flag) { have[f.Name] = true })
+		for _, s := range c.Commands() {
+			walk(s)
+		}
+	}
+	walk(root)
+	b, err := helpTopics.ReadFile("help/glossary.txt")
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, m := range regexp.MustCompile(`--([a-z][a-z-]*[a-z])`).FindAllStringSubmatch(string(b), -1) {
+		name := m[1]
+		if now, ok := formerNames[name]; ok {
+			name = now
+		}
+		if name == "quantity" || name == "field" { // former names of request, report and draw flags
+			continue
+		}
+		if !have[name] {
+			t.Errorf("the glossary names --%s, which no command has", m[1])
+		}
+	}
+	if !strings.Contains(string(b), "back_clearance_mm") {
+		t.Errorf("the glossary lacks the back clearance key")
+	}
+}
+
+// Former flag names still set the new flag.
+func TestFormerFlagNames(t *testing.T) {
+	var got findOptions
+	cmd := newFindCmd(&env{Getenv: func(string) string { return "" }}, func(o *findOptions) error { got = *o; return nil })
+	cmd.Flags().SetNormalizeFunc(formerFlagNames)
+	cmd.SetArgs([]string{"--efl", "50", "--bfd-min", "12", "--length-max", "90", "--drawer-only"})
+	if err := cmd.Execute(); err != nil {
+		t.Fatal(err)
+	}
+	if got.Req.BFDMin != 12 || got.Req.LengthMax != 90 || !got.Req.DrawerOnly {
+		t.Errorf("former names: back clearance %g, envelope %g, in drawer %v", got.Req.BFDMin, got.Req.LengthMax, got.Req.DrawerOnly)
+	}
+}
