@@ -14,7 +14,9 @@ import (
 
 // Glasses returns the glass table parts are resolved in: the built-in
 // glasses, then the user's glasses (which take precedence over a built-in
-// of the same name). Air and six-digit glass codes resolve as always.
+// of the same name), then the user's glass aliases, each under its own
+// name as the medium it stands for. Air and six-digit glass codes resolve
+// as always.
 func (s *Store) Glasses(ctx context.Context) (optics.GlassTable, error) {
 	return readGlassTable(ctx, s.db)
 }
@@ -25,6 +27,15 @@ func (s *Store) UserGlasses(ctx context.Context) ([]importers.Glass, error) {
 }
 
 func readGlassTable(ctx context.Context, q querier) (optics.GlassTable, error) {
+	t, err := glassTableWithout(ctx, q)
+	if err != nil {
+		return nil, err
+	}
+	return t, addAliases(ctx, q, t)
+}
+
+// glassTableWithout is the glass table without the aliases.
+func glassTableWithout(ctx context.Context, q querier) (optics.GlassTable, error) {
 	user, err := readUserGlasses(ctx, q)
 	if err != nil {
 		return nil, err

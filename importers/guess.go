@@ -43,6 +43,7 @@ var indexedWords = map[string][]string{
 	"t":     {"ct", "tc", "t", "thickness", "center thickness", "centre thickness"},
 	"glass": {"material", "glass", "substrate", "glass type", "glass code", "mat"},
 	"conic": {"conic", "k", "conic constant"},
+	"asph":  {"asph", "asphere", "aspheric", "aspheric terms", "asphere terms"},
 }
 
 // A header is one header cell as the guess reads it.
@@ -159,7 +160,7 @@ func GuessMapping(w io.Writer, src Source, sheet string, glasses optics.GlassTab
 	}
 	hi, fields := bestHeader(head)
 	if hi < 0 {
-		return SheetErrors{{File: src.Name, Sheet: sheetName, Reason: fmt.Sprintf("none of the first %d rows names columns cardinal recognises (such as Radius 1, CT, Diameter, Material); write the mapping by hand ('cardinal help mapping' shows the format)", guessRows)}}
+		return SheetErrors{{File: src.Name, Sheet: sheetName, Reason: fmt.Sprintf("none of the first %d rows names columns cardinal recognises (such as Radius 1, CT, Diameter, Material); write the mapping by hand ('cardinal catalog mapping --help' shows the format)", guessRows)}}
 	}
 	g := &guess{src: src, sheet: sheetName, sheetAsked: sheet, header: head[hi], fields: fields, glasses: glasses}
 	data := head[hi+1:]
@@ -215,7 +216,7 @@ func (g *guess) write(w io.Writer) error {
 	fmt.Fprintf(&b, "# cardinal column mapping, guessed from the headers of %s.\n", where)
 	b.WriteString("# CHECK EVERY LINE: a wrong sign or unit here poisons every later search.\n")
 	fmt.Fprintf(&b, "# Preview before importing: cardinal catalog import %s --map THIS-FILE --dry-run\n", g.src.Name)
-	b.WriteString("# Lines: 'SETTING: VALUE', 'FIELD <- SOURCE COLUMN', 'FIELD = VALUE', 'glass NAME -> CODE'.\n\n")
+	b.WriteString("# Lines: 'SETTING: VALUE', 'FIELD <- SOURCE COLUMN', 'FIELD = VALUE', 'glass NAME -> CODE';\n# a # starts a comment only at the start of a line.\n\n")
 	if g.sheet != "" {
 		fmt.Fprintf(&b, "sheet: %s\n", g.sheet)
 	}
@@ -237,7 +238,7 @@ func (g *guess) write(w io.Writer) error {
 	}
 	for _, f := range []string{"supplier", "part", "diameter", "r1", "r2", "t1", "glass1"} {
 		if !have[f] {
-			fmt.Fprintf(&b, "# %s = ?    required, but no column looks like it: map a column (%s <- COLUMN) or give one value (%s = VALUE) and remove the #\n", f, f, f)
+			fmt.Fprintf(&b, "# CHECK: %s is required, but no column looks like it: map a column (%s <- COLUMN)\n# or give one value (%s = VALUE), and remove the # below\n# %s = ?\n", f, f, f, f)
 		}
 	}
 	var unused []string
@@ -280,13 +281,13 @@ func (g *guess) writeUnit(b *strings.Builder) {
 	}
 	switch len(count) {
 	case 0:
-		b.WriteString("lengths: mm      # no header names a unit: check that the sheet is in mm (or write cm or inch)\n")
+		b.WriteString("# CHECK: no header names a unit; is the sheet in mm? (or write cm or inch)\nlengths: mm\n")
 	case 1:
 		for u, hs := range count {
-			fmt.Fprintf(b, "lengths: %s      # from the headers %s\n", u, strings.Join(hs, ", "))
+			fmt.Fprintf(b, "# from the units in the headers %s\nlengths: %s\n", strings.Join(hs, ", "), u)
 		}
 	default:
-		b.WriteString("lengths: mm      # CHECK: the headers name different units; one unit holds for the whole file, so convert the odd columns in the sheet first\n")
+		b.WriteString("# CHECK: the headers name different units; one unit holds for the whole file,\n# so convert the odd columns in the sheet first\nlengths: mm\n")
 	}
 }
 
@@ -294,16 +295,16 @@ func (g *guess) writeRadii(b *strings.Builder) {
 	for i := 1; i <= MaxSurfaces; i++ {
 		for j, c := range g.column(col("r", i)) {
 			if x, err := strconv.ParseFloat(strings.TrimSpace(c.text), 64); err == nil && x < 0 {
-				fmt.Fprintf(b, "radii: signed      # row %d gives a negative radius, so the sheet signs them\n", g.data[j].n)
+				fmt.Fprintf(b, "# row %d gives a negative radius, so the sheet signs them\nradii: signed\n", g.data[j].n)
 				return
 			}
 		}
 	}
 	if g.column("shape") != nil {
-		b.WriteString("radii: magnitudes      # no radius is negative in the rows looked at, and a shape column gives the signs; CHECK the preview\n")
+		b.WriteString("# CHECK: no radius is negative in the rows looked at, and a shape column gives the signs\nradii: magnitudes\n")
 		return
 	}
-	b.WriteString("radii: signed      # CHECK: no radius is negative in the rows looked at; if the sheet gives magnitudes, map a shape column (shape <- COLUMN) and write radii: magnitudes\n")
+	b.WriteString("# CHECK: no radius is negative in the rows looked at; if the sheet gives magnitudes,\n# map a shape column (shape <- COLUMN) and write radii: magnitudes\nradii: signed\n")
 }
 
 func (g *guess) writeFlat(b *strings.Builder) {
@@ -327,16 +328,15 @@ func (g *guess) writeFlat(b *strings.Builder) {
 			}
 		}
 	}
-	note := ""
 	if zero {
 		flat = append(flat, "0")
-		note = "      # a radius of 0 appears: taken as flat"
+		b.WriteString("# a radius of 0 appears in the rows looked at: taken as flat\n")
 	}
 	if blank {
 		flat = append(flat, "blank")
-		note += "      # CHECK: some r2 cells are empty, taken as flat"
+		b.WriteString("# CHECK: some r2 cells are empty: taken as flat\n")
 	}
-	fmt.Fprintf(b, "flat: %s%s\n", strings.Join(flat, ", "), note)
+	fmt.Fprintf(b, "flat: %s\n", strings.Join(flat, ", "))
 }
 
 // writeGlasses lists the glass names in the rows looked at that the catalog

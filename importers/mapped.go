@@ -65,6 +65,9 @@ func (se SheetErrors) Error() string {
 
 // A MappedFile is what ReadMapped found: the entries (Entry.Line is the
 // source row), the sheet read ("" for CSV), and warnings about the file.
+// When ReadMapped returns an error, Rows holds the rows that did read, for
+// a preview only: a wrong sign convention makes some parts invalid and
+// others merely wrong, and the preview shows the second kind.
 type MappedFile struct {
 	Rows     []Entry
 	Sheet    string
@@ -93,18 +96,15 @@ const ProgressEvery = 5000
 // entries, the same entries ReadPrescriptionFile gives for the neutral CSV
 // of the converted rows: lengths in mm, radii signed, flats as +Inf, glass
 // names resolved. Every problem is reported, each naming the file, sheet,
-// row and source column; the error is then a SheetErrors and the entries
-// nil. Unknown glass names make one problem that lists each with its rows.
+// row and source column; the error is then a SheetErrors (and the entries
+// that read are for a preview only). Unknown glass names make one problem
+// that lists each with its rows.
 func ReadMapped(src Source, m *Mapping, opt MapOptions) (MappedFile, error) {
 	if opt.Glasses == nil {
 		opt.Glasses = optics.BuiltinGlasses()
 	}
 	rd := &mappedReader{src: src, m: m, opt: opt, unknown: map[string][]int{}, seen: map[string]int{}}
-	out, err := rd.read()
-	if err != nil {
-		return MappedFile{Sheet: out.Sheet, Warnings: out.Warnings}, err
-	}
-	return out, nil
+	return rd.read()
 }
 
 // mappedReader is the state of one ReadMapped.
@@ -159,11 +159,11 @@ func (rd *mappedReader) result() (MappedFile, error) {
 	for _, c := range rd.m.Constants {
 		out.Sources[c.Field] = "constant"
 	}
+	out.Rows = rd.entries
 	if len(rd.errs) > 0 {
 		sort.SliceStable(rd.errs, func(i, j int) bool { return rd.errs[i].Row < rd.errs[j].Row })
 		return out, rd.errs
 	}
-	out.Rows = rd.entries
 	return out, nil
 }
 

@@ -152,7 +152,7 @@ func ReadMapping(r io.Reader, file string) (*Mapping, error) {
 		fail(0, "first data row %d must come after header row %d", m.FirstDataRow, m.headerRow())
 	}
 	if m.Magnitudes && fields["shape"] == 0 {
-		fail(0, "radii: magnitudes needs the part's shape to sign them: map a column with 'shape <- COLUMN' or set 'shape = biconvex' (see 'cardinal help mapping')")
+		fail(0, "radii: magnitudes needs the part's shape to sign them: map a column with 'shape <- COLUMN' or set 'shape = biconvex' (see 'cardinal catalog mapping --help')")
 	}
 	if len(m.Columns) == 0 {
 		fail(0, "maps no column; write lines like 'r1 <- Radius 1' (cardinal catalog mapping FILE writes a first guess)")

@@ -28,7 +28,8 @@ It lives in $XDG_DATA_HOME/cardinal/catalog.db (by default
 Until you import a file, read commands show the built-in demo catalog.`,
 	}
 	cmd.AddCommand(newCatalogImportCmd(e, runCatalogImport), newCatalogListCmd(e, runCatalogList),
-		newCatalogExportCmd(e, runCatalogExport), newCatalogRemoveCmd(e, runCatalogRemove))
+		newCatalogExportCmd(e, runCatalogExport), newCatalogRemoveCmd(e, runCatalogRemove),
+		newCatalogMappingCmd(e, runCatalogMapping))
 	return cmd
 }
 
@@ -59,18 +60,49 @@ func newImportCmd(e *env, short, long, example string, run func(*importOptions) 
 	return cmd
 }
 
-func newCatalogImportCmd(e *env, run func(*importOptions) error) *cobra.Command {
-	return newImportCmd(e, "Add and update parts from a prescription CSV, all rows or none", `Read a prescription CSV (the neutral format: supplier, part, diameter, r1, r2,
+func newCatalogImportCmd(e *env, run func(*catalogImportOptions) error) *cobra.Command {
+	co := &catalogImportOptions{}
+	cmd := newImportCmd(e, "Add and update parts from a prescription CSV or a mapped spreadsheet, all rows or none", `Read a prescription CSV (the neutral format: supplier, part, diameter, r1, r2,
 t1, glass1, ...) and store its parts. A file with any bad row changes nothing;
 every problem is listed with its line. Parts already in the catalog with the
 same supplier and part are updated when the row changed and left alone when
 not, so importing the same file twice changes nothing. Stated values that
-disagree with the prescription are kept as warnings.`,
+disagree with the prescription are kept as warnings.
+
+With --map, read a spreadsheet (.xlsx) or a CSV with its own column names
+through a column mapping ('cardinal catalog mapping FILE' guesses one;
+'cardinal catalog mapping --help' describes the format): lengths in mm, cm or inch,
+radii signed or as magnitudes with a shape, flats however the sheet writes
+them, glass names through the mapping or your glass aliases. The rows go
+through the same checks and the same all-or-nothing import; every problem
+names the file, sheet, row and source column. With --dry-run the first rows
+are shown as they will be stored, each part's computed EFL beside the stated
+one, with every part whose stated EFL is off by more than 1 % (how a wrong
+sign convention or unit shows itself), and nothing changes.`,
 		`  cardinal catalog import supplier-a.csv
-  cardinal catalog import supplier-a.csv --dry-run`, run)
+  cardinal catalog import supplier-a.csv --dry-run
+  cardinal catalog import supplier-b.xlsx --map supplier-b.colmap --dry-run
+  cardinal catalog import supplier-b.xlsx --map supplier-b.colmap --sheet Achromats`,
+		func(o *importOptions) error {
+			co.importOptions = o
+			if err := co.validate(); err != nil {
+				return err
+			}
+			return run(co)
+		})
+	f := cmd.Flags()
+	f.StringVar(&co.Map, "map", "", "a column-mapping file: read FILE as a spreadsheet or foreign CSV through it")
+	f.StringVar(&co.Sheet, "sheet", "", "with --map: the sheet to read, instead of the mapping's")
+	f.IntVar(&co.Show, "show", 10, "with --map --dry-run: how many rows the preview shows")
+	f.StringVar(&co.Format, "format", "table", "with --map --dry-run: preview format: table, json, csv or md")
+	return cmd
 }
 
-func runCatalogImport(o *importOptions) error {
+func runCatalogImport(co *catalogImportOptions) error {
+	if co.Map != "" {
+		return runMappedImport(co)
+	}
+	o := co.importOptions
 	ctx := context.Background()
 	data, err := readInputFile(o.File, o.env)
 	if err != nil {

@@ -71,12 +71,12 @@ func TestCatalogListFlags(t *testing.T) {
 
 func TestCatalogImportAndRemoveFlags(t *testing.T) {
 	e, _, _ := storeEnv(t, nil)
-	var imp *importOptions
-	if err := parseWith(newCatalogImportCmd(e, func(o *importOptions) error { imp = o; return nil }), "a.csv", "--dry-run"); err != nil || imp.File != "a.csv" || !imp.DryRun {
+	var imp *catalogImportOptions
+	if err := parseWith(newCatalogImportCmd(e, func(o *catalogImportOptions) error { imp = o; return nil }), "a.csv", "--dry-run"); err != nil || imp.File != "a.csv" || !imp.DryRun {
 		t.Errorf("import a.csv --dry-run: %+v, %v", imp, err)
 	}
 	for _, args := range [][]string{nil, {"a.csv", "b.csv"}} {
-		if err := parseWith(newCatalogImportCmd(e, func(*importOptions) error { return nil }), args...); err == nil {
+		if err := parseWith(newCatalogImportCmd(e, func(*catalogImportOptions) error { return nil }), args...); err == nil {
 			t.Errorf("import %v: no error", args)
 		}
 	}

@@ -19,7 +19,9 @@ type env struct {
 	// TermWidth is the terminal's width in characters, 0 when Out is not
 	// a terminal (then COLUMNS, else a default, is used: output.go).
 	TermWidth int
-	Now       func() time.Time
+	// ErrTerminal is true when Err is a terminal (progress is shown there).
+	ErrTerminal bool
+	Now         func() time.Time
 	// Getenv reads the environment (CARDINAL_DB, XDG_DATA_HOME, HOME).
 	Getenv func(string) string
 }
@@ -27,9 +29,10 @@ type env struct {
 func newEnv() *env {
 	return &env{
 		In: os.Stdin, Out: os.Stdout, Err: os.Stderr,
-		Terminal:  isatty.IsTerminal(os.Stdout.Fd()),
-		TermWidth: terminalWidth(os.Stdout.Fd()),
-		Now:       time.Now,
-		Getenv:    os.Getenv,
+		Terminal:    isatty.IsTerminal(os.Stdout.Fd()),
+		TermWidth:   terminalWidth(os.Stdout.Fd()),
+		Now:         time.Now,
+		Getenv:      os.Getenv,
+		ErrTerminal: isatty.IsTerminal(os.Stderr.Fd()),
 	}
 }

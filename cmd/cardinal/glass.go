@@ -23,9 +23,11 @@ func newGlassCmd(e *env) *cobra.Command {
 built-in name (fused-silica, caf2, sapphire, water) or a glass of your own,
 imported from a glass CSV: name, formula (sellmeier, cauchy, constant, abbe),
 coefficients separated by spaces, min_nm, max_nm, source. Changing a glass
-recomputes every part made of it.`,
+recomputes every part made of it. A name that supplier sheets use for a glass
+becomes known to every import with 'glass alias NAME CODE'.`,
 	}
-	cmd.AddCommand(newGlassImportCmd(e, runGlassImport), newGlassListCmd(e, runGlassList))
+	cmd.AddCommand(newGlassImportCmd(e, runGlassImport), newGlassListCmd(e, runGlassList),
+		newGlassAliasCmd(e, runGlassAlias), newGlassAliasesCmd(e, runGlassAliases))
 	return cmd
 }
 
