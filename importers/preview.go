@@ -55,4 +55,3 @@ func Disagreeing(rows []PreviewRow) []PreviewRow {
 	}
 	return out
 }
-
