@@ -31,7 +31,7 @@ func (s *Store) SetGlassAlias(ctx context.Context, name, target string) (replace
 		return false, s.wrapWriteError(err)
 	}
 	defer tx.Rollback()
-	glasses, err := glassTableWithout(ctx, tx)
+	glasses, err := readGlassTable(ctx, tx)
 	if err != nil {
 		return false, err
 	}

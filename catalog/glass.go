@@ -18,7 +18,11 @@ import (
 // name as the medium it stands for. Air and six-digit glass codes resolve
 // as always.
 func (s *Store) Glasses(ctx context.Context) (optics.GlassTable, error) {
-	return readGlassTable(ctx, s.db)
+	t, err := readGlassTable(ctx, s.db)
+	if err != nil {
+		return nil, err
+	}
+	return t, addAliases(ctx, s.db, t)
 }
 
 // UserGlasses returns the user's glasses as imported, ordered by name.
@@ -26,16 +30,9 @@ func (s *Store) UserGlasses(ctx context.Context) ([]importers.Glass, error) {
 	return readUserGlasses(ctx, s.db)
 }
 
+// readGlassTable is the glass table without the aliases: enough to read
+// stored parts, which hold the glass itself, never an alias.
 func readGlassTable(ctx context.Context, q querier) (optics.GlassTable, error) {
-	t, err := glassTableWithout(ctx, q)
-	if err != nil {
-		return nil, err
-	}
-	return t, addAliases(ctx, q, t)
-}
-
-// glassTableWithout is the glass table without the aliases.
-func glassTableWithout(ctx context.Context, q querier) (optics.GlassTable, error) {
 	user, err := readUserGlasses(ctx, q)
 	if err != nil {
 		return nil, err

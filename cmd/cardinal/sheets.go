@@ -5,14 +5,13 @@ import (
 	"context"
 	"fmt"
 	"io"
-	"strconv"
-	"strings"
 
 	"github.com/spf13/cobra"
 
 	"cardinal/catalog"
 	"cardinal/importers"
 	"cardinal/optics"
+	"cardinal/search/present"
 )
 
 // catalogImportOptions are the arguments of `catalog import`: those of every
@@ -210,34 +209,31 @@ func writePreview(o *catalogImportOptions, m *importers.Mapping, f importers.Map
 	for _, r := range off {
 		pj.Disagree = append(pj.Disagree, previewed(r))
 	}
+	of := outputFlags{Format: o.Format}
 	if o.Format == "json" {
-		return render(o.env.Out, "json", grid{}, pj)
+		return render(o.env, o.env.Out, of, present.Table{}, pj)
 	}
 	w := o.env.Out
 	if o.Format == "table" {
-		fmt.Fprintf(w, "Preview of %s, read with lengths in %s and radii %s: the first %d of %d parts as they will be stored (mm; radii signed as cardinal signs them)\n",
-			sheetWhere(o.File, f.Sheet), pj.Lengths, radii, len(first), len(rows))
+		note(o.env, fmt.Sprintf("Preview of %s, read with lengths in %s and radii %s: the first %d of %d parts as they will be stored (mm; radii signed as cardinal signs them).",
+			sheetWhere(o.File, f.Sheet), pj.Lengths, radii, len(first), len(rows)))
 	}
-	if err := render(w, o.Format, previewGrid(pj.First, false), nil); err != nil {
+	if err := render(o.env, w, of, previewTable(pj.First), nil); err != nil {
 		return err
 	}
 	if o.Format == "csv" {
 		if len(off) > 0 {
-			fmt.Fprintf(o.env.Err, "cardinal: %d part(s) state an EFL more than 1 %% from their prescription; run with --format table to list them\n", len(off))
+			note(o.env, fmt.Sprintf("cardinal: %d part(s) state an EFL more than 1 %% from their prescription; --format table or json lists them.", len(off)))
 		}
 		return nil
 	}
 	fmt.Fprintln(w)
 	if len(off) == 0 {
-		fmt.Fprintf(w, "Every stated EFL agrees with its prescription within 1 %% (%d parts state one).\n\n", countStated(rows))
+		note(o.env, fmt.Sprintf("Every stated EFL agrees with its prescription within 1 %% (%d of %d parts state one).", countStated(rows), len(rows)))
 		return nil
 	}
-	fmt.Fprintf(w, "%d of %d parts state an EFL more than 1 %% from their prescription. A wrong sign convention\n(radii:) or unit (lengths:) in the mapping shows here first; check those lines before importing:\n", len(off), len(rows))
-	if err := render(w, o.Format, previewGrid(pj.Disagree, true), nil); err != nil {
-		return err
-	}
-	fmt.Fprintln(w)
-	return nil
+	note(o.env, fmt.Sprintf("%d of %d parts state an EFL more than 1 %% from their prescription. A wrong sign convention (radii:) or unit (lengths:) in the mapping shows here first; check those lines before importing:", len(off), len(rows)))
+	return render(o.env, w, of, offTable(pj.Disagree), nil)
 }
 
 func countStated(rows []importers.PreviewRow) int {
@@ -250,35 +246,68 @@ func countStated(rows []importers.PreviewRow) int {
 	return n
 }
 
-// previewGrid lays the parts out; short drops the prescription columns.
-func previewGrid(parts []previewedPart, short bool) grid {
-	g := grid{Header: []string{"row", "part", "radii mm", "thicknesses mm", "glasses", "diameter mm", "stated EFL mm", "computed EFL mm", "off %"}}
-	if short {
-		g.Header = []string{"row", "part", "stated EFL mm", "computed EFL mm", "off %"}
-	}
-	opt := func(v *float64, f func(float64) string, none string) string {
-		if v == nil {
-			return none
-		}
-		return f(*v)
-	}
-	pct := func(v float64) string { return fixed(v, 2) }
+// previewTable lays out the parts as they will be stored: one column per
+// radius, thickness and glass, then the EFL check.
+func previewTable(parts []previewedPart) present.Table {
+	n := 0
 	for _, p := range parts {
-		var radii, ts []string
-		for _, r := range p.RadiiMm {
-			radii = append(radii, opt(r, mm, "flat"))
-		}
-		for _, t := range p.ThicknessesMm {
-			ts = append(ts, mm(t))
-		}
-		row := []string{strconv.Itoa(p.Row), p.Supplier + ":" + p.Part}
-		if !short {
-			row = append(row, strings.Join(radii, " "), strings.Join(ts, " "), strings.Join(p.Glasses, " "), mm(p.DiameterMm))
-		}
-		row = append(row, opt(p.StatedEFLMm, mm, "-"), opt(p.ComputedEFLMm, mm, "afocal"), opt(p.EFLOffPercent, pct, "-"))
-		g.Rows = append(g.Rows, row)
+		n = max(n, len(p.RadiiMm))
 	}
-	return g
+	t := present.Table{Columns: []present.Column{{Key: "row", Label: "row"}, {Key: "part", Label: "part"}}}
+	for i := 1; i <= n; i++ {
+		t.Columns = append(t.Columns, present.Column{Key: fmt.Sprintf("r%d_mm", i), Label: fmt.Sprintf("r%d", i), Unit: "mm"})
+	}
+	for i := 1; i < n; i++ {
+		t.Columns = append(t.Columns, present.Column{Key: fmt.Sprintf("t%d_mm", i), Label: fmt.Sprintf("t%d", i), Unit: "mm"},
+			present.Column{Key: fmt.Sprintf("glass%d", i), Label: fmt.Sprintf("glass%d", i)})
+	}
+	t.Columns = append(t.Columns, present.Column{Key: "diameter_mm", Label: "diameter", Unit: "mm"})
+	t.Columns = append(t.Columns, eflColumns()...)
+	for _, p := range parts {
+		row := []present.Cell{present.Int(p.Row), present.Text(p.Supplier + ":" + p.Part)}
+		for i := range n {
+			switch {
+			case i >= len(p.RadiiMm):
+				row = append(row, present.Cell{Text: present.Missing})
+			case p.RadiiMm[i] == nil:
+				row = append(row, present.Cell{Text: "flat"})
+			default:
+				row = append(row, present.Num(*p.RadiiMm[i], 3))
+			}
+		}
+		for i := 0; i < n-1; i++ {
+			if i < len(p.ThicknessesMm) {
+				row = append(row, present.Num(p.ThicknessesMm[i], 3), present.Text(p.Glasses[i]))
+			} else {
+				row = append(row, present.Cell{Text: present.Missing}, present.Cell{Text: present.Missing})
+			}
+		}
+		row = append(row, present.Num(p.DiameterMm, 3))
+		t.Add(append(row, eflCells(p)...)...)
+	}
+	return t
+}
+
+func eflColumns() []present.Column {
+	return []present.Column{{Key: "stated_efl_mm", Label: "stated EFL", Unit: "mm"}, {Key: "computed_efl_mm", Label: "computed EFL", Unit: "mm"},
+		{Key: "efl_off_percent", Label: "off", Unit: "%"}, {Key: "efl_off", Label: "over 1 %"}}
+}
+
+func eflCells(p previewedPart) []present.Cell {
+	computed := present.Cell{Text: "afocal"}
+	if p.ComputedEFLMm != nil {
+		computed = present.Num(*p.ComputedEFLMm, 3)
+	}
+	return []present.Cell{present.OptNum(p.StatedEFLMm, 3), computed, present.OptNum(p.EFLOffPercent, 2), present.Bool(p.EFLOff)}
+}
+
+// offTable lists the parts whose stated EFL is off.
+func offTable(parts []previewedPart) present.Table {
+	t := present.Table{Columns: append([]present.Column{{Key: "row", Label: "row"}, {Key: "part", Label: "part"}}, eflColumns()[:3]...)}
+	for _, p := range parts {
+		t.Add(append([]present.Cell{present.Int(p.Row), present.Text(p.Supplier + ":" + p.Part)}, eflCells(p)[:3]...)...)
+	}
+	return t
 }
 
 // catalogMappingOptions are the arguments of `catalog mapping`.
@@ -464,17 +493,17 @@ func runGlassAliases(o *glassAliasesOptions) error {
 		}
 	}
 	out := []listedAlias{}
-	g := grid{Header: []string{"name", "glass", "nd"}}
+	t := present.Table{Columns: []present.Column{{Key: "name", Label: "name"}, {Key: "glass", Label: "glass"}, {Key: "nd", Label: "nd"}}}
 	for _, a := range aliases {
 		l := listedAlias{Name: a.Name, Glass: a.Target}
 		if m, err := table.Lookup(a.Name); err == nil {
 			l.Glass, l.Nd = m.Name(), m.Index(optics.LineD)
 		}
 		out = append(out, l)
-		g.Rows = append(g.Rows, []string{l.Name, l.Glass, fixed(l.Nd, 5)})
+		t.Add(present.Text(l.Name), present.Text(l.Glass), present.Num(l.Nd, 5))
 	}
 	if len(out) == 0 && o.Format == "table" {
 		fmt.Fprintln(o.env.Err, "cardinal: no glass aliases yet; add one with 'cardinal glass alias NAME CODE'")
 	}
-	return render(o.env.Out, o.Format, g, out)
+	return render(o.env, o.env.Out, outputFlags{Format: o.Format}, t, out)
 }
