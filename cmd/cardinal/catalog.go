@@ -124,7 +124,7 @@ func runCatalogImport(co *catalogImportOptions) error {
 		return usageErrorf("%s cannot be imported; nothing was changed. Fix these lines and import again:\n%v", o.File, err)
 	}
 	for _, w := range f.Warnings {
-		fmt.Fprintf(o.env.Err, "cardinal: warning: %v\n", w)
+		notef(o.env, "cardinal: warning: %v\n", w)
 	}
 	if s == nil { // a new catalog, created only now that the file reads
 		if s, err = openForWrite(o.DB, o.env, true); err != nil {
@@ -137,7 +137,7 @@ func runCatalogImport(co *catalogImportOptions) error {
 		return importErrorf(o.File, err)
 	}
 	for _, w := range rep.Warnings {
-		fmt.Fprintf(o.env.Err, "cardinal: warning: %s:%d: %s: %s\n", o.File, w.Line, w.ID, w.Reason)
+		notef(o.env, "cardinal: warning: %s:%d: %s: %s\n", o.File, w.Line, w.ID, w.Reason)
 	}
 	printChanges(o.env, s.Path(), o.File, "parts", rep.Added, rep.Updated, len(rep.Unchanged), len(rep.Warnings), o.DryRun)
 	return nil
@@ -311,11 +311,11 @@ func runCatalogList(o *catalogListOptions) error {
 	}
 	for _, r := range rows {
 		for _, w := range r.Warnings {
-			fmt.Fprintf(o.env.Err, "cardinal: warning: %s: %s\n", r.ID(), w)
+			notef(o.env, "cardinal: warning: %s: %s\n", r.ID(), w)
 		}
 	}
 	if len(rows) == 0 && o.out.Format == "table" {
-		fmt.Fprintln(o.env.Err, "cardinal: no part matches; widen the filters or run 'cardinal catalog list' without any")
+		notef(o.env, "cardinal: no part matches; widen the filters or run 'cardinal catalog list' without any\n")
 	}
 	return writePartRows(o.env, o.out, rows)
 }
@@ -478,7 +478,7 @@ func noteUserGlasses(e *env, entries []importers.Entry, user []importers.Glass) 
 		}
 	}
 	if len(names) > 0 {
-		fmt.Fprintf(e.Err, "cardinal: the export uses your glasses %s; import them first elsewhere ('cardinal glass list --user --format csv' writes them)\n", strings.Join(names, ", "))
+		notef(e, "cardinal: the export uses your glasses %s; import them first elsewhere ('cardinal glass list --user --format csv' writes them)\n", strings.Join(names, ", "))
 	}
 }
 

@@ -83,7 +83,7 @@ func openForRead(flag string, e *env) (*catalog.Store, error) {
 		return nil, err
 	}
 	if !ok {
-		fmt.Fprintf(e.Err, "cardinal: no catalog at %s yet: using the built-in demo catalog (invented parts); add your own with 'cardinal catalog import FILE'\n", loc.Path)
+		notef(e, "cardinal: no catalog at %s yet: using the built-in demo catalog (invented parts); add your own with 'cardinal catalog import FILE'\n", loc.Path)
 		return openDemo(loc, e)
 	}
 	s, err := catalog.Open(loc.Path)
@@ -100,7 +100,7 @@ func openDemo(loc catalogLocation, e *env) (*catalog.Store, error) {
 			return s, nil
 		}
 	}
-	fmt.Fprintf(e.Err, "cardinal: cannot keep the demo catalog at %s: searches on it last for this run only\n", path)
+	notef(e, "cardinal: cannot keep the demo catalog at %s: searches on it last for this run only\n", path)
 	s, err := catalog.OpenDemo()
 	return s, catalogError(err)
 }

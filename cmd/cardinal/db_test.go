@@ -83,7 +83,7 @@ func TestOpenForRead(t *testing.T) {
 		t.Fatal(err)
 	}
 	defer s.Close()
-	if lines := strings.Count(errb.String(), "\n"); lines != 1 || !strings.Contains(errb.String(), "built-in demo catalog") {
+	if lines := strings.Count(unwrapped(errb.String()), "\n"); lines != 1 || !strings.Contains(unwrapped(errb.String()), "built-in demo catalog") {
 		t.Errorf("stderr %q, want one line about the demo catalog", errb.String())
 	}
 	// A read command creates no catalog of the user's; it keeps the demo

@@ -135,11 +135,11 @@ func drawSpots(o *drawOptions, s export.Solution, field float64, title string) e
 		return err
 	}
 	for k, set := range sp.Sets {
-		fmt.Fprintf(e.Err, "%s, %.1f nm: RMS spot radius %.3g %s (%d rays, %d lost)\n",
+		notef(e, "%s, %.1f nm: RMS spot radius %.3g %s (%d rays, %d lost)\n",
 			sp.FieldText(k/len(sp.Wavelengths)), set.Wavelength, set.RMS, sp.Unit(), set.Passed+set.Lost, set.Lost)
 	}
 	if sp.Airy > 0 {
-		fmt.Fprintf(e.Err, "Airy radius at %.1f nm: %.3g %s\n", sp.Wavelengths[0], sp.Airy, sp.Unit())
+		notef(e, "Airy radius at %.1f nm: %.3g %s\n", sp.Wavelengths[0], sp.Airy, sp.Unit())
 	}
 	return closeOutput(e, w, o.Output, fmt.Sprintf("the spot diagrams of solution %d", s.Result.Rank))
 }

@@ -109,7 +109,7 @@ func TestRunDrawLayout(t *testing.T) {
 	if math.Abs(first) > 1e-4 || math.Abs(last-r.Envelope) > 1e-4 {
 		t.Errorf("vertices drawn at %.4f and %.4f, want 0 and %.4f", first, last, r.Envelope)
 	}
-	if !strings.Contains(errs, "wrote the layout of solution 1 of search 2") || strings.Contains(errs, "caution") {
+	if !strings.Contains(unwrapped(errs), "wrote the layout of solution 1 of search 2") || strings.Contains(errs, "caution") {
 		t.Errorf("stderr %q", errs)
 	}
 }

@@ -41,7 +41,7 @@ func runDrawerImport(o *importOptions) error {
 		return usageErrorf("%s cannot be imported; nothing was changed. Fix these lines and import again:\n%v", o.File, err)
 	}
 	for _, w := range f.Warnings {
-		fmt.Fprintf(o.env.Err, "cardinal: warning: %v\n", w)
+		notef(o.env, "cardinal: warning: %v\n", w)
 	}
 	s, err := openForWrite(o.DB, o.env, false)
 	if err != nil {

@@ -3,7 +3,6 @@ package main
 import (
 	"context"
 	"encoding/json"
-	"fmt"
 	"path/filepath"
 	"strings"
 
@@ -306,11 +305,11 @@ func saveSearch(ctx context.Context, st *catalog.Store, e *env, doc findOutput) 
 	}
 	switch {
 	case st.Path() == catalog.Memory:
-		fmt.Fprintf(e.Err, "saved as search %d in the built-in demo catalog, which is not kept after this run\n", id)
+		notef(e, "saved as search %d in the built-in demo catalog, which is not kept after this run\n", id)
 	case isKeptDemo(st.Path()):
-		fmt.Fprintf(e.Err, "saved as search %d (in the demo catalog, until you import your own)\n", id)
+		notef(e, "saved as search %d (in the demo catalog, until you import your own)\n", id)
 	default:
-		fmt.Fprintf(e.Err, "saved as search %d\n", id)
+		notef(e, "saved as search %d\n", id)
 	}
 	return nil
 }
@@ -324,7 +323,7 @@ func isKeptDemo(path string) bool {
 // printCautions writes the notes and the safety cautions on stderr.
 func printCautions(e *env, req search.Requirement, out search.Outcome) {
 	for _, n := range out.Notes {
-		fmt.Fprintln(e.Err, "note:", n)
+		notef(e, "note: %s\n", n)
 	}
 	writeCautions(e, req)
 }
@@ -334,7 +333,7 @@ func printCautions(e *env, req search.Requirement, out search.Outcome) {
 // results for a laser requirement uses it.
 func writeCautions(e *env, req search.Requirement) {
 	for _, c := range export.Cautions(req) {
-		fmt.Fprintln(e.Err, "caution:", c)
+		notef(e, "caution: %s\n", c)
 	}
 }
 
@@ -349,10 +348,10 @@ func noResult(e *env, o *findOptions, doc findOutput, out search.Outcome) error 
 		return noResultErrorf("nothing meets the requirement (see \"why\" and \"misses\")")
 	}
 	for _, w := range out.Why {
-		fmt.Fprintln(e.Err, w)
+		notef(e, "%s\n", w)
 	}
 	if len(out.Misses) > 0 {
-		fmt.Fprintln(e.Err, "nearest misses:")
+		notef(e, "nearest misses:\n")
 		if err := render(e, e.Err, outputFlags{Format: "table"}, present.Results(o.Req, out.Misses), nil); err != nil {
 			return err
 		}

@@ -130,7 +130,7 @@ func runInspect(o *inspectOptions) error {
 		results[i] = inspect(e, o.Reverse, o.Wavelength, in, out)
 		o.Rays.judge(&results[i], e, o.Reverse, o.Wavelength, in, out)
 		for _, w := range results[i].Warnings {
-			fmt.Fprintf(o.env.Err, "cardinal: warning: %s: %s\n", results[i].id(), w)
+			notef(o.env, "cardinal: warning: %s: %s\n", results[i].id(), w)
 		}
 	}
 	o.Rays.printCautions(o.env, o.Wavelength)
@@ -148,7 +148,7 @@ func loadInspectEntries(o *inspectOptions, glasses optics.GlassTable) ([]importe
 	var err error
 	if name == "" {
 		name = "demo lenses.csv"
-		fmt.Fprintln(o.env.Err, "cardinal: no --file given: inspecting the built-in demo lenses (invented parts); use --file to read your own")
+		notef(o.env, "cardinal: no --file given: inspecting the built-in demo lenses (invented parts); use --file to read your own\n")
 		data, err = fs.ReadFile(cardinal.Demo, "testdata/demo/lenses.csv")
 	} else {
 		data, err = os.ReadFile(name)
@@ -164,7 +164,7 @@ func loadInspectEntries(o *inspectOptions, glasses optics.GlassTable) ([]importe
 		return nil, usageErrorf("%s cannot be read; fix these lines and try again:\n%v", name, err)
 	}
 	for _, w := range f.Warnings {
-		fmt.Fprintf(o.env.Err, "cardinal: warning: %v\n", w)
+		notef(o.env, "cardinal: warning: %v\n", w)
 	}
 	return f.Rows, nil
 }

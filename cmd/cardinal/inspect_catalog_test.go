@@ -45,7 +45,7 @@ func TestInspectCatalogPart(t *testing.T) {
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			code := runCLI(e, tc.args...)
-			if code != tc.code || !strings.Contains(errb.String(), tc.stderr) {
+			if code != tc.code || !strings.Contains(unwrapped(errb.String()), tc.stderr) {
 				t.Fatalf("exit %d, stderr %q; want %d, %q", code, errb, tc.code, tc.stderr)
 			}
 			if tc.check == nil {

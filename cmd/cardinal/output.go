@@ -7,6 +7,7 @@ import (
 	"strconv"
 	"strings"
 
+	"github.com/mattn/go-runewidth"
 	"github.com/spf13/pflag"
 	"golang.org/x/sys/unix"
 
@@ -96,8 +97,26 @@ func render(e *env, w io.Writer, o outputFlags, t present.Table, v any) error {
 }
 
 // note writes one line for people on stderr, wrapped to the width.
-func note(e *env, s string) {
-	fmt.Fprintln(e.Err, present.Wrap(s, e.width()))
+func note(e *env, s string) { notef(e, "%s\n", s) }
+
+// notef writes a message for people on stderr, each line wrapped to the
+// width with the continuation indented, so that a note never runs past the
+// terminal's edge.
+func notef(e *env, format string, a ...any) {
+	s := fmt.Sprintf(format, a...)
+	nl := strings.HasSuffix(s, "\n")
+	lines := strings.Split(strings.TrimSuffix(s, "\n"), "\n")
+	for i, l := range lines {
+		if runewidth.StringWidth(l) > e.width() {
+			indent := "  "
+			lines[i] = strings.ReplaceAll(present.Wrap(l, e.width()-len(indent)), "\n", "\n"+indent)
+		}
+	}
+	s = strings.Join(lines, "\n")
+	if nl {
+		s += "\n"
+	}
+	fmt.Fprint(e.Err, s)
 }
 
 // textTable is a table of text for people (the inspect blocks): every cell

@@ -264,7 +264,7 @@ func (sv *savedSearch) solutions(e *env) ([]export.Solution, error) {
 			return nil, fmt.Errorf("search %d: %w", sv.ID, err)
 		}
 		for _, d := range s.Verify() {
-			fmt.Fprintf(e.Err, "warning: search %d, %s (the catalog changed since the search)\n", sv.ID, d)
+			notef(e, "warning: search %d, %s (the catalog changed since the search)\n", sv.ID, d)
 		}
 		out = append(out, s)
 	}
@@ -297,7 +297,7 @@ func closeOutput(e *env, w io.WriteCloser, path, what string) error {
 		return fmt.Errorf("%s: %w", path, err)
 	}
 	if path != "" && path != "-" {
-		fmt.Fprintf(e.Err, "wrote %s to %s\n", what, path)
+		notef(e, "wrote %s to %s\n", what, path)
 	}
 	return nil
 }

@@ -1,7 +1,6 @@
 package main
 
 import (
-	"fmt"
 	"strings"
 
 	"github.com/spf13/cobra"
@@ -63,7 +62,7 @@ func execute(args []string, e *env) int {
 			strings.Contains(msg, "accepts") && strings.Contains(msg, "arg(s)") {
 			err = usageErrorf("%s (see 'cardinal --help')", msg)
 		}
-		fmt.Fprintf(e.Err, "cardinal: %v\n", err)
+		notef(e, "cardinal: %v\n", err)
 	}
 	return exitCode(err)
 }

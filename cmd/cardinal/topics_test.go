@@ -58,3 +58,7 @@ func TestFormerFlagNames(t *testing.T) {
 		t.Errorf("former names: back clearance %g, envelope %g, in drawer %v", got.Req.BFDMin, got.Req.LengthMax, got.Req.DrawerOnly)
 	}
 }
+
+// unwrapped joins the continuation lines notef wraps (indented by two
+// spaces), so that tests can look for a message whatever the width.
+func unwrapped(s string) string { return strings.ReplaceAll(s, "\n  ", " ") }
