@@ -150,3 +150,32 @@ func Fixed(v float64, decimals int) string {
 	}
 	return s
 }
+
+// BuildHeader names the columns of BuildRows.
+var BuildHeader = []string{"step", "part or space", "orientation", "at the vertices (mm)", "at the rims (mm)"}
+
+// Rows lays the build sheet out as a table, in light order: the object
+// distance, each part (its centre and edge thickness) and the space after
+// it (the vertex gap and the spacer between the rims), the distance to the
+// image, and the overall length.
+func (b Build) Rows(sides Sides) [][]string {
+	var rows [][]string
+	if b.ObjectToFirstMM != nil {
+		rows = append(rows, []string{"", sides.Before + " to first vertex", "", fmtMM(*b.ObjectToFirstMM), ""})
+	}
+	for i, p := range b.Parts {
+		rows = append(rows, []string{fmt.Sprint(p.Order), p.Part, p.Orientation, fmtMM(p.CentreMM) + " thick", fmtMM(p.EdgeMM) + " thick"})
+		if i < len(b.Spacings) {
+			sp := b.Spacings[i]
+			rows = append(rows, []string{"", fmt.Sprintf("space between parts %d and %d", p.Order, p.Order+1), "", fmtMM(sp.VertexMM), fmtMM(sp.EdgeMM)})
+		}
+	}
+	if b.LastToImageMM != nil {
+		to := sides.After
+		if b.ObjectToFirstMM == nil {
+			to = "focal plane"
+		}
+		rows = append(rows, []string{"", "last vertex to " + to, "", fmtMM(*b.LastToImageMM), ""})
+	}
+	return append(rows, []string{"", "overall length, " + b.OverallText, "", fmtMM(b.OverallMM), ""})
+}

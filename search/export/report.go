@@ -7,6 +7,7 @@ import (
 	"fmt"
 	"html/template"
 	"io"
+	"strings"
 	"time"
 
 	"cardinal/search"
@@ -34,12 +35,13 @@ type ReportInput struct {
 type reportPick struct {
 	Rank     int
 	Parts    string
+	Names    template.HTML // the parts, each name unbroken
 	Spacings string
 	Drawing  template.HTML // inline SVG, made by this package
 	Plot     template.URL  // PNG as a data URI
 	Spots    Spots
-	Quality  map[string]float64
-	Limited  string // the search's diffraction-limited verdict, yes or no; "" when not traced
+	Figures  []figureRow // the search's real-ray figures, with human labels
+	Build    [][]string  // the build sheet's rows (BuildHeader)
 	Warnings []string
 }
 
@@ -55,12 +57,17 @@ type reportPage struct {
 	RequestNotes    [][2]string
 	QualityColumns  search.QualityShown
 	RankingNote     string
+	BuildHeader     []string
+	// FieldNote says which field the drawings and plots use, the same for
+	// every pick.
+	FieldNote string
 }
 
 var reportFuncs = template.FuncMap{
-	"parts":    DescribeParts,
+	"parts":    partsHTML,
+	"zero":     Fixed,
 	"mm":       func(v *float64) string { return optMM(v) },
-	"fixed":    func(v float64, d int) string { return fmt.Sprintf("%.*f", d, v) },
+	"fixed":    Fixed,
 	"target":   targetText,
 	"checks":   checksText,
 	"price":    priceText,
@@ -69,7 +76,7 @@ var reportFuncs = template.FuncMap{
 	"airy":     airyText,
 	"limited":  limitedText,
 	"shift":    shiftText,
-	"figure":   func(v float64) string { return fmt.Sprintf("%.3g", v) },
+	"figure":   figure,
 	"rmsAt":    rmsAt,
 	"timefmt":  func(t time.Time) string { return t.UTC().Format("2006-01-02 15:04 UTC") },
 	"imageRow": func(sp Spots) bool { return !sp.Angular },
@@ -84,9 +91,10 @@ var reportTmpl = template.Must(template.New("report").Funcs(reportFuncs).Parse(r
 // fetches nothing.
 func WriteReport(w io.Writer, in ReportInput) error {
 	page := reportPage{ReportInput: in, RequirementText: DescribeRequirement(in.Requirement), Picked: map[int]bool{},
-		Cautions: Cautions(in.Requirement), RequestRows: in.Request.Rows(), RequestHeader: RequestHeader, RequestNotes: in.Request.Notes(),
-		QualityColumns: search.ShownQuality(in.Results)}
+		Cautions: Cautions(in.Requirement), RequestRows: in.Request.Rows(), RequestHeader: RequestLabels, RequestNotes: notesWithoutBuilds(in.Request.Notes()),
+		QualityColumns: search.ShownQuality(in.Results), BuildHeader: BuildHeader}
 	page.RankingNote = rankingNote(in.Requirement, page.QualityColumns)
+	in.Draw, in.Plot, page.FieldNote = commonField(in.Picks, in.Draw, in.Plot)
 	for _, s := range in.Picks {
 		p, err := pickPage(s, in)
 		if err != nil {
@@ -101,10 +109,8 @@ func WriteReport(w io.Writer, in ReportInput) error {
 // pickPage draws and plots one pick.
 func pickPage(s Solution, in ReportInput) (reportPick, error) {
 	p := reportPick{Rank: s.Result.Rank, Parts: DescribeParts(s.Result.Parts),
-		Spacings: DescribeSpacings(in.Requirement.Kind, s.Result), Quality: s.Result.Quality, Warnings: s.Verify()}
-	if s.Result.ImageQuality != nil {
-		p.Limited = yesNo(s.Result.DiffractionLimited)
-	}
+		Spacings: DescribeSpacings(in.Requirement.Kind, s.Result), Figures: qualityFigures(s.Result), Warnings: s.Verify(),
+		Build: s.Build().Rows(SidesOf(in.Requirement.Kind)), Names: partsHTML(s.Result.Parts)}
 	sc, err := NewScene(s, in.Draw)
 	if err != nil {
 		return p, fmt.Errorf("solution %d: %w", p.Rank, err)
@@ -125,6 +131,18 @@ func pickPage(s Solution, in ReportInput) (reportPick, error) {
 	}
 	p.Plot = template.URL("data:image/png;base64," + base64.StdEncoding.EncodeToString(b.Bytes()))
 	return p, nil
+}
+
+// notesWithoutBuilds drops the request's build-sheet notes: the report
+// shows each build sheet as a table of its own.
+func notesWithoutBuilds(ns [][2]string) [][2]string {
+	var out [][2]string
+	for _, n := range ns {
+		if !strings.HasPrefix(n[0], "build ") {
+			out = append(out, n)
+		}
+	}
+	return out
 }
 
 // rmsAt is the RMS radius of field i at wavelength j.

@@ -12,6 +12,9 @@ import (
 // RequestHeader names the columns of a request's rows.
 var RequestHeader = []string{"supplier", "part", "description", "needed", "in_drawer", "location", "to_order", "unit_price", "line_total", "currency", "url"}
 
+// RequestLabels are RequestHeader in words, for pages people read.
+var RequestLabels = []string{"supplier", "part", "description", "needed", "in drawer", "location", "to order", "unit price", "line total", "currency", "where to buy"}
+
 // Rows lays the request out as a table: each supplier's lines, then its
 // subtotal (one row per currency), then the grand totals, one row per
 // currency. Quantities are whole numbers, money has two decimals, an

@@ -17,6 +17,9 @@ type DrawOptions struct {
 	Field float64
 	// Title heads the drawing; empty gives one from the solution.
 	Title string
+	// Illustrative says that Field was chosen by the program, not by the
+	// user or the requirement (the legend says so).
+	Illustrative bool
 }
 
 // A Scene is a solution's layout in the meridional plane, z along the axis
@@ -29,6 +32,9 @@ type Scene struct {
 	// DrawOptions); FieldGiven is false when the drawing chose it.
 	Field      float64
 	FieldGiven bool
+	// Beam is true for a laser requirement without a field: the drawing
+	// shows the beam's envelope and no chief ray of an invented field.
+	Beam bool
 	// Vertices[k] is the z of surface k's vertex.
 	Vertices []float64
 	// PartSurfaces[i] is the index of part i's first surface.
@@ -82,6 +88,8 @@ func NewScene(s Solution, o DrawOptions) (Scene, error) {
 		sc.ImageZ = env + s.ImageZ
 	}
 	sc.Field, sc.FieldGiven = DefaultField(s, o.Field)
+	sc.FieldGiven = sc.FieldGiven && !o.Illustrative
+	sc.Beam = !sc.FieldGiven && s.Requirement.Laser()
 	if err := sc.trace(sys); err != nil {
 		return Scene{}, err
 	}

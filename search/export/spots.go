@@ -107,8 +107,11 @@ func NewSpots(s Solution, o PlotOptions) (Spots, error) {
 	if len(wls) == 0 {
 		wls = DefaultWavelengths(s)
 	}
-	edge, _ := DefaultField(s, o.Field)
+	edge, given := DefaultField(s, o.Field)
 	sp := Spots{Angular: s.Afocal(), AtInfinity: math.IsInf(s.ObjectZ, -1), ImageZ: s.ImageZ, Wavelengths: wls, Fields: []float64{0, 0.7 * edge, edge}}
+	if !given && s.Requirement.Laser() { // a laser beam with no field: on axis only, no invented field
+		sp.Fields = sp.Fields[:1]
+	}
 	sys := s.System()
 	for i, f := range sp.Fields {
 		ref, err := chiefAt(sys, s, f, wls[0])

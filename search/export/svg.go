@@ -30,6 +30,8 @@ type svgDoc struct {
 	sc *Scene
 	fs float64 // font size, mm
 	sw float64 // stroke width, mm
+	// dimLabels are the dimensions as placed (placeDims).
+	dimLabels []dimLabel
 }
 
 // WriteSVG writes the scene as a self-contained SVG drawing to scale: one
@@ -37,16 +39,15 @@ type svgDoc struct {
 // optical axis is y = 0. The SVG has no ids, scripts, style sheets or
 // external references, so that several can sit in one HTML page.
 func (sc *Scene) WriteSVG(w io.Writer, o DrawOptions) error {
-	d := &svgDoc{sc: sc}
-	width := sc.XMax - sc.XMin
-	d.fs = math.Min(math.Max(width/60, 1.2), 8)
+	d := &svgDoc{sc: sc, fs: fontSize(*sc)}
 	d.sw = d.fs / 14
-	x0 := sc.XMin - 3*d.fs
-	x1 := math.Max(sc.XMax+4*d.fs, x0+legendIndent*d.fs+minLegendRunes*advance*legendSize*d.fs+d.fs)
+	x0, x1 := d.extent()
 	title := wrapText(d.title(o), runesIn(x1-x0-2*d.fs, titleSize*d.fs))
 	legend := d.legendRows(runesIn(x1-x0-legendIndent*d.fs-d.fs, legendSize*d.fs))
 	top := sc.YMax + (5+1.4*float64(len(title)-1))*d.fs
-	bottom := d.dimY(2) + 2.5*d.fs + float64(len(legend))*1.5*d.fs
+	d.placeDims(x0+0.2*d.fs, x1-0.2*d.fs)
+	last := d.dimY(max(d.lastDimRow(), 2))
+	bottom := last + 2.5*d.fs + float64(len(legend))*1.5*d.fs
 	scale, note := printScale(x1 - x0)
 	fmt.Fprintf(&d.b, `<svg xmlns="http://www.w3.org/2000/svg" class="cardinal-layout" viewBox="%s %s %s %s" width="%smm" height="%smm" font-family="sans-serif" data-units="mm" data-print-scale="%s">`+"\n",
 		f4(x0), f4(-top), f4(x1-x0), f4(top+bottom), f4((x1-x0)/scale), f4((top+bottom)/scale), note)
@@ -56,15 +57,27 @@ func (sc *Scene) WriteSVG(w io.Writer, o DrawOptions) error {
 	}
 	d.line("axis", x0, 0, x1, 0, colourFaint, d.sw, fmt.Sprintf(` stroke-dasharray="%s %s %s %s"`, f4(3*d.fs), f4(d.fs/2), f4(d.fs/2), f4(d.fs/2)))
 	d.parts()
+	d.partTags()
 	d.planes()
 	d.rays()
 	d.marks()
 	d.dims()
-	d.scaleBar(x0, d.dimY(2)+1.5*d.fs)
-	d.writeLegend(legend, x0, d.dimY(2)+3.2*d.fs)
+	d.scaleBar(x0, last+1.5*d.fs)
+	d.writeLegend(legend, x0, last+3.2*d.fs)
 	d.b.WriteString("</svg>\n")
 	_, err := w.Write(d.b.Bytes())
 	return err
+}
+
+// fontSize is the drawing's font size in mm: a sixtieth of its length,
+// between 1.2 and 8 mm.
+func fontSize(sc Scene) float64 { return math.Min(math.Max((sc.XMax-sc.XMin)/60, 1.2), 8) }
+
+// extent is the drawing's left and right edge: a margin beyond the scene,
+// and wide enough for a legend line of minLegendRunes characters.
+func (d *svgDoc) extent() (x0, x1 float64) {
+	x0 = d.sc.XMin - 3*d.fs
+	return x0, math.Max(d.sc.XMax+4*d.fs, x0+legendIndent*d.fs+minLegendRunes*advance*legendSize*d.fs+d.fs)
 }
 
 // printScale chooses the scale at which the drawing prints no wider than
@@ -115,6 +128,17 @@ func (d *svgDoc) parts() {
 			z1, _ := p.Surfaces[len(p.Surfaces)-1].Sag(h)
 			d.line("edge", sc.Vertices[k0]+z0, -y, sc.Vertices[k0+len(p.Surfaces)-1]+z1, -y, colourSurface, d.sw, "")
 		}
+	}
+}
+
+// partTags number the parts in light order above each one, as the build
+// sheet in the legend numbers them.
+func (d *svgDoc) partTags() {
+	sc := d.sc
+	for i, p := range sc.Solution.Parts {
+		z := (sc.Vertices[sc.PartSurfaces[i]] + sc.Vertices[sc.PartSurfaces[i]+len(p.Surfaces)-1]) / 2
+		fmt.Fprintf(&d.b, `<text class="part-tag" data-part="%d" x="%s" y="%s" font-size="%s" font-weight="bold" text-anchor="middle" fill="%s">%d</text>`+"\n",
+			i+1, f4(z), f4(-p.Diameter/2-0.4*d.fs), f4(0.9*d.fs), colourSurface, i+1)
 	}
 }
 

@@ -13,7 +13,8 @@ import (
 // measureScript runs in the browser after the drawings: for every text of
 // every drawing it takes the box the browser rendered (getBBox, in the
 // drawing's user units, with the fonts the browser really has) and lists
-// each one that reaches outside the drawing's viewBox.
+// each one that reaches outside the drawing's viewBox, and each dimension
+// label whose box overlaps another text's.
 const measureScript = `<script>
 const out = [];
 let n = 0;
@@ -28,8 +29,23 @@ for (const svg of document.querySelectorAll("svg.cardinal-layout")) {
     }
   }
 }
+const clash = [];
+for (const svg of document.querySelectorAll("svg.cardinal-layout")) {
+  const texts = [...svg.querySelectorAll("text")];
+  for (const a of svg.querySelectorAll("text.dim-label")) {
+    const p = a.getBBox();
+    for (const t of texts) {
+      if (t === a) continue;
+      const q = t.getBBox();
+      if (p.x < q.x + q.width && q.x < p.x + p.width && p.y < q.y + q.height && q.y < p.y + p.height) {
+        clash.push(svg.dataset.name + ": " + a.textContent + " overlaps " + t.textContent);
+      }
+    }
+  }
+}
 document.getElementById("measured").textContent = n;
 document.getElementById("overflow").textContent = out.join("\n");
+document.getElementById("overlaps").textContent = clash.join("\n");
 </script>`
 
 // browserPage is a page of drawings followed by the measuring script.
@@ -41,7 +57,7 @@ func browserPage(t *testing.T, drawings map[string][]byte) string {
 		tagged := strings.Replace(string(svg), `class="cardinal-layout"`, fmt.Sprintf(`class="cardinal-layout" data-name=%q`, name), 1)
 		fmt.Fprintf(&b, `<div style="width:1200px">%s</div>`, strings.Replace(tagged, "<svg ", `<svg style="width:100%;height:auto" `, 1))
 	}
-	b.WriteString(`<pre id="measured"></pre><pre id="overflow"></pre>` + measureScript + `</body></html>`)
+	b.WriteString(`<pre id="measured"></pre><pre id="overflow"></pre><pre id="overlaps"></pre>` + measureScript + `</body></html>`)
 	return b.String()
 }
 
@@ -61,7 +77,9 @@ func preText(t *testing.T, dom, id string) string {
 }
 
 // Every text of the layout drawings, the legend's long lines and the laser
-// caution among them, lies inside the drawing as a real browser renders it.
+// caution among them, lies inside the drawing as a real browser renders
+// it, and no dimension label overlaps another text (a short gap beside a
+// long back clearance on a 300 mm track among them).
 func TestSVGTextInsideTheDrawing(t *testing.T) {
 	bin := chromium(t)
 	drawings := map[string][]byte{}
@@ -71,6 +89,7 @@ func TestSVGTextInsideTheDrawing(t *testing.T) {
 			drawings[fmt.Sprintf("%s %d", kind, i+1)] = svg
 		}
 	}
+	drawings["short gap on a long track"] = shortGapDrawing(t)
 	long := solve(t, testRequirements()["focus"])[0]
 	_, drawings["long title"] = drawBytes(t, long, DrawOptions{Title: strings.Repeat("a long title that goes on, ", 12)})
 	page := filepath.Join(t.TempDir(), "drawings.html")
@@ -86,6 +105,9 @@ func TestSVGTextInsideTheDrawing(t *testing.T) {
 	}
 	if over := preText(t, dom, "overflow"); over != "" {
 		t.Errorf("texts outside the drawing:\n%s", over)
+	}
+	if clash := preText(t, dom, "overlaps"); clash != "" {
+		t.Errorf("dimension labels overlapping other texts:\n%s", clash)
 	}
 }
 

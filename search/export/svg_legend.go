@@ -10,7 +10,7 @@ import (
 // A legendLine is one line of the drawing's legend: a sample (a ray's
 // line, a mark's glyph, or nothing) and its words.
 type legendLine struct {
-	sample string // "marginal", "chief", "rim", "part", "system", "caution" (words in colour, no sample), ""
+	sample string // "marginal", "chief", "rim", "part", "system", "caution" (words in colour, no sample), "build" (no sample), ""
 	text   string
 }
 
@@ -46,6 +46,13 @@ func (d *svgDoc) legend() []legendLine {
 		}
 	}
 	ls = append(ls, legendLine{"", "z from the first vertex; lengths in mm"})
+	sides := SidesOf(sc.Solution.Requirement.Kind)
+	for i, l := range sc.Solution.Build().Lines(sides) {
+		if i == 0 {
+			l = "to build, in light order (parts numbered on the drawing): " + l
+		}
+		ls = append(ls, legendLine{"build", l})
+	}
 	for _, c := range Cautions(sc.Solution.Requirement) {
 		ls = append(ls, legendLine{"caution", "laser caution: " + c})
 	}

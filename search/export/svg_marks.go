@@ -48,54 +48,36 @@ func (d *svgDoc) marks() {
 }
 
 func (d *svgDoc) glyph(m Mark, colour string, y float64) {
-	g := 0.4 * d.fs
+	g := d.markSize(y != 0)
 	switch strings.TrimSuffix(m.Kind, "′") {
 	case "F":
 		fmt.Fprintf(&d.b, `<polygon class="glyph-focal" points="%s,%s %s,%s %s,%s %s,%s" fill="%s"/>`+"\n",
 			f4(m.Z-g), f4(y), f4(m.Z), f4(y-g), f4(m.Z+g), f4(y), f4(m.Z), f4(y+g), colour)
 	case "P":
-		d.line("glyph-principal", m.Z, y-2.2*g, m.Z, y+2.2*g, colour, 2.5*d.sw, "")
+		d.line("glyph-principal", m.Z, y-2.2*g, m.Z, y+2.2*g, colour, math.Min(2.5*d.sw, 0.4*g), ` stroke-opacity="0.8"`)
 	default:
 		fmt.Fprintf(&d.b, `<circle class="glyph-nodal" cx="%s" cy="%s" r="%s" fill="none" stroke="%s" stroke-width="%s"/>`+"\n",
-			f4(m.Z), f4(y), f4(g), colour, f4(d.sw*1.5))
+			f4(m.Z), f4(y), f4(g), colour, f4(math.Min(1.5*d.sw, 0.3*g)))
 	}
+}
+
+// markSize is the half-size of a cardinal point's glyph: 0.4 of the font
+// size, but no more than 0.15 of the smallest part's semi-diameter on
+// the drawing, so that the marks of small parts on a long track leave the
+// parts visible; in the legend (inLegend) always the font's.
+func (d *svgDoc) markSize(inLegend bool) float64 {
+	g := 0.4 * d.fs
+	if inLegend {
+		return g
+	}
+	for _, p := range d.sc.Solution.Parts {
+		g = math.Min(g, 0.15*p.Diameter/2)
+	}
+	return g
 }
 
 // dimY is the height of dimension row r below the axis (SVG y, down).
-func (d *svgDoc) dimY(r int) float64 { return d.sc.YMax + (4.4+2.2*float64(r))*d.fs }
-
-// dims draws each distance with extension lines and slanted ticks at its
-// ends (architectural terminators), its value in mm above the line; a
-// short one gets a short name, or its text beside it.
-func (d *svgDoc) dims() {
-	for _, dm := range d.sc.Dims {
-		y := d.dimY(dm.Row)
-		for _, z := range []float64{dm.Z0, dm.Z1} {
-			d.line("extension", z, d.sc.YMax+0.3*d.fs, z, y+0.5*d.fs, colourFaint, d.sw/2, "")
-			t := 0.35 * d.fs
-			d.line("tick", z-t, y+t, z+t, y-t, colourDim, 1.5*d.sw, "")
-		}
-		fmt.Fprintf(&d.b, `<line class="dim" data-name="%s" data-from="%s" data-to="%s" x1="%s" y1="%s" x2="%s" y2="%s" stroke="%s" stroke-width="%s"/>`+"\n",
-			dm.Name, f4(dm.Z0), f4(dm.Z1), f4(dm.Z0), f4(y), f4(dm.Z1), f4(y), colourDim, f4(d.sw))
-		d.dimText(dm, y)
-	}
-}
-
-var shortDimNames = map[string]string{"working distance": "wd", "back clearance": "back", "envelope": "env", "track": "track", "gap": "gap"}
-
-func (d *svgDoc) dimText(dm Dim, y float64) {
-	length := math.Abs(dm.Z1 - dm.Z0)
-	fits := func(s string) bool { return 0.5*0.8*d.fs*float64(len([]rune(s))) < length }
-	label := fmt.Sprintf("%s %.2f", dm.Name, length)
-	if !fits(label) {
-		label = fmt.Sprintf("%s %.2f", shortDimNames[dm.Name], length)
-	}
-	x, anchor := (dm.Z0+dm.Z1)/2, "middle"
-	if !fits(label) {
-		x, anchor = math.Max(dm.Z0, dm.Z1)+0.6*d.fs, "start"
-	}
-	d.text(x, y-0.35*d.fs, 0.8*d.fs, anchor, colourDim, label)
-}
+func (d *svgDoc) dimY(r int) float64 { return d.sc.YMax + (4.4+2.8*float64(r))*d.fs }
 
 // scaleBar draws a bar of a round length, about a fifth of the drawing.
 func (d *svgDoc) scaleBar(x, y float64) {
