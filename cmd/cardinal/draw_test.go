@@ -139,12 +139,18 @@ func TestRunDrawSpot(t *testing.T) {
 	for _, name := range []string{"spot.png", "spot.svg"} {
 		t.Run(name, func(t *testing.T) {
 			file := filepath.Join(dir, name)
-			_, errs, code := cmdRun(t, db, "draw", "1", "--pick", "1", "--spot", "-o", file)
+			_, errs, code := cmdRun(t, db, "draw", "1", "--pick", "1", "--spot", "-o", file, "--field", "0.5")
 			if code != 0 {
 				t.Fatalf("exit %d: %s", code, errs)
 			}
 			mustContain(t, errs, "RMS spot radius", "Airy radius", "caution: Focused laser beams", "on axis, 1064.0 nm: RMS")
 			checkFieldUnits(t, errs, "field angle ", "°, ")
+			// Without a field, a laser search is plotted on axis only: no
+			// invented field point.
+			_, errs, code = cmdRun(t, db, "draw", "1", "--pick", "1", "--spot", "-o", file+"-axis"+filepath.Ext(name))
+			if code != 0 || strings.Contains(errs, "field angle") || !strings.Contains(errs, "on axis, 1064.0 nm: RMS") {
+				t.Errorf("exit %d, a laser search without a field: %s", code, errs)
+			}
 			f, err := os.Open(file)
 			if err != nil {
 				t.Fatal(err)
