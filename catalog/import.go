@@ -40,29 +40,86 @@ func (s *Store) Import(ctx context.Context, entries []importers.Entry, dryRun bo
 	if bad := checkEntries(entries, glasses); len(bad) > 0 {
 		return rep, &ImportError{Rows: bad}
 	}
+	stored := parallel(len(entries), func(i int) storedEntry { return newStoredEntry(entries[i]) })
 	w := newTxWriter(tx)
-	for _, en := range entries {
-		e := newStoredEntry(en)
-		what, err := upsert(ctx, w, e, glasses)
-		if err != nil {
-			return rep, s.wrapWriteError(fmt.Errorf("line %d: %s: %w", e.Line, e.Part.ID(), err))
-		}
-		switch what {
-		case added:
-			rep.Added = append(rep.Added, e.Part.ID())
-		case updated:
-			rep.Updated = append(rep.Updated, e.Part.ID())
+	found, err := storedParts(ctx, w, entries)
+	if err != nil {
+		return rep, err
+	}
+	var next int64
+	if err := tx.QueryRowContext(ctx, "SELECT coalesce(max(id), 0) FROM parts").Scan(&next); err != nil {
+		return rep, err
+	}
+	var fresh []newPart // added parts, written in batches
+	for i, e := range stored {
+		id := e.Part.ID()
+		old, ok := found[id]
+		switch {
+		case !ok:
+			next++
+			fresh = append(fresh, newPart{id: next, e: &stored[i]})
+			rep.Added = append(rep.Added, id)
+		case old.fingerprint == e.fingerprint:
+			rep.Unchanged = append(rep.Unchanged, id)
 		default:
-			rep.Unchanged = append(rep.Unchanged, e.Part.ID())
+			if _, err := writePart(ctx, w, old.id, e, glasses); err != nil {
+				return rep, s.wrapWriteError(fmt.Errorf("line %d: %s: %w", e.Line, id, err))
+			}
+			rep.Updated = append(rep.Updated, id)
 		}
-		for _, w := range e.warnings() {
-			rep.Warnings = append(rep.Warnings, RowError{Line: e.Line, ID: e.Part.ID(), Reason: w})
+		for _, msg := range e.warnings() {
+			rep.Warnings = append(rep.Warnings, RowError{Line: e.Line, ID: id, Reason: msg})
 		}
+	}
+	if err := writeNewParts(ctx, w, fresh, glasses); err != nil {
+		return rep, s.wrapWriteError(err)
 	}
 	if dryRun {
 		return rep, nil
 	}
 	return rep, s.wrapWriteError(tx.Commit())
+}
+
+// A storedPart is the id and fingerprint of a part already stored.
+type storedPart struct {
+	id          int64
+	fingerprint string
+}
+
+// storedParts finds the entries' parts already in the catalog, by
+// SUPPLIER:PART: one query per entry for a few entries, one scan of the
+// parts for many.
+func storedParts(ctx context.Context, w *txWriter, entries []importers.Entry) (map[string]storedPart, error) {
+	out := map[string]storedPart{}
+	if len(entries) < 64 {
+		for _, e := range entries {
+			var p storedPart
+			err := w.QueryRowContext(ctx, "SELECT id, fingerprint FROM parts WHERE supplier = ? AND part = ?",
+				e.Part.Supplier, e.Part.Name).Scan(&p.id, &p.fingerprint)
+			switch {
+			case errors.Is(err, sql.ErrNoRows):
+			case err != nil:
+				return nil, err
+			default:
+				out[e.Part.ID()] = p
+			}
+		}
+		return out, nil
+	}
+	rows, err := w.QueryContext(ctx, "SELECT id, supplier, part, fingerprint FROM parts")
+	if err != nil {
+		return nil, err
+	}
+	defer rows.Close()
+	for rows.Next() {
+		var p storedPart
+		var sup, part string
+		if err := rows.Scan(&p.id, &sup, &part, &p.fingerprint); err != nil {
+			return nil, err
+		}
+		out[sup+":"+part] = p
+	}
+	return out, rows.Err()
 }
 
 type upsertResult int
@@ -73,32 +130,14 @@ const (
 	updated
 )
 
-// upsert stores one entry unless the stored part is identical.
-func upsert(ctx context.Context, tx *txWriter, e storedEntry, glasses optics.GlassTable) (upsertResult, error) {
-	var id int64
-	var fp string
-	err := tx.QueryRowContext(ctx, "SELECT id, fingerprint FROM parts WHERE supplier = ? AND part = ?",
-		e.Part.Supplier, e.Part.Name).Scan(&id, &fp)
-	switch {
-	case errors.Is(err, sql.ErrNoRows):
-		_, err = writePart(ctx, tx, 0, e, glasses)
-		return added, err
-	case err != nil:
-		return unchanged, err
-	case fp == e.fingerprint:
-		return unchanged, nil
-	}
-	_, err = writePart(ctx, tx, id, e, glasses)
-	return updated, err
-}
-
 // checkEntries lists every problem in the entries: an invalid prescription,
 // a medium the glass table does not know (or knows otherwise), a number that
 // is not finite, a part given twice.
 func checkEntries(entries []importers.Entry, glasses optics.GlassTable) []RowError {
 	var bad []RowError
-	seen := map[string]int{}
-	for _, e := range entries {
+	seen := make(map[string]int, len(entries))
+	problems := parallel(len(entries), func(i int) optics.Problems { return checkEntry(entries[i], glasses) })
+	for i, e := range entries {
 		id := e.Part.ID()
 		add := func(field, reason string) {
 			bad = append(bad, RowError{Line: e.Line, ID: id, Field: field, Reason: reason})
@@ -107,7 +146,7 @@ func checkEntries(entries []importers.Entry, glasses optics.GlassTable) []RowErr
 			add("part", givenTwice(first))
 		}
 		seen[id] = e.Line
-		for _, p := range checkEntry(e, glasses) {
+		for _, p := range problems[i] {
 			add(p.Field, p.Reason)
 		}
 	}

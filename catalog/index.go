@@ -37,10 +37,28 @@ type IndexPart struct {
 	// Index.Glasses (the medium after surface i).
 	Radii, Thickness []float64
 	Glass            []uint16
-	// First and Last are the outer surfaces in full (conic and asphere
-	// terms too), for the edge clearance between two parts.
-	First, Last optics.Surface
-	Quantity    int // pieces in the drawer, from the drawer table when loaded
+	// Conics holds the outer surfaces in full when either has conic or
+	// asphere terms (nil for spheres, whose radius is all there is): see
+	// First and Last.
+	Conics   *[2]optics.Surface
+	Quantity int // pieces in the drawer, from the drawer table when loaded
+}
+
+// First is the first surface in full, for the edge clearance between two
+// parts.
+func (p *IndexPart) First() optics.Surface {
+	if p.Conics != nil {
+		return p.Conics[0]
+	}
+	return optics.Surface{Radius: p.Radii[0]}
+}
+
+// Last is the last surface in full.
+func (p *IndexPart) Last() optics.Surface {
+	if p.Conics != nil {
+		return p.Conics[1]
+	}
+	return optics.Surface{Radius: p.Radii[len(p.Radii)-1]}
 }
 
 // PartID returns SUPPLIER:PART.
@@ -103,7 +121,10 @@ func newIndexRecord(id int64, e importers.Entry) indexRecord {
 	r := indexRecord{IndexPart: IndexPart{ID: id, Supplier: p.Supplier, Name: p.Name,
 		Diameter: p.Diameter, Aperture: p.Aperture(), Price: e.Price, Currency: e.Currency,
 		Symmetric: p.Symmetric(), Matrix: p.System(nil, nil).Matrix(Wavelength),
-		Thickness: p.Thickness, First: p.Surfaces[0], Last: p.Surfaces[len(p.Surfaces)-1]}}
+		Thickness: p.Thickness}}
+	if first, last := p.Surfaces[0], p.Surfaces[len(p.Surfaces)-1]; isAsph(first) || isAsph(last) {
+		r.Conics = &[2]optics.Surface{first, last}
+	}
 	r.Radii = make([]float64, len(p.Surfaces))
 	for i, s := range p.Surfaces {
 		r.Radii[i] = s.Radius
@@ -122,10 +143,10 @@ func (r *indexRecord) encode(buf []byte) []byte {
 	if r.Symmetric {
 		flags |= flagSymmetric
 	}
-	if isAsph(r.First) {
+	if isAsph(r.First()) {
 		flags |= flagFirstAsph
 	}
-	if isAsph(r.Last) {
+	if isAsph(r.Last()) {
 		flags |= flagLastAsph
 	}
 	buf = append(buf, recordFormat, flags, byte(len(r.Radii)))
@@ -144,7 +165,7 @@ func (r *indexRecord) encode(buf []byte) []byte {
 	for _, v := range r.Thickness {
 		f(v)
 	}
-	for _, s := range []optics.Surface{r.First, r.Last} {
+	for _, s := range []optics.Surface{r.First(), r.Last()} {
 		if isAsph(s) {
 			f(s.Conic)
 			for _, a := range s.Asph {
@@ -228,12 +249,15 @@ func decodeRecord(b []byte, p *IndexPart, intern func([]byte) uint16, str func([
 	p.Thickness = arena[start+n : start+2*n-1 : start+2*n-1]
 	p.Glass = glass
 	p.Symmetric = flags&flagSymmetric != 0
-	p.First, p.Last = optics.Surface{Radius: p.Radii[0]}, optics.Surface{Radius: p.Radii[n-1]}
-	for k, s := range []*optics.Surface{&p.First, &p.Last} {
-		if flags&(flagFirstAsph<<k) != 0 {
-			s.Conic = d.float()
-			for i := range s.Asph {
-				s.Asph[i] = d.float()
+	p.Conics = nil
+	if flags&(flagFirstAsph|flagLastAsph) != 0 {
+		p.Conics = &[2]optics.Surface{{Radius: p.Radii[0]}, {Radius: p.Radii[n-1]}}
+		for k := range p.Conics {
+			if s := &p.Conics[k]; flags&(flagFirstAsph<<k) != 0 {
+				s.Conic = d.float()
+				for i := range s.Asph {
+					s.Asph[i] = d.float()
+				}
 			}
 		}
 	}

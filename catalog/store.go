@@ -71,7 +71,7 @@ func (s *Store) Close() error { return s.db.Close() }
 // that two importers queue up rather than fail half-way with a stale
 // snapshot (read transactions stay deferred).
 func dsn(path string) string {
-	q := "?_pragma=foreign_keys(1)&_pragma=busy_timeout(10000)&_pragma=cache_size(-65536)&_pragma=mmap_size(268435456)&_txlock=immediate"
+	q := "?_pragma=foreign_keys(1)&_pragma=busy_timeout(10000)&_pragma=cache_size(-65536)&_pragma=temp_store(2)&_pragma=mmap_size(268435456)&_txlock=immediate"
 	if path == Memory {
 		return Memory + q
 	}

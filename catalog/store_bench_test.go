@@ -4,8 +4,10 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
+	"path/filepath"
 	"testing"
 
+	"cardinal/catalog/synth"
 	"cardinal/importers"
 )
 
@@ -71,5 +73,33 @@ func BenchmarkOpenDemo(b *testing.B) {
 			b.Fatal(err)
 		}
 		s.Close()
+	}
+}
+
+// BenchmarkImportSynth imports a synthetic catalog (catalog/synth, seed 1)
+// into a new catalog file, as `cardinal catalog import` does after reading
+// the CSV: the figure the import targets are about.
+func BenchmarkImportSynth(b *testing.B) {
+	for _, n := range []int{5000, 50000, 200000} {
+		b.Run(fmt.Sprint(n), func(b *testing.B) {
+			es := synth.Catalog(1, n)
+			dir := b.TempDir()
+			k := 0
+			for b.Loop() {
+				b.StopTimer()
+				k++
+				s, err := Open(filepath.Join(dir, fmt.Sprintf("import-%d.db", k)))
+				if err != nil {
+					b.Fatal(err)
+				}
+				b.StartTimer()
+				if _, err := s.Import(ctx, es, false); err != nil {
+					b.Fatal(err)
+				}
+				b.StopTimer()
+				s.Close()
+				b.StartTimer()
+			}
+		})
 	}
 }

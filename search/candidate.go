@@ -61,6 +61,12 @@ type prepared struct {
 	warnings  []string
 	outside   []string           // media used outside their dispersion range
 	priceRefs map[string]float64 // median price by currency
+	// chunks are the candidates as the workers found them, before finish
+	// sorts them into cands; surfBase is where a worker's surfaces start
+	// in the shared surfs.
+	chunks   [][]cand
+	scratch  []cand // the array the chunks share
+	surfBase int32
 }
 
 // partInfo is what the output says of an item besides its figures.
@@ -79,7 +85,7 @@ func prepare(items []Item, req Requirement) *prepared {
 		e := &it.Entry
 		info[i] = partInfo{supplier: e.Part.Supplier, name: e.Part.Name, currency: e.Currency, price: e.Price}
 	}
-	p := inChunks(len(items), func(lo, hi int) *prepared { return prepareChunk(items, keys, lo, hi, req) })
+	p := inChunks(len(items), func(q *prepared, lo, hi int) { prepareChunk(q, items, keys, lo, hi, req) })
 	p.info = info
 	p.full = func(i int32) optics.Part { return items[i].Entry.Part }
 	p.finish(req)
@@ -87,32 +93,30 @@ func prepare(items []Item, req Requirement) *prepared {
 }
 
 // inChunks runs chunk over [0, n) in pieces on the processors and merges
-// what they prepared, in order.
-func inChunks(n int, chunk func(lo, hi int) *prepared) *prepared {
+// what they set aside. Each piece is handed a prepared whose cands and
+// surfs are its own region of shared arrays (two candidates and four
+// surfaces a part at most), so nothing is copied to merge them; finish
+// sorts the candidates.
+func inChunks(n int, chunk func(q *prepared, lo, hi int)) *prepared {
 	workers := max(1, min(runtime.GOMAXPROCS(0), 4, n/1000))
+	cands := make([]cand, 2*n)
+	p := &prepared{skipped: map[string]int{}, surfs: make([]optics.Surface, 4*n), scratch: cands}
 	parts := make([]*prepared, workers)
 	var wg sync.WaitGroup
 	for k := range parts {
 		lo, hi := k*n/workers, (k+1)*n/workers
+		parts[k] = &prepared{skipped: map[string]int{}, cands: cands[2*lo : 2*lo : 2*hi],
+			surfs: p.surfs[4*lo : 4*lo : 4*hi], surfBase: int32(4 * lo)}
 		wg.Add(1)
-		go func(k int) {
+		go func(q *prepared) {
 			defer wg.Done()
-			parts[k] = chunk(lo, hi)
-		}(k)
+			chunk(q, lo, hi)
+		}(parts[k])
 	}
 	wg.Wait()
-	total := 0
-	for _, q := range parts {
-		total += len(q.cands)
-	}
-	p := &prepared{skipped: map[string]int{}, cands: make([]cand, 0, total), surfs: make([]optics.Surface, 0, 2*total)}
 	outside := map[string]bool{}
 	for _, q := range parts {
-		for _, c := range q.cands {
-			c.surf += int32(len(p.surfs))
-			p.cands = append(p.cands, c)
-		}
-		p.surfs = append(p.surfs, q.surfs...)
+		p.chunks = append(p.chunks, q.cands)
 		for r, n := range q.skipped {
 			p.skipped[r] += n
 		}
@@ -134,19 +138,20 @@ func (p *prepared) finish(req Requirement) {
 			req.Lambda(), strings.Join(p.outside, ", ")))
 	}
 	p.priceRefs = priceReferences(p.info)
-	for i := range p.cands {
-		c := &p.cands[i]
-		e := &p.info[c.item]
-		c.unit = priceTerm(e.price, e.currency, p.priceRefs)
-		c.price = c.unit * c.away
+	for _, cs := range p.chunks {
+		for i := range cs {
+			c := &cs[i]
+			e := &p.info[c.item]
+			c.unit = priceTerm(e.price, e.currency, p.priceRefs)
+			c.price = c.unit * c.away
+		}
 	}
-	p.cands = byTier(p.cands)
+	p.cands = byTier(p.scratch, p.chunks)
+	p.chunks, p.scratch = nil, nil
 }
 
-// prepareChunk computes the candidates of items[lo:hi].
-func prepareChunk(items []Item, keys []int32, lo, hi int, req Requirement) *prepared {
-	p := &prepared{skipped: map[string]int{},
-		cands: make([]cand, 0, 2*(hi-lo)), surfs: make([]optics.Surface, 0, 4*(hi-lo))}
+// prepareChunk computes the candidates of items[lo:hi] into p.
+func prepareChunk(p *prepared, items []Item, keys []int32, lo, hi int, req Requirement) {
 	lambda := req.Lambda()
 	warned := map[string]bool{}
 	for i := lo; i < hi; i++ {
@@ -175,7 +180,6 @@ func prepareChunk(items []Item, keys []int32, lo, hi int, req Requirement) *prep
 			p.add(rc, part.Aperture()/2, last.Reversed(), first.Reversed(), it.Drawer, int32(i), keys[i], true)
 		}
 	}
-	return p
 }
 
 // add appends the candidate of one part in one orientation, by its
@@ -189,7 +193,7 @@ func (p *prepared) add(c optics.Cardinal, semi float64, first, last optics.Surfa
 		delta:    c.Length + c.PPrime - c.P,
 		m:        c.Matrix,
 		semi:     semi,
-		surf:     int32(len(p.surfs)),
+		surf:     p.surfBase + int32(len(p.surfs)),
 		frontMin: sagExtreme(first, semi, math.Min),
 		backMax:  sagExtreme(last, semi, math.Max),
 	})
@@ -251,10 +255,12 @@ func sagExtreme(s optics.Surface, h float64, pick func(a, b float64) float64) fl
 // tier groups candidates of like price and drawer availability, so that
 // the score bound can cut whole groups: four price quartiles, in the drawer
 // or not.
-func tiers(cs []cand) []int8 {
-	ps := make([]float64, len(cs))
-	for i := range cs {
-		ps[i] = cs[i].price
+func tiers(chunks [][]cand) []int8 {
+	var ps []float64
+	for _, cs := range chunks {
+		for i := range cs {
+			ps = append(ps, cs[i].price)
+		}
 	}
 	slices.Sort(ps)
 	q := func(f float64) float64 {
@@ -264,43 +270,73 @@ func tiers(cs []cand) []int8 {
 		return ps[int(f*float64(len(ps)-1))]
 	}
 	bounds := []float64{q(0.25), q(0.5), q(0.75)}
-	t := make([]int8, len(cs))
-	for i := range cs {
-		k := int8(0)
-		for _, b := range bounds {
-			if cs[i].price > b {
-				k++
+	t := make([]int8, 0, len(ps))
+	for _, cs := range chunks {
+		for i := range cs {
+			k := int8(0)
+			for _, b := range bounds {
+				if cs[i].price > b {
+					k++
+				}
 			}
+			t = append(t, k+4*int8(cs[i].away))
 		}
-		t[i] = k + 4*int8(cs[i].away)
 	}
 	return t
 }
 
-// byTier returns the candidates grouped by tier and sorted by power within
-// each tier, ties in their first order; sorting indices keeps the large
-// structs from being moved more than once.
-func byTier(cs []cand) []cand {
-	t := tiers(cs)
-	idx := make([]int32, len(cs))
-	for i := range idx {
-		idx[i] = int32(i)
+// byTier returns the candidates of the chunks, taken in order, grouped by
+// tier and sorted by power within each tier, ties in their first order.
+// The chunks are pieces of all, in order; the result is sorted in all's
+// own storage (the candidates are large, and there are up to 400,000),
+// comparing small keys so that the comparisons stay in the cache.
+func byTier(all []cand, chunks [][]cand) []cand {
+	t := tiers(chunks)
+	n := 0
+	for _, cs := range chunks {
+		n += copy(all[n:], cs) // moves down or stays: the chunks are in order
 	}
-	slices.SortFunc(idx, func(a, b int32) int {
-		if c := cmp.Compare(t[a], t[b]); c != 0 {
+	all = all[:n]
+	type sortKey struct {
+		phi  float64
+		i    int32
+		tier int8
+	}
+	keys := make([]sortKey, n)
+	for i := range all {
+		keys[i] = sortKey{phi: all[i].phi, i: int32(i), tier: t[i]}
+	}
+	slices.SortFunc(keys, func(a, b sortKey) int {
+		if c := cmp.Compare(a.tier, b.tier); c != 0 {
 			return c
 		}
-		if c := cmp.Compare(cs[a].phi, cs[b].phi); c != 0 {
+		if c := cmp.Compare(a.phi, b.phi); c != 0 {
 			return c
 		}
-		return cmp.Compare(a, b)
+		return cmp.Compare(a.i, b.i)
 	})
-	out := make([]cand, len(cs))
-	for k, i := range idx {
-		out[k] = cs[i]
-		out[k].tier = t[i]
+	// Position k takes the candidate at keys[k].i: follow each cycle of
+	// the permutation once.
+	for k := range keys {
+		if keys[k].i < 0 || int(keys[k].i) == k {
+			continue
+		}
+		tmp, j := all[k], k
+		for {
+			src := int(keys[j].i)
+			keys[j].i = -1
+			if src == k {
+				all[j] = tmp
+				break
+			}
+			all[j] = all[src]
+			j = src
+		}
 	}
-	return out
+	for k := range all {
+		all[k].tier = keys[k].tier
+	}
+	return all
 }
 
 // idRanks gives each item the rank of its part ID in sorted order.

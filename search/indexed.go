@@ -37,8 +37,8 @@ func prepareIndex(ctx context.Context, ix *catalog.Index, req Requirement) *prep
 		}
 	}
 	keys := indexRanks(ix.Parts)
-	p := inChunks(len(ix.Parts), func(lo, hi int) *prepared {
-		return prepareIndexChunk(ix, keys, lo, hi, req, n, air)
+	p := inChunks(len(ix.Parts), func(q *prepared, lo, hi int) {
+		prepareIndexChunk(q, ix, keys, lo, hi, req, n, air)
 	})
 	p.info = make([]partInfo, len(ix.Parts))
 	for i := range ix.Parts {
@@ -75,10 +75,8 @@ func prepareIndex(ctx context.Context, ix *catalog.Index, req Requirement) *prep
 	return p
 }
 
-// prepareIndexChunk computes the candidates of ix.Parts[lo:hi].
-func prepareIndexChunk(ix *catalog.Index, keys []int32, lo, hi int, req Requirement, n []float64, air float64) *prepared {
-	p := &prepared{skipped: map[string]int{},
-		cands: make([]cand, 0, 2*(hi-lo)), surfs: make([]optics.Surface, 0, 4*(hi-lo))}
+// prepareIndexChunk computes the candidates of ix.Parts[lo:hi] into p.
+func prepareIndexChunk(p *prepared, ix *catalog.Index, keys []int32, lo, hi int, req Requirement, n []float64, air float64) {
 	used := make([]bool, len(ix.Media))
 	for i := lo; i < hi; i++ {
 		q := &ix.Parts[i]
@@ -99,12 +97,13 @@ func prepareIndexChunk(ix *catalog.Index, keys []int32, lo, hi int, req Requirem
 			p.skipped["no focusing power (afocal part)"]++
 			continue
 		}
-		p.add(c, q.Aperture/2, q.First, q.Last, q.Quantity, int32(i), keys[i], false)
+		first, last := q.First(), q.Last()
+		p.add(c, q.Aperture/2, first, last, q.Quantity, int32(i), keys[i], false)
 		if !q.Symmetric {
 			// The part turned around, as prepareChunk turns it.
 			rc := optics.FromMatrix(optics.Mat2{A: m.D, B: m.B, C: m.C, D: m.A}, 1, 1)
 			rc.Length = c.Length
-			p.add(rc, q.Aperture/2, q.Last.Reversed(), q.First.Reversed(), q.Quantity, int32(i), keys[i], true)
+			p.add(rc, q.Aperture/2, last.Reversed(), first.Reversed(), q.Quantity, int32(i), keys[i], true)
 		}
 	}
 	for g, u := range used {
@@ -115,23 +114,28 @@ func prepareIndexChunk(ix *catalog.Index, keys []int32, lo, hi int, req Requirem
 			}
 		}
 	}
-	return p
 }
 
 // indexRanks gives each part the rank of its ID: the index reads them in
 // that order already, which is checked rather than trusted.
 func indexRanks(parts []catalog.IndexPart) []int32 {
 	keys := make([]int32, len(parts))
-	ids := make([]string, len(parts))
+	var prev, cur []byte
 	sorted := true
 	for i := range parts {
-		keys[i], ids[i] = int32(i), parts[i].PartID()
-		if i > 0 && ids[i-1] >= ids[i] {
+		keys[i] = int32(i)
+		cur = append(append(append(cur[:0], parts[i].Supplier...), ':'), parts[i].Name...)
+		if i > 0 && string(prev) >= string(cur) {
 			sorted = false
 		}
+		prev, cur = cur, prev
 	}
 	if sorted {
 		return keys
+	}
+	ids := make([]string, len(parts))
+	for i := range parts {
+		ids[i] = parts[i].PartID()
 	}
 	idx := slices.Clone(keys)
 	slices.SortStableFunc(idx, func(a, b int32) int { return strings.Compare(ids[a], ids[b]) })

@@ -297,6 +297,9 @@ func (q *nodeQueue) pop() nodeBound {
 func (s *search) buildForest() {
 	s.roots = nil
 	n := int32(len(s.c))
+	// Leaves hold more than leafSize/2 candidates, so a tree has fewer
+	// than 4n/leafSize nodes: growing the slice would copy it over and over.
+	s.nodes = make([]node, 0, 4*len(s.c)/leafSize+16)
 	for lo := int32(0); lo < n; {
 		hi := lo
 		for hi < n && s.c[hi].tier == s.c[lo].tier {

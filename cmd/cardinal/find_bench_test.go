@@ -42,7 +42,7 @@ func BenchmarkFindCommand(b *testing.B) {
 		"image":  {"--track", "300", "--mag", "-0.36", "--mag-tol", "2%", "--object-height", "5", "--na", "0.02", "--wd-min", "60", "--bfd-min", "15"},
 		"expand": {"--expand", "5", "--expand-tol", "2%", "--beam", "2", "--galilean", "--length-max", "150"},
 	}
-	for _, n := range []int{5000, 50000} {
+	for _, n := range []int{5000, 50000, 200000} {
 		for _, kind := range []string{"focus", "image", "expand"} {
 			b.Run(fmt.Sprintf("%s/%d", kind, n), func(b *testing.B) {
 				db := benchCatalog(b, n)

@@ -1,0 +1,168 @@
+package catalog
+
+import (
+	"context"
+	"runtime"
+	"strings"
+	"sync"
+
+	"cardinal/optics"
+)
+
+// parallel returns f(0), ..., f(n-1), worked out on the processors.
+func parallel[T any](n int, f func(i int) T) []T {
+	out := make([]T, n)
+	workers := max(1, min(runtime.GOMAXPROCS(0), n/256))
+	var wg sync.WaitGroup
+	for k := 0; k < workers; k++ {
+		wg.Add(1)
+		go func(k int) {
+			defer wg.Done()
+			for i := k * n / workers; i < (k+1)*n/workers; i++ {
+				out[i] = f(i)
+			}
+		}(k)
+	}
+	wg.Wait()
+	return out
+}
+
+// A newPart is an entry to add under the id chosen for it.
+type newPart struct {
+	id int64
+	e  *storedEntry
+}
+
+// newRows is what the catalog stores of a new part besides its
+// prescription: both orientations, its kind and its index record.
+type newRows struct {
+	kind             string
+	fwd, rev         Orientation
+	record           []byte
+	length, aperture float64
+}
+
+// writeNewParts adds the parts, computing their columns on the processors
+// and writing every table in multi-row inserts: the same rows writePart
+// writes, without its per-part deletes and lookups.
+func writeNewParts(ctx context.Context, w *txWriter, parts []newPart, glasses optics.GlassTable) error {
+	rows := parallel(len(parts), func(i int) newRows {
+		e := parts[i].e
+		p := e.Part
+		indexed := e.Entry
+		indexed.Part = catalogMedia(p, glasses)
+		r := newIndexRecord(parts[i].id, indexed)
+		return newRows{kind: kindOf(p), fwd: orient(p, false), rev: orient(p, true),
+			record: r.encode(nil), length: p.Length(), aperture: p.Aperture()}
+	})
+	ins := []*batch{
+		newBatch(w, `INSERT INTO parts (id, supplier, part, description, diameter_mm, clear_aperture_mm, kind,
+			stated_efl_mm, stated_bfd_mm, stated_edge_mm, stated_wavelength_nm, price, currency, url, notes, fingerprint)`, 16),
+		newBatch(w, `INSERT INTO surfaces (part_id, idx, radius_mm, conic, a4, a6, a8, a10, a12, a14, a16, thickness_mm, glass)`, 13),
+		newBatch(w, `INSERT INTO warnings (part_id, seq, message, computed)`, 4),
+		newBatch(w, `INSERT INTO computed (part_id, reversed, wavelength_nm, power_per_mm, efl_mm, bfd_mm, ffd_mm,
+			p_mm, p_prime_mm, length_mm, diameter_mm, clear_aperture_mm)`, 12),
+		newBatch(w, `INSERT INTO search_index (id_key, part_id, record)`, 3),
+	}
+	partRows, surfaces, warnings, computed, index := ins[0], ins[1], ins[2], ins[3], ins[4]
+	for _, b := range ins[1:] {
+		b.parent = partRows // the parts a row refers to go in first
+	}
+	for i, np := range parts {
+		e, id, r := np.e, np.id, &rows[i]
+		p := e.Part
+		if err := partRows.add(ctx, id, p.Supplier, p.Name, p.Description, p.Diameter, p.ClearAperture, r.kind,
+			nullIfZero(e.StatedEFL), nullIfZero(e.StatedBFD), nullIfZero(e.StatedEdge),
+			nullIfZero(e.StatedWavelength), nullIfZero(e.Price), e.Currency, e.URL, e.Notes, e.fingerprint); err != nil {
+			return err
+		}
+		for k, s := range p.Surfaces {
+			var thickness, glass any
+			if k < len(p.Thickness) {
+				thickness, glass = p.Thickness[k], mediumName(p.Media[k])
+			}
+			if err := surfaces.add(ctx, id, k+1, radiusValue(s.Radius), s.Conic,
+				s.Asph[0], s.Asph[1], s.Asph[2], s.Asph[3], s.Asph[4], s.Asph[5], s.Asph[6], thickness, glass); err != nil {
+				return err
+			}
+		}
+		seq := 0
+		for _, list := range []struct {
+			msgs     []string
+			computed bool
+		}{{e.other, false}, {e.computed, true}} {
+			for _, m := range list.msgs {
+				seq++
+				if err := warnings.add(ctx, id, seq, m, list.computed); err != nil {
+					return err
+				}
+			}
+		}
+		for _, o := range []Orientation{r.fwd, r.rev} {
+			var efl, bfd, ffd, pp, ppp any
+			if !o.Afocal {
+				efl, bfd, ffd, pp, ppp = o.EFL, o.BFD, o.FFD, o.P, o.PPrime
+			}
+			if err := computed.add(ctx, id, o.Reversed, o.Wavelength, o.Power, efl, bfd, ffd, pp, ppp,
+				r.length, p.Diameter, r.aperture); err != nil {
+				return err
+			}
+		}
+		if err := index.add(ctx, p.ID(), id, r.record); err != nil {
+			return err
+		}
+	}
+	for _, b := range ins {
+		if err := b.flush(ctx); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
+// A batch collects the rows of one INSERT and runs them as multi-row
+// statements of up to batchRows rows.
+type batch struct {
+	w      *txWriter
+	parent *batch // flushed before this one, when set
+	head   string
+	cols   int
+	rows   int
+	args   []any
+}
+
+// batchRows keeps a statement's placeholders (rows times columns) well
+// under SQLite's limit of 32,766.
+const batchRows = 256
+
+func newBatch(w *txWriter, head string, cols int) *batch {
+	return &batch{w: w, head: head, cols: cols, args: make([]any, 0, batchRows*cols)}
+}
+
+func (b *batch) add(ctx context.Context, vals ...any) error {
+	if len(vals) != b.cols {
+		panic("catalog: batch row of the wrong width")
+	}
+	b.args = append(b.args, vals...)
+	b.rows++
+	if b.rows == batchRows {
+		return b.flush(ctx)
+	}
+	return nil
+}
+
+func (b *batch) flush(ctx context.Context) error {
+	if b.rows == 0 {
+		return nil
+	}
+	if b.parent != nil {
+		if err := b.parent.flush(ctx); err != nil {
+			return err
+		}
+	}
+	row := "(" + placeholders(b.cols) + ")"
+	q := b.head + " VALUES " + strings.TrimSuffix(strings.Repeat(row+", ", b.rows), ", ")
+	_, err := b.w.exec(ctx, q, b.args...)
+	b.rows, b.args = 0, b.args[:0]
+	return err
+}
