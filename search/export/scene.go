@@ -35,6 +35,9 @@ type Scene struct {
 	// Beam is true for a laser requirement without a field: the drawing
 	// shows the beam's envelope and no chief ray of an invented field.
 	Beam bool
+	// Envelope is the laser beam's 1/e² envelope, drawn for any laser
+	// requirement with a collimated beam; nil otherwise.
+	Envelope *BeamEnvelope
 	// Vertices[k] is the z of surface k's vertex.
 	Vertices []float64
 	// PartSurfaces[i] is the index of part i's first surface.
@@ -93,6 +96,9 @@ func NewScene(s Solution, o DrawOptions) (Scene, error) {
 	if err := sc.trace(sys); err != nil {
 		return Scene{}, err
 	}
+	if s.Requirement.Laser() {
+		sc.Envelope = sc.beamEnvelope()
+	}
 	sc.bounds()
 	sc.marks(sys)
 	sc.dims(env)
@@ -142,16 +148,21 @@ func DefaultField(s Solution, asked float64) (field float64, given bool) {
 }
 
 // trace follows the upper and lower marginal rays of the axial point, and
-// the chief and rim rays of the field point.
+// the chief and rim rays of the field point (none for a laser beam drawn
+// without a field).
 func (sc *Scene) trace(sys optics.System) error {
 	tr := sys.Tracer(sc.Wavelength)
 	obj := sc.Solution.Object()
 	fan := []optics.PupilPoint{{Y: 1}, {Y: -1}}
-	for _, b := range []struct {
+	bundles := []struct {
 		field float64
 		pts   []optics.PupilPoint
 		names []string
-	}{{0, fan, []string{"marginal", "marginal"}}, {sc.Field, append([]optics.PupilPoint{{}}, fan...), []string{"chief", "rim", "rim"}}} {
+	}{{0, fan, []string{"marginal", "marginal"}}, {sc.Field, append([]optics.PupilPoint{{}}, fan...), []string{"chief", "rim", "rim"}}}
+	if sc.Beam { // a laser beam without a field: no invented chief ray
+		bundles = bundles[:1]
+	}
+	for _, b := range bundles {
 		bundle, err := sys.Bundle(obj, b.field, sc.Wavelength, b.pts)
 		if err != nil {
 			return fmt.Errorf("rays for the drawing: %w", err)

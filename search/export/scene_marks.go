@@ -19,6 +19,11 @@ func (sc *Scene) bounds() {
 	for _, p := range sc.Solution.Parts {
 		sc.YMax = math.Max(sc.YMax, p.Diameter/2)
 	}
+	if sc.Envelope != nil {
+		for _, q := range sc.Envelope.Points {
+			sc.YMax = math.Max(sc.YMax, q[1])
+		}
+	}
 	for _, r := range sc.Rays {
 		for _, q := range r.Points {
 			grow(q[0])

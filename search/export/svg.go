@@ -9,12 +9,11 @@ import (
 	"strings"
 )
 
-// Colours and sizes of the drawing, our own choice.
+// Colours and sizes of the drawing, our own choice; rays are drawn in the
+// colour of their wavelength (WavelengthColour).
 const (
 	colourGlass    = "#cfe3f3"
 	colourSurface  = "#1d3b57"
-	colourMarginal = "#1f5fbf"
-	colourChief    = "#c8401a"
 	colourPart     = "#0b7a75" // cardinal points of the parts, above the axis
 	colourSystem   = "#a3247a" // cardinal points of the system, below the axis
 	colourDim      = "#333333"
@@ -59,6 +58,7 @@ func (sc *Scene) WriteSVG(w io.Writer, o DrawOptions) error {
 	d.parts()
 	d.partTags()
 	d.planes()
+	d.envelope()
 	d.rays()
 	d.marks()
 	d.dims()
@@ -189,17 +189,43 @@ func (d *svgDoc) planes() {
 	d.text(sc.ImageZ, -y-0.3*d.fs, 0.8*d.fs, "middle", colourDim, name)
 }
 
+// rayStyle is how a ray of a kind is drawn: all in the colour of the
+// wavelength, the marginal rays solid, the chief ray in long dashes, the
+// rim rays in short dashes and fainter.
+func (d *svgDoc) rayStyle(name string) (colour, extra string) {
+	colour = hexColour(WavelengthColour(d.sc.Wavelength))
+	switch name {
+	case "chief":
+		extra = fmt.Sprintf(` stroke-dasharray="%s %s"`, f4(1.6*d.fs), f4(d.fs/2))
+	case "rim":
+		extra = fmt.Sprintf(` stroke-dasharray="%s %s" stroke-opacity="0.6"`, f4(d.fs/3), f4(d.fs/3))
+	}
+	return colour, extra
+}
+
+// envelope draws a laser beam's 1/e² envelope as a pale band in the
+// wavelength's colour, edged with thin lines.
+func (d *svgDoc) envelope() {
+	e := d.sc.Envelope
+	if e == nil {
+		return
+	}
+	top := make([]string, len(e.Points))
+	bottom := make([]string, len(e.Points))
+	for i, p := range e.Points {
+		top[i] = f4(p[0]) + "," + f4(-p[1])
+		bottom[len(e.Points)-1-i] = f4(p[0]) + "," + f4(p[1])
+	}
+	colour := hexColour(WavelengthColour(d.sc.Wavelength))
+	fmt.Fprintf(&d.b, `<polygon class="beam-envelope" points="%s %s" fill="%s" fill-opacity="0.18" stroke="%s" stroke-width="%s" stroke-opacity="0.8"/>`+"\n",
+		strings.Join(top, " "), strings.Join(bottom, " "), colour, colour, f4(d.sw/2))
+}
+
 // rays draws each real ray as a polyline; a ray that stopped ends in a
 // small cross.
 func (d *svgDoc) rays() {
 	for _, r := range d.sc.Rays {
-		colour, extra := colourMarginal, ""
-		if r.Name != "marginal" {
-			colour = colourChief
-		}
-		if r.Name == "rim" {
-			extra = fmt.Sprintf(` stroke-dasharray="%s %s" stroke-opacity="0.7"`, f4(d.fs/2), f4(d.fs/3))
-		}
+		colour, extra := d.rayStyle(r.Name)
 		pts := make([]string, len(r.Points))
 		for i, p := range r.Points {
 			pts[i] = f4(p[0]) + "," + f4(-p[1])

@@ -25,12 +25,19 @@ func (d *svgDoc) legend() []legendLine {
 	if !sc.FieldGiven {
 		field += ", chosen for illustration"
 	}
-	ls := []legendLine{
-		{"marginal", fmt.Sprintf("marginal rays of the axial point: real rays traced at %s nm", num(sc.Wavelength))},
-		{"chief", "chief ray of the field point (" + field + ")"},
-		{"rim", "rim rays of the field point"},
-		{"part", "cardinal points of each part (subscript: part number, in light order): ◆ focal point F, F′; | principal plane P, P′"},
+	ls := []legendLine{{"marginal", fmt.Sprintf("marginal rays of the axial point: real rays traced at %s", wavelengthWords(sc.Wavelength))}}
+	if e := sc.Envelope; e != nil {
+		ls = append(ls, legendLine{"envelope", fmt.Sprintf("laser beam: 1/e² envelope of a Gaussian beam (TEM00, M² = 1) of %s mm diameter, its waist at the first vertex, carried by the ABCD law", num(sc.Solution.Requirement.Beam))})
+		if !math.IsNaN(e.WaistZ) {
+			ls = append(ls, legendLine{"", fmt.Sprintf("output waist: 1/e² radius %s µm at z = %s mm", figure(1000*e.Waist), Fixed(e.WaistZ, 2))})
+		}
 	}
+	if sc.Beam {
+		ls = append(ls, legendLine{"", "no field point: the requirement is a laser beam on axis (give --field for a chief ray)"})
+	} else {
+		ls = append(ls, legendLine{"chief", "chief ray of the field point (" + field + ")"}, legendLine{"rim", "rim rays of the field point"})
+	}
+	ls = append(ls, legendLine{"part", "cardinal points of each part (subscript: part number, in light order): ◆ focal point F, F′; | principal plane P, P′"})
 	if sc.Solution.Afocal() {
 		ls = append(ls, legendLine{"", "the system is afocal: it has no focal or principal points of its own"})
 	} else {
@@ -75,6 +82,19 @@ func (d *svgDoc) legendRows(n int) []legendLine {
 	return rows
 }
 
+// wavelengthWords names a wavelength for the legend, saying that an
+// ultraviolet or infrared one is drawn grey.
+func wavelengthWords(nm float64) string {
+	if IsVisible(nm) {
+		return num(nm) + " nm, drawn in its colour"
+	}
+	band := "infrared"
+	if nm < visibleLo {
+		band = "ultraviolet"
+	}
+	return fmt.Sprintf("%s nm (%s, drawn grey)", num(nm), band)
+}
+
 // offDrawing lists the cardinal points too far away to draw.
 func offDrawing(ms []Mark) string {
 	ms = append([]Mark(nil), ms...)
@@ -93,12 +113,13 @@ func (d *svgDoc) writeLegend(rows []legendLine, x, y float64) {
 		yy := y + float64(i)*1.5*d.fs
 		s := 2.2 * d.fs
 		switch l.sample {
-		case "marginal":
-			d.line("legend", x, yy, x+s, yy, colourMarginal, 1.3*d.sw, "")
-		case "chief":
-			d.line("legend", x, yy, x+s, yy, colourChief, 1.3*d.sw, "")
-		case "rim":
-			d.line("legend", x, yy, x+s, yy, colourChief, 1.3*d.sw, fmt.Sprintf(` stroke-dasharray="%s %s"`, f4(d.fs/2), f4(d.fs/3)))
+		case "marginal", "chief", "rim":
+			colour, extra := d.rayStyle(l.sample)
+			d.line("legend", x, yy, x+s, yy, colour, 1.3*d.sw, extra)
+		case "envelope":
+			colour := hexColour(WavelengthColour(d.sc.Wavelength))
+			fmt.Fprintf(&d.b, `<rect x="%s" y="%s" width="%s" height="%s" fill="%s" fill-opacity="0.18" stroke="%s" stroke-width="%s"/>`+"\n",
+				f4(x), f4(yy-0.4*d.fs), f4(s), f4(0.8*d.fs), colour, colour, f4(d.sw/2))
 		case "part", "system":
 			colour := colourPart
 			if l.sample == "system" {
