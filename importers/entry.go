@@ -14,6 +14,9 @@ type Entry struct {
 	Price            float64 // per piece; zero means not stated
 	Currency         string
 	URL, Notes       string
+	// Tolerances are the part's stated manufacturing tolerances; a zero
+	// field is not stated and takes the catalog's default.
+	Tolerances optics.Tolerances
 	// Line is the line of the source file the entry came from (0 if none).
 	Line int
 	// Warnings are problems that do not stop the part being used, such as a

@@ -2,6 +2,7 @@ package search
 
 import (
 	"fmt"
+	"math"
 	"sort"
 )
 
@@ -68,6 +69,7 @@ func runPrepared(p *prepared, req Requirement, prune bool) (Outcome, error) {
 		}
 		out.Results = append(out.Results, r)
 	}
+	out.Results = s.studyBuilds(p, ls, out.Results)
 	out.Notes = notes(p, req)
 	if met > 0 {
 		out.Notes = append(out.Notes, qualityNotes(req, traced, met, js)...)
@@ -118,4 +120,83 @@ func notes(p *prepared, req Requirement) []string {
 		n = append(n, fmt.Sprintf("%d %s set aside: %s", p.skipped[r], plural(p.skipped[r], "part", "parts"), r))
 	}
 	return n
+}
+
+// maxStudied bounds the build study when every result is asked for (--top
+// 0): the best this many are studied, the rest keep their order after them
+// without build figures.
+const maxStudied = 100
+
+// studyBuilds simulates the build of every ranked result (study.go), adds
+// the yield and spread terms to the scores, orders the results again and
+// keeps the requirement's top N.
+func (s *search) studyBuilds(p *prepared, ls []layout, rs []Result) []Result {
+	if len(rs) == 0 {
+		return rs
+	}
+	n := min(len(ls), maxStudied)
+	sus := make([]Setup, n)
+	for k := range sus {
+		sus[k] = s.setup(p, &ls[k])
+	}
+	sts := studyAll(s.req, sus)
+	tolPct := 100 * s.tol / math.Abs(target(s.req))
+	for k := range rs {
+		if k >= n || sts[k] == nil {
+			continue
+		}
+		b := sts[k].BuildFigures
+		rs[k].Build = &b
+		rs[k].Score += s.sc.w.buildTerm(b, tolPct)
+		if b.Yield < 90 {
+			rs[k].Reason += fmt.Sprintf(", %.0f%% of builds meet", b.Yield)
+		}
+	}
+	// Only the studied results are ordered again: the rest follow them
+	// (maxStudied is below maxTraced, so every studied result was traced
+	// where rays are traced, and traced results keep coming first).
+	st := rs[:n]
+	sort.SliceStable(st, func(i, j int) bool {
+		if st[i].Meets != st[j].Meets {
+			return st[i].Meets
+		}
+		return st[i].Score < st[j].Score
+	})
+	if s.req.Top > 0 && len(rs) > s.req.Top {
+		rs = rs[:s.req.Top]
+	}
+	for k := range rs {
+		rs[k].Rank = k + 1
+	}
+	return rs
+}
+
+// setup is a layout as it is built: its parts turned as used, their stated
+// tolerances and the solved distances.
+func (s *search) setup(p *prepared, l *layout) Setup {
+	su := Setup{Gap: l.gap, WorkingDistance: zeroNaN(l.wd), BackClearance: zeroNaN(l.bc)}
+	idx := []int32{l.a}
+	if l.pair() {
+		idx = append(idx, l.b)
+	} else {
+		su.Gap = 0
+	}
+	for _, ci := range idx {
+		c := &s.c[ci]
+		e := p.items[c.item].Entry
+		part := e.Part
+		if c.rev {
+			part = part.Reversed()
+		}
+		su.Parts = append(su.Parts, part)
+		su.Tols = append(su.Tols, e.Tolerances)
+	}
+	return su
+}
+
+func zeroNaN(v float64) float64 {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return 0
+	}
+	return v
 }

@@ -111,7 +111,13 @@ func (r Requirement) TracesRays() bool {
 // and, when real rays are traced, a margin (3N, at least 30) so that image
 // quality can reorder them. 0 keeps every layout that meets.
 func survivors(r Requirement) int {
-	if !r.TracesRays() || r.Top == 0 {
+	if r.Top == 0 {
+		return 0
+	}
+	if r.Prefer == PreferRobust && !r.TracesRays() {
+		return max(3*r.Top, 30) // the build study reorders them (find.go)
+	}
+	if !r.TracesRays() {
 		return r.Top
 	}
 	return max(3*r.Top, 30)

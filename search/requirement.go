@@ -36,11 +36,12 @@ type Prefer string
 
 // Preferences; the empty one is the balanced default.
 const (
-	Balanced    Prefer = ""
-	PreferDraw  Prefer = "drawer"
-	PreferShort Prefer = "short"
-	PreferCheap Prefer = "cheap"
-	PreferSharp Prefer = "sharp" // weights real-ray image quality up (see Weights)
+	Balanced     Prefer = ""
+	PreferDraw   Prefer = "drawer"
+	PreferShort  Prefer = "short"
+	PreferCheap  Prefer = "cheap"
+	PreferSharp  Prefer = "sharp"  // weights real-ray image quality up (see Weights)
+	PreferRobust Prefer = "robust" // weights the build yield and spread up (see Weights)
 )
 
 // DefaultGapMin is the edge clearance between facing parts that the command
@@ -89,6 +90,9 @@ type Requirement struct {
 	FieldAngle float64   `json:"field_angle_deg,omitempty"` // focus: field edge for the real-ray figures, degrees
 	Band       []float64 `json:"band_nm,omitempty"`         // wavelengths of the colour figures, nm; none: no colour figure
 	Power      float64   `json:"power_w,omitempty"`         // laser power, W: brings the laser cautions
+
+	// Build says how every ranked result is simulated as built (build.go).
+	Build BuildSettings `json:"build,omitzero"`
 }
 
 // formerKeys are the spec and saved-search keys of earlier versions, read
@@ -137,11 +141,12 @@ func (r *Requirement) UnmarshalJSON(b []byte) error {
 
 // Defaults returns the requirement the command line and spec files start
 // from: tolerances 1 %, gap minimum 0.5 mm, top 10, singlets and pairs, the
-// d line.
+// d line, a spacing tolerance of 0.1 mm for the build study.
 func Defaults() Requirement {
 	one := Tolerance{Value: 1, Percent: true}
 	return Requirement{EFLTol: one, MagTol: one, ExpandTol: one,
-		GapMin: DefaultGapMin, Top: DefaultTop, Elements: 2, Wavelength: optics.LineD}
+		GapMin: DefaultGapMin, Top: DefaultTop, Elements: 2, Wavelength: optics.LineD,
+		Build: BuildSettings{SpacingTol: DefaultSpacingTol}}
 }
 
 // MarshalJSON writes the requirement with the tolerance of its own kind
@@ -313,9 +318,12 @@ func (r Requirement) validateCommon(bad func(string, ...any)) {
 		bad("wavelength %g nm is outside 150-20000 nm", l)
 	}
 	switch r.Prefer {
-	case Balanced, PreferDraw, PreferShort, PreferCheap, PreferSharp:
+	case Balanced, PreferDraw, PreferShort, PreferCheap, PreferSharp, PreferRobust:
 	default:
-		bad("unknown preference %q: use drawer, short, cheap or sharp", r.Prefer)
+		bad("unknown preference %q: use drawer, short, cheap, sharp or robust", r.Prefer)
+	}
+	if err := r.Build.Validate(); err != nil {
+		bad("%v", err)
 	}
 	for _, b := range r.Band {
 		if !(b >= 150 && b <= 20000) {

@@ -64,6 +64,8 @@ type Result struct {
 	// ImageQuality holds the real-ray figures (quality.go), its keys
 	// inline in the JSON; nil when real rays were not traced.
 	*ImageQuality
+	// Build sums up the simulated builds (study.go); nil when not studied.
+	Build *BuildFigures `json:"build,omitempty"`
 	// Quality is the same figures by JSON key, for pages that list them;
 	// filled with ImageQuality, also when a result is read back from JSON.
 	Quality map[string]float64 `json:"-"`

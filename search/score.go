@@ -13,6 +13,8 @@ import (
 //	+ Price * sum over the pieces to order of price / median price of the parts in its currency
 //	+ Drawer * number of pieces to order
 //	+ Quality * sharpness term                    (only when real rays are traced, see below)
+//	+ Yield * max(0, 90 - yield %) / 10           (the build study, see below)
+//	+ Spread * 95 % spread of the target after compensation / tolerance
 //
 // The pieces to order are the pieces the layout uses less those the drawer
 // holds: a pair that uses one part twice needs two pieces, so with one in
@@ -23,7 +25,7 @@ import (
 // as that median.
 //
 // The default weights are Error 1, Envelope 1, Elements 0.5, Price 0.5,
-// Drawer 1, Quality 1. So a piece to order at the median price costs 1.5: a
+// Drawer 1, Quality 1, Yield 1, Spread 0. So a piece to order at the median price costs 1.5: a
 // layout built entirely from the drawer that meets every requirement ranks
 // above one that needs two median-priced pieces bought unless that purchase
 // is better on the other terms by more than 3, for example three reference
@@ -47,16 +49,28 @@ import (
 // radius, and one more for every further doubling. So halving the blur is
 // worth as much as a full tolerance of first-order error or one reference
 // length of envelope.
+//
+// The yield and spread terms come from the build study of each ranked
+// result (study.go): a result whose builds meet the tolerance in fewer
+// than 90 % of cases sinks by one per 10 % missing (at 80 % it costs as
+// much as a tolerance of error), and --prefer robust weights that three
+// times and adds the half-width of the target's 95 % spread over the
+// tolerance, so that of two results on target the one less sensitive to
+// its parts' tolerances ranks first.
 type Weights struct {
 	Error, Envelope, Elements, Price, Drawer float64
 	Quality                                  float64
+	Yield, Spread                            float64
 }
 
 // WeightsFor returns the weights of a preference: the balanced default, or
 // one term made three times as heavy.
 func WeightsFor(p Prefer) Weights {
-	w := Weights{Error: 1, Envelope: 1, Elements: 0.5, Price: 0.5, Drawer: 1, Quality: 1}
+	w := Weights{Error: 1, Envelope: 1, Elements: 0.5, Price: 0.5, Drawer: 1, Quality: 1, Yield: 1}
 	switch p {
+	case PreferRobust:
+		w.Yield *= 3
+		w.Spread = 1
 	case PreferSharp:
 		w.Quality *= 3
 	case PreferDraw:
@@ -179,4 +193,15 @@ func firstOrderTol(r Requirement) float64 {
 		return r.MagTol.Abs(r.Mag)
 	}
 	return r.ExpandTol.Abs(r.Expansion)
+}
+
+// buildTerm is the yield and spread part of the score of a result whose
+// build study gave b; tolPct is the requirement's tolerance in percent of
+// its target.
+func (w Weights) buildTerm(b BuildFigures, tolPct float64) float64 {
+	t := w.Yield * math.Max(0, 90-b.Yield) / 10
+	if w.Spread != 0 && tolPct > 0 {
+		t += w.Spread * math.Max(math.Abs(b.SpreadLow), math.Abs(b.SpreadHigh)) / tolPct
+	}
+	return t
 }

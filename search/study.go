@@ -1,0 +1,277 @@
+package search
+
+import (
+	"cmp"
+	"encoding/binary"
+	"hash/fnv"
+	"math"
+	"math/rand/v2"
+	"runtime"
+	"slices"
+	"sync"
+
+	"cardinal/optics"
+)
+
+// BuildFigures sum up the simulated builds of one result: what find shows
+// in every row. Percentages are of the target; lengths in mm.
+type BuildFigures struct {
+	// Compensator is what moved in each build (image, gap or none).
+	Compensator Compensator `json:"compensator"`
+	// AdjustLow and AdjustHigh bound the compensator's move in 95 % of the
+	// builds (2.5th and 97.5th percentiles), mm: the travel the mount must
+	// allow. With no compensator, the error left (defocus, or the gap
+	// change an expander would need).
+	AdjustLow  float64 `json:"adjust_low_mm"`
+	AdjustHigh float64 `json:"adjust_high_mm"`
+	// SpreadLow and SpreadHigh bound the target figure after compensation
+	// in 95 % of the builds, in percent from the target.
+	SpreadLow  float64 `json:"spread_low_pct"`
+	SpreadHigh float64 `json:"spread_high_pct"`
+	// Yield is the share of builds whose target figure meets the
+	// requirement's tolerance after compensation, percent.
+	Yield  float64 `json:"yield_pct"`
+	Trials int     `json:"trials"`
+	// Dominant names the tolerance that moves the target figure most (or,
+	// where the compensator absorbs them all, the compensator).
+	Dominant string `json:"dominant"`
+}
+
+// A Sensitivity is the derivative of the target figure and of the
+// compensator's move with respect to one toleranced quantity, from the
+// ray-transfer matrices carried with their derivatives (optics.Dual).
+type Sensitivity struct {
+	Param
+	// Target is the derivative of the target figure per unit of the
+	// parameter (per percent for a focal length or radius, per mm for a
+	// thickness or spacing, per unit of index).
+	Target float64 `json:"d_target_per_unit"`
+	// Adjust is the derivative of the compensator's move, mm per unit.
+	Adjust float64 `json:"d_adjust_mm_per_unit"`
+	// TargetAtTol and AdjustAtTol are the changes at the tolerance:
+	// |derivative| x tolerance (target in its own unit, adjust in mm).
+	TargetAtTol float64 `json:"target_change_at_tol"`
+	AdjustAtTol float64 `json:"adjust_mm_at_tol"`
+}
+
+// A Study is the whole simulation of one result's build.
+type Study struct {
+	BuildFigures
+	// Target and Tol are the requirement's target and absolute tolerance.
+	Target float64 `json:"target"`
+	Tol    float64 `json:"target_tol"`
+	// Sensitivities, most important first (see rank).
+	Sensitivities []Sensitivity `json:"sensitivities"`
+	// LinearTargetSD and LinearAdjustSD are the standard deviations that
+	// linear propagation of the sensitivities predicts (root sum of
+	// squares of derivative x standard deviation of each tolerance).
+	LinearTargetSD float64 `json:"linear_target_sd"`
+	LinearAdjustSD float64 `json:"linear_adjust_sd_mm"`
+	// TargetSD and AdjustSD are the standard deviations of the builds.
+	TargetSD float64 `json:"target_sd"`
+	AdjustSD float64 `json:"adjust_sd_mm"`
+	// Failed counts the builds whose compensator had no solution.
+	Failed int `json:"failed"`
+	// Adjust and Figure hold each solved build's compensator move (mm) and
+	// target figure, in trial order.
+	Adjust []float64 `json:"-"`
+	Figure []float64 `json:"-"`
+}
+
+// StudyBuild simulates the build of one result of the requirement with the
+// requirement's build settings, and computes its sensitivities.
+func StudyBuild(req Requirement, su Setup) (Study, error) {
+	m, err := newModel(req, su)
+	if err != nil {
+		return Study{}, err
+	}
+	return m.study(req.Build, streamOf(su)), nil
+}
+
+// streamOf picks the random stream of a setup from its parts and their
+// turning, so that the same result gets the same builds in find and in
+// the tolerance command, whatever its rank.
+func streamOf(su Setup) uint64 {
+	h := fnv.New64a()
+	for _, p := range su.Parts {
+		h.Write([]byte(p.ID()))
+		h.Write([]byte{0})
+		if len(p.Surfaces) > 0 {
+			h.Write(binary.LittleEndian.AppendUint64(nil, math.Float64bits(p.Surfaces[0].Curvature())))
+		}
+	}
+	return h.Sum64()
+}
+
+func (m *model) study(b BuildSettings, stream uint64) Study {
+	st := Study{Target: m.target, Tol: m.tol}
+	st.Sensitivities = m.sensitivities(b.Distribution)
+	sd := sdFactor(b.Distribution)
+	for _, s := range st.Sensitivities {
+		st.LinearTargetSD = math.Hypot(st.LinearTargetSD, s.Target*s.Tol*sd)
+		st.LinearAdjustSD = math.Hypot(st.LinearAdjustSD, s.Adjust*s.Tol*sd)
+	}
+	n := b.trials()
+	rng := rand.New(rand.NewPCG(b.Seed, stream))
+	d := make(draw, len(m.params))
+	met := 0
+	st.Adjust, st.Figure = make([]float64, 0, n), make([]float64, 0, n)
+	for i := 0; i < n; i++ {
+		for j, p := range m.params {
+			d[j] = optics.Const(p.Tol * unitDraw(rng, b.Distribution))
+		}
+		t := m.eval(d)
+		if !t.ok || math.IsNaN(t.figure.V) || math.IsInf(t.figure.V, 0) || math.IsNaN(t.adjust.V) {
+			st.Failed++
+			continue
+		}
+		st.Adjust = append(st.Adjust, t.adjust.V)
+		st.Figure = append(st.Figure, t.figure.V)
+		if math.Abs(t.figure.V-m.target) <= m.tol*(1+1e-12) {
+			met++
+		}
+	}
+	st.Compensator, st.Trials = m.comp, n
+	st.Yield = 100 * float64(met) / float64(n)
+	if len(st.Adjust) > 0 {
+		st.AdjustLow, st.AdjustHigh = percentiles(st.Adjust, 2.5, 97.5)
+		lo, hi := percentiles(st.Figure, 2.5, 97.5)
+		st.SpreadLow, st.SpreadHigh = m.pct(lo), m.pct(hi)
+		st.AdjustSD, st.TargetSD = stdDev(st.Adjust), stdDev(st.Figure)
+	}
+	st.Dominant = dominant(st.Sensitivities, m.tol)
+	return st
+}
+
+// pct is a figure's departure from the target in percent of the target.
+func (m *model) pct(v float64) float64 { return 100 * (v - m.target) / math.Abs(m.target) }
+
+// unitDraw is one draw of a tolerance of 1: uniform on [-1, 1], or normal
+// with standard deviation 1/2 (the tolerance at two standard deviations).
+func unitDraw(rng *rand.Rand, d Distribution) float64 {
+	if d == Normal {
+		return 0.5 * rng.NormFloat64()
+	}
+	return 2*rng.Float64() - 1
+}
+
+// sdFactor is the standard deviation of unitDraw: 1/sqrt(3) for the
+// uniform distribution on [-1, 1] (the variance of a uniform distribution
+// of width w is w^2/12; JCGM 100:2008, Guide to the Expression of
+// Uncertainty in Measurement, sec. 4.3.7), 1/2 for the normal.
+func sdFactor(d Distribution) float64 {
+	if d == Normal {
+		return 0.5
+	}
+	return 1 / math.Sqrt(3)
+}
+
+// sensitivities differentiates the compensated build with respect to each
+// parameter at the nominal build, one parameter at a time, and orders them
+// by importance.
+func (m *model) sensitivities(dist Distribution) []Sensitivity {
+	d := make(draw, len(m.params))
+	out := make([]Sensitivity, 0, len(m.params))
+	for j, p := range m.params {
+		clear(d)
+		d[j] = optics.Var(0)
+		t := m.eval(d)
+		s := Sensitivity{Param: p}
+		if t.ok {
+			s.Target, s.Adjust = finite(t.figure.D), finite(t.adjust.D)
+		}
+		s.TargetAtTol, s.AdjustAtTol = math.Abs(s.Target)*p.Tol, math.Abs(s.Adjust)*p.Tol
+		out = append(out, s)
+	}
+	rank(out, m.tol)
+	return out
+}
+
+func finite(v float64) float64 {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return 0
+	}
+	return v
+}
+
+// rank orders sensitivities by the change of the target figure at the
+// tolerance, then by the compensator's move at the tolerance (what the
+// compensator absorbs still needs travel), then by key.
+func rank(ss []Sensitivity, tol float64) {
+	small := 1e-9 * math.Max(tol, 1e-300)
+	slices.SortStableFunc(ss, func(a, b Sensitivity) int {
+		ta, tb := a.TargetAtTol, b.TargetAtTol
+		if ta < small {
+			ta = 0
+		}
+		if tb < small {
+			tb = 0
+		}
+		if c := cmp.Compare(tb, ta); c != 0 {
+			return c
+		}
+		return cmp.Compare(b.AdjustAtTol, a.AdjustAtTol)
+	})
+}
+
+// dominant names the most important tolerance.
+func dominant(ss []Sensitivity, tol float64) string {
+	if len(ss) == 0 || ss[0].TargetAtTol == 0 && ss[0].AdjustAtTol == 0 {
+		return ""
+	}
+	return ss[0].Name
+}
+
+// percentiles are the p-th percentiles of v (0-100), by linear
+// interpolation between order statistics (definition 7 of R. J. Hyndman
+// and Y. Fan, The American Statistician 50, 361, 1996). v is not changed.
+func percentiles(v []float64, ps ...float64) (lo, hi float64) {
+	s := slices.Clone(v)
+	slices.Sort(s)
+	q := func(p float64) float64 {
+		h := (float64(len(s)) - 1) * p / 100
+		i := int(math.Floor(h))
+		if i+1 >= len(s) {
+			return s[len(s)-1]
+		}
+		return s[i] + (h-float64(i))*(s[i+1]-s[i])
+	}
+	return q(ps[0]), q(ps[1])
+}
+
+// stdDev is the sample standard deviation (n - 1 in the denominator).
+func stdDev(v []float64) float64 {
+	if len(v) < 2 {
+		return 0
+	}
+	mean := 0.0
+	for _, x := range v {
+		mean += x
+	}
+	mean /= float64(len(v))
+	ss := 0.0
+	for _, x := range v {
+		ss += (x - mean) * (x - mean)
+	}
+	return math.Sqrt(ss / float64(len(v)-1))
+}
+
+// studyAll studies the setups in parallel, each in its own slot.
+func studyAll(req Requirement, sus []Setup) []*Study {
+	out := make([]*Study, len(sus))
+	workers := min(runtime.GOMAXPROCS(0), 4)
+	var wg sync.WaitGroup
+	for k := 0; k < workers; k++ {
+		wg.Add(1)
+		go func(k int) {
+			defer wg.Done()
+			for i := k; i < len(sus); i += workers {
+				if st, err := StudyBuild(req, sus[i]); err == nil {
+					out[i] = &st
+				}
+			}
+		}(k)
+	}
+	wg.Wait()
+	return out
+}
