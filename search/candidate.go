@@ -53,7 +53,9 @@ type prepared struct {
 	// full returns an item's full prescription; fetch, when not nil, must
 	// first be given the items whose prescriptions will be asked for (the
 	// index path reads them from the catalog then).
-	full      func(item int32) optics.Part
+	full func(item int32) optics.Part
+	// tols returns an item's stated tolerances, under the same rule as full.
+	tols      func(item int32) optics.Tolerances
 	fetch     func(items []int32) error
 	cands     []cand // sorted by power
 	skipped   map[string]int
@@ -88,6 +90,7 @@ func prepare(items []Item, req Requirement) *prepared {
 	p := inChunks(len(items), func(q *prepared, lo, hi int) { prepareChunk(q, items, keys, lo, hi, req) })
 	p.info = info
 	p.full = func(i int32) optics.Part { return items[i].Entry.Part }
+	p.tols = func(i int32) optics.Tolerances { return items[i].Entry.Tolerances }
 	p.finish(req)
 	return p
 }

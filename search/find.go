@@ -69,7 +69,10 @@ func runPrepared(p *prepared, req Requirement, prune bool) (Outcome, error) {
 		}
 		out.Results = append(out.Results, r)
 	}
-	out.Results = s.studyBuilds(p, ls, out.Results)
+	var err error
+	if out.Results, err = s.studyBuilds(p, ls, out.Results); err != nil {
+		return Outcome{}, err
+	}
 	out.Notes = notes(p, req)
 	if met > 0 {
 		out.Notes = append(out.Notes, qualityNotes(req, traced, met, js)...)
@@ -130,11 +133,14 @@ const maxStudied = 100
 // studyBuilds simulates the build of every ranked result (study.go), adds
 // the yield and spread terms to the scores, orders the results again and
 // keeps the requirement's top N.
-func (s *search) studyBuilds(p *prepared, ls []layout, rs []Result) []Result {
+func (s *search) studyBuilds(p *prepared, ls []layout, rs []Result) ([]Result, error) {
 	if len(rs) == 0 {
-		return rs
+		return rs, nil
 	}
 	n := min(len(ls), maxStudied)
+	if err := s.fetchParts(p, ls[:n]); err != nil {
+		return nil, err
+	}
 	sus := make([]Setup, n)
 	for k := range sus {
 		sus[k] = s.setup(p, &ls[k])
@@ -168,7 +174,7 @@ func (s *search) studyBuilds(p *prepared, ls []layout, rs []Result) []Result {
 	for k := range rs {
 		rs[k].Rank = k + 1
 	}
-	return rs
+	return rs, nil
 }
 
 // setup is a layout as it is built: its parts turned as used, their stated
@@ -183,13 +189,12 @@ func (s *search) setup(p *prepared, l *layout) Setup {
 	}
 	for _, ci := range idx {
 		c := &s.c[ci]
-		e := p.items[c.item].Entry
-		part := e.Part
+		part := p.full(c.item)
 		if c.rev {
 			part = part.Reversed()
 		}
 		su.Parts = append(su.Parts, part)
-		su.Tols = append(su.Tols, e.Tolerances)
+		su.Tols = append(su.Tols, p.tols(c.item))
 	}
 	return su
 }

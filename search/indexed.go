@@ -46,6 +46,8 @@ func prepareIndex(ctx context.Context, ix *catalog.Index, req Requirement) *prep
 		p.info[i] = partInfo{supplier: q.Supplier, name: q.Name, currency: q.Currency, price: q.Price}
 	}
 	full := map[int32]optics.Part{}
+	tols := map[int32]optics.Tolerances{}
+	p.tols = func(i int32) optics.Tolerances { return tols[i] }
 	p.full = func(i int32) optics.Part {
 		part, ok := full[i]
 		if !ok {
@@ -66,7 +68,7 @@ func prepareIndex(ctx context.Context, ix *catalog.Index, req Requirement) *prep
 		}
 		for _, i := range items {
 			if e, ok := entries[ix.Parts[i].ID]; ok {
-				full[i] = e.Part
+				full[i], tols[i] = e.Part, e.Tolerances
 			}
 		}
 		return nil
@@ -148,11 +150,17 @@ func indexRanks(parts []catalog.IndexPart) []int32 {
 // fetchJudged has the full prescriptions of the parts of the layouts the
 // real-ray stage will trace read, when they are not at hand.
 func (s *search) fetchJudged(p *prepared, ls []layout) error {
+	return s.fetchParts(p, ls[:min(len(ls), maxTraced)])
+}
+
+// fetchParts has the full prescriptions of the parts of the layouts read,
+// when they are not at hand.
+func (s *search) fetchParts(p *prepared, ls []layout) error {
 	if p.fetch == nil {
 		return nil
 	}
 	var items []int32
-	for k := range ls[:min(len(ls), maxTraced)] {
+	for k := range ls {
 		l := &ls[k]
 		items = append(items, s.c[l.a].item)
 		if l.pair() {

@@ -62,6 +62,7 @@ func resultColumns(req search.Requirement, rs []search.Result, qs search.Quality
 		{Column{Key: "error_pct", Label: "error", Unit: "%"}, func(r search.Result) Cell { return errorCell(r.ErrorPct) }},
 	}
 	cols = append(cols, qualityColumns(qs)...)
+	cols = append(cols, buildColumns(rs)...)
 	cols = append(cols,
 		resultColumn{Column{Key: "failed_checks", Label: "checks", Optional: !anyFails}, checksCell},
 		resultColumn{Column{Key: "price", Label: "price", TextOnly: true}, priceCell})
@@ -207,4 +208,53 @@ func priceColumns(rs []search.Result) []resultColumn {
 			}}
 	}
 	return cols
+}
+
+// buildColumns are the build study's figures (search.BuildFigures): the
+// compensator's 95 % range and the yield by default, the rest on demand;
+// none when no result was studied.
+func buildColumns(rs []search.Result) []resultColumn {
+	if !slices.ContainsFunc(rs, func(r search.Result) bool { return r.Build != nil }) {
+		return nil
+	}
+	b := func(f func(*search.BuildFigures) Cell) func(search.Result) Cell {
+		return func(r search.Result) Cell {
+			if r.Build == nil {
+				return Cell{Text: Missing}
+			}
+			return f(r.Build)
+		}
+	}
+	return []resultColumn{
+		{Column{Key: "adjust_range_mm", Label: "adjust", Unit: "mm", TextOnly: true},
+			b(func(f *search.BuildFigures) Cell { return Text(RangeText(f.AdjustLow, f.AdjustHigh, 2)) })},
+		{Column{Key: "compensator", Label: "adjusts", Optional: true},
+			b(func(f *search.BuildFigures) Cell { return Text(string(f.Compensator)) })},
+		{Column{Key: "adjust_low_mm", Label: "adjust low", Unit: "mm", Optional: true},
+			b(func(f *search.BuildFigures) Cell { return Num(f.AdjustLow, 3) })},
+		{Column{Key: "adjust_high_mm", Label: "adjust high", Unit: "mm", Optional: true},
+			b(func(f *search.BuildFigures) Cell { return Num(f.AdjustHigh, 3) })},
+		{Column{Key: "spread_range_pct", Label: "built", Unit: "%", TextOnly: true, Optional: true},
+			b(func(f *search.BuildFigures) Cell { return Text(RangeText(f.SpreadLow, f.SpreadHigh, 2)) })},
+		{Column{Key: "spread_low_pct", Label: "built low", Unit: "%", Optional: true},
+			b(func(f *search.BuildFigures) Cell { return Num(f.SpreadLow, 3) })},
+		{Column{Key: "spread_high_pct", Label: "built high", Unit: "%", Optional: true},
+			b(func(f *search.BuildFigures) Cell { return Num(f.SpreadHigh, 3) })},
+		{Column{Key: "yield_pct", Label: "yield", Unit: "%"},
+			b(func(f *search.BuildFigures) Cell { return Num(f.Yield, 0) })},
+		{Column{Key: "dominant", Label: "matters most", Optional: true},
+			b(func(f *search.BuildFigures) Cell { return Text(f.Dominant) })},
+	}
+}
+
+// RangeText is a range of signed values, "-1.14..+1.18".
+func RangeText(lo, hi float64, decimals int) string {
+	sign := func(v float64) string {
+		s := Fixed(v, decimals)
+		if v > 0 && strings.Trim(s, "0.") != "" {
+			s = "+" + s
+		}
+		return s
+	}
+	return sign(lo) + ".." + sign(hi)
 }
