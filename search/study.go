@@ -275,3 +275,45 @@ func studyAll(req Requirement, sus []Setup) []*Study {
 	wg.Wait()
 	return out
 }
+
+// A Histogram counts values in bins of equal width: Edges has one more
+// entry than Counts.
+type Histogram struct {
+	Edges  []float64 `json:"edges"`
+	Counts []int     `json:"counts"`
+}
+
+// NewHistogram bins the values into n bins spanning their range (one bin
+// of width 1e-9 around a single value when they are all equal).
+func NewHistogram(v []float64, n int) Histogram {
+	if len(v) == 0 || n < 1 {
+		return Histogram{}
+	}
+	lo, hi := slices.Min(v), slices.Max(v)
+	if hi-lo <= 1e-12*math.Max(1, math.Abs(lo)) {
+		lo, hi, n = lo-5e-10, hi+5e-10, 1
+	}
+	h := Histogram{Edges: make([]float64, n+1), Counts: make([]int, n)}
+	w := (hi - lo) / float64(n)
+	for i := range h.Edges {
+		h.Edges[i] = lo + float64(i)*w
+	}
+	h.Edges[n] = hi
+	for _, x := range v {
+		k := min(int((x-lo)/w), n-1)
+		h.Counts[max(k, 0)]++
+	}
+	return h
+}
+
+// FigureName is what the target figure of a requirement is called, with
+// its unit ("" for a ratio).
+func FigureName(k Kind) (name, unit string) {
+	switch k {
+	case Focus:
+		return "EFL", "mm"
+	case Image:
+		return "magnification", ""
+	}
+	return "expansion", ""
+}

@@ -170,7 +170,7 @@ func TestRunFind(t *testing.T) {
 		{"no aperture: quality not judged, in one line", []string{"--efl", "75"}, 0,
 			nil, []string{"note: image quality not judged: give --beam (focus) or --na (image) to trace real rays\n"}, []string{"real rays traced"}},
 		{"a beam traces real rays", []string{"--efl", "75", "--beam", "6", "--top", "3"}, 0,
-			[]string{"spot µm", "diffraction", "limited"}, []string{"real rays traced at 587.5618 nm through the 30 best", "no colour figure"}, []string{"caution"}},
+			[]string{"spot", "µm", "diffraction", "limited", "adjust mm", "yield"}, []string{"real rays traced at 587.5618 nm through the 30 best", "no colour figure"}, []string{"caution"}},
 		{"a band gives the focal shift", []string{"--efl", "75", "--beam", "6", "--top", "3", "--band", "486.1,587.6,656.3", "--field-angle", "1"}, 0,
 			[]string{"edge", "focal", "shift"}, nil, []string{"no colour figure"}},
 		{"power brings the laser cautions", []string{"--efl", "75", "--beam", "6", "--power", "0.01"}, 0,
