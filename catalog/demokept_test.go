@@ -26,7 +26,7 @@ func TestOpenDemoAtKeepsSearches(t *testing.T) {
 	if len(kept) != len(fresh) || len(kept) < 300 {
 		t.Fatalf("kept demo has %d parts, the in-memory one %d", len(kept), len(fresh))
 	}
-	id, err := s.SaveSearch(ctx, "focus", []byte(`{}`), []byte(`[]`), time.Unix(0, 0))
+	id, err := s.SaveSearch(ctx, SavedSearch{Kind: "focus", Requirement: []byte(`{}`), Results: []byte(`[]`), At: time.Unix(0, 0)})
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -75,23 +75,36 @@ func partID(ctx context.Context, q querier, supplier, part string) (int64, error
 
 // notFound builds the error for a missing part, with the closest names.
 func notFound(ctx context.Context, q querier, id string) error {
-	rows, err := q.QueryContext(ctx, "SELECT supplier || ':' || part FROM parts")
+	names, err := partNames(ctx, q)
 	if err != nil {
 		return err
+	}
+	return &NotFoundError{What: "part", Name: id, Suggestions: Suggest(id, names, 5)}
+}
+
+// PartNames returns the name (SUPPLIER:PART) of every part, sorted: what
+// shell completion offers.
+func (s *Store) PartNames(ctx context.Context) ([]string, error) {
+	names, err := partNames(ctx, s.db)
+	sort.Strings(names)
+	return names, err
+}
+
+func partNames(ctx context.Context, q querier) ([]string, error) {
+	rows, err := q.QueryContext(ctx, "SELECT supplier || ':' || part FROM parts")
+	if err != nil {
+		return nil, err
 	}
 	defer rows.Close()
 	var names []string
 	for rows.Next() {
 		var n string
 		if err := rows.Scan(&n); err != nil {
-			return err
+			return nil, err
 		}
 		names = append(names, n)
 	}
-	if err := rows.Err(); err != nil {
-		return err
-	}
-	return &NotFoundError{What: "part", Name: id, Suggestions: Suggest(id, names, 5)}
+	return names, rows.Err()
 }
 
 // Suggest returns up to max names close to name: those within a few edits

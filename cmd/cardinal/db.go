@@ -94,7 +94,7 @@ func openForRead(flag string, e *env) (*catalog.Store, error) {
 // would be (demo-VERSION.db), so that searches run on it last until the
 // next command; where no file can be written there, an in-memory one.
 func openDemo(loc catalogLocation, e *env) (*catalog.Store, error) {
-	path := filepath.Join(filepath.Dir(loc.Path), "demo-"+catalog.DemoVersion()+".db")
+	path := keptDemoPath(loc)
 	if prepareDir(loc) == nil {
 		if s, err := catalog.OpenDemoAt(path); err == nil {
 			return s, nil

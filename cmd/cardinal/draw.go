@@ -91,12 +91,13 @@ func (o *drawOptions) validate() error {
 
 func runDraw(o *drawOptions) error {
 	e := o.env
-	sv, sols, err := loadSolutions(e, o.db, o.Search, o.Picks)
+	p, sols, err := loadSolutions(e, o.db, o.Search, o.Picks)
 	if err != nil {
 		return err
 	}
+	sv := p.Search
 	s := sols[0]
-	field, err := o.field.value(sv.Req)
+	field, err := o.field.value(sv.Requirement)
 	if err != nil {
 		return err
 	}

@@ -2,8 +2,6 @@ package main
 
 import (
 	"context"
-	"encoding/json"
-	"path/filepath"
 	"strings"
 
 	"github.com/spf13/cobra"
@@ -13,6 +11,7 @@ import (
 	"cardinal/search"
 	"cardinal/search/export"
 	"cardinal/search/present"
+	"cardinal/search/saved"
 )
 
 // findOptions are the flags of `cardinal find`, bound as given; Req is the
@@ -258,16 +257,35 @@ func runFind(o *findOptions) error {
 	if err != nil {
 		return err
 	}
-	doc := findOutput{Requirement: out.Requirement, Results: out.Results, Why: out.Why, Misses: out.Misses,
-		Notes: append(append([]string(nil), out.Notes...), export.Cautions(o.Req)...)}
-	if err := saveSearch(ctx, st, e, doc); err != nil {
+	s := saved.Search{At: e.Now(), Requirement: out.Requirement, Results: out.Results,
+		Why: out.Why, Misses: out.Misses, Notes: out.Notes}
+	if err := saveSearch(ctx, st, e, s); err != nil {
 		return err
 	}
-	printCautions(e, o.Req, out)
-	if len(out.Results) == 0 {
-		return noResult(e, o, doc, out)
+	return writeFind(e, o.out, s)
+}
+
+// findDoc is the JSON document find prints for a search.
+func findDoc(s saved.Search) findOutput {
+	rs := s.Results
+	if rs == nil {
+		rs = []search.Result{}
 	}
-	return render(e, e.Out, o.out, present.Results(o.Req, out.Results), doc)
+	return findOutput{Requirement: s.Requirement, Results: rs, Why: s.Why, Misses: s.Misses,
+		Notes: append(append([]string(nil), s.Notes...), export.Cautions(s.Requirement)...)}
+}
+
+// writeFind prints what a search found as find prints it: the notes and
+// cautions on stderr, the results on stdout in the format, or why nothing
+// met the requirement. `searches show` prints a saved search through it,
+// so that it reads exactly as find printed it.
+func writeFind(e *env, o outputFlags, s saved.Search) error {
+	doc := findDoc(s)
+	printCautions(e, s.Requirement, s.Notes)
+	if len(s.Results) == 0 {
+		return noResult(e, o, doc)
+	}
+	return render(e, e.Out, o, present.Results(s.Requirement, s.Results), doc)
 }
 
 // findIndexed runs the search on the catalog's search index, which holds
@@ -289,17 +307,9 @@ func findIndexed(ctx context.Context, st *catalog.Store, req search.Requirement)
 	return out, nil
 }
 
-// saveSearch stores the run and says its id on stderr.
-func saveSearch(ctx context.Context, st *catalog.Store, e *env, doc findOutput) error {
-	req, err := json.Marshal(doc.Requirement)
-	if err != nil {
-		return err
-	}
-	res, err := json.Marshal(doc.Results)
-	if err != nil {
-		return err
-	}
-	id, err := st.SaveSearch(ctx, string(doc.Requirement.Kind), req, res, e.Now())
+// saveSearch stores the run and says its number on stderr.
+func saveSearch(ctx context.Context, st *catalog.Store, e *env, s saved.Search) error {
+	id, err := saved.New(st).Save(ctx, s)
 	if err != nil {
 		return catalogError(err)
 	}
@@ -314,15 +324,9 @@ func saveSearch(ctx context.Context, st *catalog.Store, e *env, doc findOutput) 
 	return nil
 }
 
-// isKeptDemo tells whether path is the demo catalog kept in a file
-// (db.go, openDemo).
-func isKeptDemo(path string) bool {
-	return filepath.Base(path) == "demo-"+catalog.DemoVersion()+".db"
-}
-
 // printCautions writes the notes and the safety cautions on stderr.
-func printCautions(e *env, req search.Requirement, out search.Outcome) {
-	for _, n := range out.Notes {
+func printCautions(e *env, req search.Requirement, notes []string) {
+	for _, n := range notes {
 		notef(e, "note: %s\n", n)
 	}
 	writeCautions(e, req)
@@ -340,19 +344,19 @@ func writeCautions(e *env, req search.Requirement) {
 // noResult prints why nothing met the requirement and the nearest misses:
 // the JSON document for programs, words and a table of misses on stderr for
 // people, never an empty table. It returns the no-result error.
-func noResult(e *env, o *findOptions, doc findOutput, out search.Outcome) error {
-	if o.out.Format == "json" {
-		if err := render(e, e.Out, o.out, present.Table{}, doc); err != nil {
+func noResult(e *env, o outputFlags, doc findOutput) error {
+	if o.Format == "json" {
+		if err := render(e, e.Out, o, present.Table{}, doc); err != nil {
 			return err
 		}
 		return noResultErrorf("nothing meets the requirement (see \"why\" and \"misses\")")
 	}
-	for _, w := range out.Why {
+	for _, w := range doc.Why {
 		notef(e, "%s\n", w)
 	}
-	if len(out.Misses) > 0 {
+	if len(doc.Misses) > 0 {
 		notef(e, "nearest misses:\n")
-		if err := render(e, e.Err, outputFlags{Format: "table"}, present.Results(o.Req, out.Misses), nil); err != nil {
+		if err := render(e, e.Err, outputFlags{Format: "table"}, present.Results(doc.Requirement, doc.Misses), nil); err != nil {
 			return err
 		}
 	}

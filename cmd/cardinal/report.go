@@ -67,20 +67,21 @@ func (o *reportOptions) validate() error {
 
 func runReport(o *reportOptions) error {
 	e := o.env
-	sv, sols, err := loadSolutions(e, o.db, o.Search, o.Picks)
+	p, sols, err := loadSolutions(e, o.db, o.Search, o.Picks)
 	if err != nil {
 		return err
 	}
-	field, err := o.field.value(sv.Req)
+	sv := p.Search
+	field, err := o.field.value(sv.Requirement)
 	if err != nil {
 		return err
 	}
-	rq, err := export.BuildRequest(sv.ID, sv.Req, sv.Picks, o.Qty, sv.stock())
+	rq, err := export.BuildRequest(sv.ID, sv.Requirement, p.Results, o.Qty, p.Stock())
 	if err != nil {
 		return usageErrorf("%v", err)
 	}
 	rq.AddBuilds(sols)
-	in := export.ReportInput{Search: sv.ID, SearchedAt: sv.At, GeneratedAt: e.Now(), Requirement: sv.Req,
+	in := export.ReportInput{Search: sv.ID, SearchedAt: sv.At, GeneratedAt: e.Now(), Requirement: sv.Requirement,
 		Results: sv.Results, Picks: sols, Request: rq,
 		Draw: export.DrawOptions{Field: field}, Plot: export.PlotOptions{Field: field, Wavelengths: o.Band}}
 	w, err := openOutput(e, o.Output, o.Force)

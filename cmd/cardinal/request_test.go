@@ -252,8 +252,10 @@ func TestRunRequestErrors(t *testing.T) {
 		code int
 		err  string
 	}{
-		{"unknown search", []string{"request", "99", "--pick", "1"}, exitNotFound, `no saved search "99"`},
-		{"rank not in the search", []string{"request", "1", "--pick", "6"}, exitUsage, "--pick 6 is not one of them"},
+		{"unknown search", []string{"request", "99", "--pick", "1"}, exitNotFound, `no saved search 99`},
+		{"not a reference", []string{"request", "yesterday", "--pick", "1"}, exitUsage, `give a search number, "last", or demo:N`},
+		{"no demo searches", []string{"request", "demo:1", "--pick", "1"}, exitNotFound, "no search has been run on the demo catalog"},
+		{"rank not in the search", []string{"request", "1", "--pick", "6"}, exitUsage, "--pick 6: search 1 has 5 results"},
 		{"file exists", []string{"request", "1", "--pick", "1", "-o", file}, exitUsage, "add --force"},
 		{"forced", []string{"request", "1", "--pick", "1", "--format", "csv", "-o", file, "--force"}, 0, "wrote purchase request"},
 	} {
