@@ -40,24 +40,27 @@ func TestSearchesShowAsFindPrinted(t *testing.T) {
 		name   string
 		args   []string
 		format string
+		out    []string // output flags given to find and show alike
 	}
 	var runs []run
 	rich := []string{"--efl", "100", "--beam", "10", "--field-angle", "1", "--band", "486.1,587.6,656.3", "--top", "4", "--power", "0.5"}
 	for _, f := range formats { // a focus with real-ray figures, pairs and laser cautions
-		runs = append(runs, run{"focus-" + f, rich, f})
+		runs = append(runs, run{"focus-" + f, rich, f, nil})
 	}
+	runs = append(runs, run{"focus-wide", rich, "table", []string{"--wide"}},
+		run{"focus-columns", rich, "csv", []string{"--columns", "rank,parts,efl_mm"}})
 	for _, f := range []string{"table", "json"} { // nothing met: why and misses
-		runs = append(runs, run{"none-" + f, []string{"--efl", "75", "--length-max", "0.8"}, f})
+		runs = append(runs, run{"none-" + f, []string{"--efl", "75", "--length-max", "0.8"}, f, nil})
 	}
 	if !testing.Short() {
 		runs = append(runs,
-			run{"image-md", []string{"--track", "300", "--mag", "-0.36", "--mag-tol", "2%", "--object-height", "5", "--na", "0.02", "--wd-min", "60", "--bfd-min", "15", "--top", "5"}, "md"},
-			run{"expand-csv", []string{"--expand", "5", "--expand-tol", "2%", "--beam", "2", "--galilean", "--length-max", "150", "--top", "3"}, "csv"})
+			run{"image-md", []string{"--track", "300", "--mag", "-0.36", "--mag-tol", "2%", "--object-height", "5", "--na", "0.02", "--wd-min", "60", "--bfd-min", "15", "--top", "5"}, "md", nil},
+			run{"expand-csv", []string{"--expand", "5", "--expand-tol", "2%", "--beam", "2", "--galilean", "--length-max", "150", "--top", "3"}, "csv", nil})
 	}
 	e, out, errb := homeEnv(t)
 	for _, r := range runs {
 		t.Run(r.name, func(t *testing.T) {
-			code := runCLI(e, append(append([]string{"find"}, r.args...), "--format", r.format)...)
+			code := runCLI(e, append(append(append([]string{"find"}, r.args...), "--format", r.format), r.out...)...)
 			found, foundErr := out.String(), errb.String()
 			if code != exitOK && code != exitNoResult {
 				t.Fatalf("find: exit %d\n%s", code, foundErr)
@@ -65,7 +68,7 @@ func TestSearchesShowAsFindPrinted(t *testing.T) {
 			if strings.TrimSpace(found) == "" && r.format != "table" {
 				t.Fatalf("find printed nothing in %s", r.format)
 			}
-			showCode := runCLI(e, "searches", "show", "last", "--format", r.format)
+			showCode := runCLI(e, append([]string{"searches", "show", "last", "--format", r.format}, r.out...)...)
 			if showCode != code {
 				t.Errorf("show: exit %d, find exited %d\n%s", showCode, code, errb)
 			}
