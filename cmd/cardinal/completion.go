@@ -17,10 +17,8 @@ import (
 // Shell completion: cobra's own `completion` command writes the script for
 // bash, zsh, fish or PowerShell; these functions give it what only cardinal
 // knows: saved search numbers, part names, the ranks of a search for
-// --pick, and the values of --format, --prefer and --kind.
-func init() {
-	rootHooks = append(rootHooks, addCompletions)
-}
+// --pick, and the values of --format, --prefer and --kind. The root adds
+// them once its tree is built (root.go).
 
 // Commands whose arguments are saved searches (all, or the first only)
 // and those whose arguments are part names.

@@ -15,6 +15,7 @@ func commands(e *env) []*cobra.Command {
 		newRequestCmd(e, runRequest),
 		newDrawCmd(e, runDraw),
 		newReportCmd(e, runReport),
+		newSearchesCmd(e),
 		newCatalogCmd(e),
 		newGlassCmd(e),
 		newDrawerCmd(e),
@@ -47,6 +48,7 @@ Paraxial figures hold near the axis; check real-ray figures before you build.`,
 	root.SetGlobalNormalizationFunc(formerFlagNames)
 	wrapHelp(root, e)
 	addDBFlag(root)
+	addCompletions(root, e)
 	return root
 }
 

@@ -15,12 +15,12 @@ import (
 	"cardinal/search/saved"
 )
 
-func init() {
-	commands = append(commands, func(e *env) *cobra.Command {
-		cmd := &cobra.Command{
-			Use:   "searches",
-			Short: "List saved searches, show one again, note or remove one",
-			Long: `Every 'cardinal find' run is saved with a number. These commands list the saved
+// newSearchesCmd is `cardinal searches` and its subcommands.
+func newSearchesCmd(e *env) *cobra.Command {
+	cmd := &cobra.Command{
+		Use:   "searches",
+		Short: "List saved searches, show one again, note or remove one",
+		Long: `Every 'cardinal find' run is saved with a number. These commands list the saved
 searches, print one again exactly as find printed it (without searching),
 give one a short note, or remove one.
 
@@ -28,11 +28,10 @@ A search is named by its number or "last". Searches run on the built-in demo
 catalog are kept with it; once you import a catalog of your own, new searches
 are saved there and the demo ones stay reachable as demo:NUMBER (demo:last),
 in every command that takes a search (request, draw, report, searches).`,
-		}
-		cmd.AddCommand(newSearchesListCmd(e, runSearchesList), newSearchesShowCmd(e, runSearchesShow),
-			newSearchesNoteCmd(e, runSearchesNote), newSearchesRemoveCmd(e, runSearchesRemove))
-		return cmd
-	})
+	}
+	cmd.AddCommand(newSearchesListCmd(e, runSearchesList), newSearchesShowCmd(e, runSearchesShow),
+		newSearchesNoteCmd(e, runSearchesNote), newSearchesRemoveCmd(e, runSearchesRemove))
+	return cmd
 }
 
 // searchesListOptions are the flags of `searches list`.
