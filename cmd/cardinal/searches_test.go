@@ -17,10 +17,15 @@ func homeEnv(t *testing.T) (*env, *bytes.Buffer, *bytes.Buffer) {
 	return storeEnv(t, nil)
 }
 
-// withoutLines drops the lines of s that start with any of the prefixes.
+// unwrap joins the continuation lines of notes wrapped to the width
+// (indented by two spaces) to the line they continue.
+func unwrap(s string) string { return strings.ReplaceAll(s, "\n  ", " ") }
+
+// withoutLines drops the lines of s (unwrapped) that start with any of the
+// prefixes.
 func withoutLines(s string, prefixes ...string) string {
 	var keep []string
-	for _, l := range strings.SplitAfter(s, "\n") {
+	for _, l := range strings.SplitAfter(unwrap(s), "\n") {
 		drop := false
 		for _, p := range prefixes {
 			drop = drop || strings.HasPrefix(l, p)
@@ -143,10 +148,10 @@ func TestSearchesListNoteRemove(t *testing.T) {
 		rows[1].Catalog != "demo" || rows[1].Note != "relay for the =bench" {
 		t.Fatalf("list after the import %+v", rows)
 	}
-	if !strings.Contains(errb.String(), "use them as demo:NUMBER") {
+	if !strings.Contains(unwrap(errb.String()), "use them as demo:NUMBER") {
 		t.Errorf("the list does not say where the demo searches went:\n%s", errb)
 	}
-	if code := runCLI(e, "request", "2", "--pick", "1"); code != exitNotFound || !strings.Contains(errb.String(), "the 2 searches run on the demo catalog before you imported your own are reached as demo:NUMBER") {
+	if code := runCLI(e, "request", "2", "--pick", "1"); code != exitNotFound || !strings.Contains(unwrap(errb.String()), "the 2 searches run on the demo catalog before you imported your own are reached as demo:NUMBER") {
 		t.Errorf("request 2: exit %d, %s", code, errb)
 	}
 	dir := t.TempDir()
