@@ -239,7 +239,7 @@ func normalHeader(s string) string { return strings.ToLower(strings.Join(strings
 // column per field the mapping feeds.
 func (rd *mappedReader) buildTable() {
 	t := &table{file: rd.src.Name, columns: map[string]int{}, headerOK: true}
-	for i, f := range MappingFields() {
+	for i, f := range mappingFields {
 		t.columns[f] = i
 	}
 	rd.table = t
@@ -386,7 +386,7 @@ func (rc *rowConverter) addr(field string) string {
 func (rc *rowConverter) convert(values map[string]mappedCell, cells []string) {
 	rc.values = values
 	set := func(f, s string) { cells[rc.rd.table.columns[f]] = s }
-	for _, f := range MappingFields() {
+	for _, f := range mappingFields {
 		v, ok := values[f]
 		if !ok || f == "shape" || isIndexed(f, "r") || !rc.readable(v) {
 			continue // radii and shape below

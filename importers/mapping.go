@@ -106,7 +106,11 @@ var DefaultFlat = []string{"inf", "infinity", "plano", "flat"}
 
 // MappingFields are the fields a mapping may feed: the columns of the
 // neutral prescription CSV, and shape.
-func MappingFields() []string {
+func MappingFields() []string { return slices.Clone(mappingFields) }
+
+var mappingFields = listMappingFields()
+
+func listMappingFields() []string {
 	f := []string{"supplier", "part", "description", "diameter", "clear_aperture"}
 	for i := 1; i <= MaxSurfaces; i++ {
 		f = append(f, col("r", i))
@@ -210,7 +214,7 @@ func (m *Mapping) readLine(line string, n int, fields map[string]int) string {
 
 func (m *Mapping) addField(field string, n int, fields map[string]int, add func(string) string) string {
 	f := strings.ToLower(field)
-	if !slices.Contains(MappingFields(), f) {
+	if !slices.Contains(mappingFields, f) {
 		return fmt.Sprintf("%q is not a field; the fields are %s", field, strings.Join(MappingFields(), ", "))
 	}
 	if first := fields[f]; first != 0 {

@@ -497,7 +497,7 @@ func (x *xlsxRows) readCell(se xml.StartElement, row, col int) (srcCell, int, er
 // cellValue turns a cell's type (ECMA-376 Part 1, 18.18.11 ST_CellType),
 // style and value into a srcCell.
 func (x *xlsxRows) cellValue(typ string, style int, v, inline string, formula, hasV bool) srcCell {
-	if formula && !hasV {
+	if formula && (!hasV || strings.TrimSpace(v) == "" && typ != "str" && typ != "inlineStr") {
 		return srcCell{kind: cellNoValue}
 	}
 	switch typ {
