@@ -330,7 +330,39 @@ standard output, with comments saying what to check: the unit of lengths,
 whether radii are signed or magnitudes, how flats are written, and glass
 names the catalog does not know. Check every line, then preview the import:
   cardinal catalog import FILE --map FILE.colmap --dry-run
-'cardinal catalog mapping --help' describes the mapping format.`,
+
+The mapping format (cardinal's own; one line each, a # starts a comment
+line, blank lines are ignored):
+  SETTING: VALUE          sheet: NAME (default the first sheet)
+                          header row: N (default 1)
+                          first data row: N (default the row after the header)
+                          blank row: skip (default, with a warning) or stop
+                          lengths: mm (default), cm or inch (25.4 mm exactly)
+                          radii: signed (default: as cardinal signs them, a
+                            radius is positive when its centre lies after the
+                            surface) or magnitudes (the shape field signs them)
+                          flat: a comma list of how a flat is written; the
+                            default is inf, infinity, plano, flat; add 0 or
+                            blank when the sheet writes a flat so
+                          delimiter: comma, semicolon or tab (CSV only)
+                          decimal: point or comma (CSV only)
+  FIELD <- SOURCE COLUMN  a catalog field from the column with that header text
+                          (case and runs of spaces do not matter)
+  FIELD = VALUE           one value for the whole file (supplier = LAB,
+                          currency = XTS); lengths in the file's unit
+  glass NAME -> GLASS     a glass name the sheet uses, and the six-digit code,
+                          built-in or imported glass it stands for
+
+The fields are the columns of the neutral prescription CSV (supplier, part,
+description, diameter, clear_aperture, r1-r6, t1-t5, glass1-glass5,
+conic1-conic6, asph1-asph6, efl, bfd, edge_thickness, stated_wavelength,
+price, currency, url, notes) and shape: with radii: magnitudes, a singlet's
+shape is biconvex, biconcave, plano-convex, plano-concave or meniscus (taken
+convex side first), and any part may give a sign pattern instead, one sign
+per radius in light order (+-- for a cemented doublet). Asphere terms are
+converted with the unit (a_n scales as length^(1-n)). Glass names resolve
+through the mapping's glass lines, then your glass aliases ('cardinal glass
+alias'), then the catalog's glasses.`,
 		Example: `  cardinal catalog mapping supplier-a.xlsx > supplier-a.colmap
   cardinal catalog mapping stock.xlsx --sheet "Plano-convex" > pcx.colmap`,
 		Args: cobra.ExactArgs(1),

@@ -272,3 +272,53 @@ func TestPreviewFlagsWrongSigns(t *testing.T) {
 		t.Errorf("a dry run created the catalog")
 	}
 }
+
+func TestRunSheetCommands(t *testing.T) {
+	dir := t.TempDir()
+	db := filepath.Join(dir, "c.db")
+	xlsx := filepath.Join(dir, "lenses.xlsx")
+	os.WriteFile(xlsx, demoLensSheet(t), 0o644)
+	tests := []struct {
+		name     string
+		args     []string
+		terminal bool
+		code     int
+		out, err string // parts of stdout and stderr
+	}{
+		{name: "guess a mapping", args: []string{"catalog", "mapping", xlsx}, out: "r1 <- Radius 1\n"},
+		{name: "guess from a missing sheet", args: []string{"catalog", "mapping", xlsx, "--sheet", "Nope"}, code: exitUsage, err: `there is no sheet "Nope"`},
+		{name: "alias to a code", args: []string{"glass", "alias", "Vellum Crown", "517642"}, out: `added the glass alias "Vellum Crown" -> 517642 (nd 1.51700)`},
+		{name: "alias again", args: []string{"glass", "alias", "vellum crown", "517642"}, out: "replaced"},
+		{name: "alias over a glass", args: []string{"glass", "alias", "caf2", "517642"}, code: exitUsage, err: "is already a glass"},
+		{name: "alias to nothing", args: []string{"glass", "alias", "Odd", "12345"}, code: exitUsage, err: "the target must be a six-digit glass code"},
+		{name: "list aliases", args: []string{"glass", "aliases", "--format", "csv"}, out: "name,glass,nd\nvellum crown,517642,1.517\n"}, // the latest spelling,
+		{name: "remove an alias", args: []string{"glass", "alias", "--remove", "VELLUM CROWN"}, out: "removed"},
+		{name: "remove it again", args: []string{"glass", "alias", "--remove", "Vellum Crown"}, code: exitNotFound, err: "no glass alias"},
+		{name: "unknown glasses, progress on a terminal", args: []string{"catalog", "import", xlsx, "--map", "MAP"}, terminal: true, code: exitUsage,
+			err: "reading " + xlsx + ": 13 rows\n"},
+		{name: "map without the file", args: []string{"catalog", "import", xlsx, "--map", filepath.Join(dir, "none.colmap")}, code: exitNotFound, err: "no such file"},
+	}
+	colmap := filepath.Join(dir, "lenses.colmap")
+	os.WriteFile(colmap, []byte(lensMapping), 0o644)
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			e, out, errb := storeEnv(t, nil)
+			e.ErrTerminal = tc.terminal
+			args := append([]string{"--db", db}, tc.args...)
+			for i, a := range args {
+				if a == "MAP" {
+					args[i] = colmap
+				}
+			}
+			if code := execute(args, e); code != tc.code {
+				t.Fatalf("exit %d, want %d; stderr:\n%s", code, tc.code, errb)
+			}
+			if !strings.Contains(out.String(), tc.out) || !strings.Contains(errb.String(), tc.err) {
+				t.Errorf("stdout:\n%s\nstderr:\n%s\nwant %q and %q", out, errb, tc.out, tc.err)
+			}
+			if !tc.terminal && strings.Contains(errb.String(), "\r") {
+				t.Errorf("progress on a stderr that is not a terminal")
+			}
+		})
+	}
+}
