@@ -6,6 +6,8 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"slices"
+	"strings"
 
 	"cardinal/importers"
 	"cardinal/optics"
@@ -71,7 +73,13 @@ func (s *Store) Import(ctx context.Context, entries []importers.Entry, dryRun bo
 			rep.Warnings = append(rep.Warnings, RowError{Line: e.Line, ID: id, Reason: msg})
 		}
 	}
-	if err := writeNewParts(ctx, w, fresh, glasses); err != nil {
+	// New parts take ids in the order of their names, so that the tables
+	// keyed by name grow at their end.
+	slices.SortFunc(fresh, func(a, b newPart) int { return strings.Compare(a.e.Part.ID(), b.e.Part.ID()) })
+	for i := range fresh {
+		fresh[i].id = next - int64(len(fresh)) + int64(i) + 1
+	}
+	if err := writeNewParts(ctx, w, fresh, glasses, next-int64(len(fresh))); err != nil {
 		return rep, s.wrapWriteError(err)
 	}
 	if dryRun {

@@ -45,7 +45,20 @@ type newRows struct {
 // writeNewParts adds the parts, computing their columns on the processors
 // and writing every table in multi-row inserts: the same rows writePart
 // writes, without its per-part deletes and lookups.
-func writeNewParts(ctx context.Context, w *txWriter, parts []newPart, glasses optics.GlassTable) error {
+func writeNewParts(ctx context.Context, w *txWriter, parts []newPart, glasses optics.GlassTable, stored int64) (err error) {
+	if len(parts) >= bulkParts && int64(len(parts)) >= stored {
+		rebuild, err := dropIndexes(ctx, w)
+		if err != nil {
+			return err
+		}
+		defer func() {
+			for _, q := range rebuild {
+				if _, e := w.ExecContext(ctx, q); e != nil && err == nil {
+					err = e
+				}
+			}
+		}()
+	}
 	rows := parallel(len(parts), func(i int) newRows {
 		e := parts[i].e
 		p := e.Part
@@ -118,6 +131,44 @@ func writeNewParts(ctx context.Context, w *txWriter, parts []newPart, glasses op
 		}
 	}
 	return nil
+}
+
+// bulkParts is the number of new parts from which an import drops the
+// secondary indexes of the computed columns and surfaces and builds them
+// again at the end (when it also at least doubles the catalog, whose
+// highest part id stored stands for its size): building an
+// index from sorted rows is cheaper than inserting into it row by row in
+// random order.
+var bulkParts = 5000 // a variable for the tests
+
+// dropIndexes drops the secondary indexes of the tables an import fills
+// most, and returns the statements that create them again.
+func dropIndexes(ctx context.Context, w *txWriter) ([]string, error) {
+	rows, err := w.QueryContext(ctx, `SELECT name, sql FROM sqlite_schema
+		WHERE type = 'index' AND tbl_name IN ('computed', 'surfaces') AND sql IS NOT NULL`)
+	if err != nil {
+		return nil, err
+	}
+	var names, create []string
+	for rows.Next() {
+		var name, q string
+		if err := rows.Scan(&name, &q); err != nil {
+			rows.Close()
+			return nil, err
+		}
+		names, create = append(names, name), append(create, q)
+	}
+	rows.Close()
+	if err := rows.Err(); err != nil {
+		return nil, err
+	}
+	for _, n := range names {
+		// The names come from the schema itself, quoted as identifiers.
+		if _, err := w.ExecContext(ctx, `DROP INDEX "`+strings.ReplaceAll(n, `"`, `""`)+`"`); err != nil {
+			return nil, err
+		}
+	}
+	return create, nil
 }
 
 // A batch collects the rows of one INSERT and runs them as multi-row
