@@ -207,7 +207,7 @@ func (m *model) list(spacing float64) []Param {
 					Tol: l.Tol.Index, Unit: "", what: pIndex, part: i, k: k})
 		}
 	}
-	if len(m.lenses) == 2 {
+	if len(m.lenses) == 2 && m.comp != CompensateGap { // a gap that is adjusted has no placement error
 		ps = append(ps, Param{Name: "gap", Key: "gap", Tol: spacing, Unit: "mm", what: pGap, part: -1})
 	}
 	if m.kind == Image {

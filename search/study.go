@@ -143,6 +143,13 @@ func (m *model) study(b BuildSettings, stream uint64) Study {
 	return st
 }
 
+// FigureRange is the target figure's 95 % range after compensation in
+// the figure's own unit, low to high.
+func (st Study) FigureRange() (lo, hi float64) {
+	a, b := st.Target*(1+st.SpreadLow/100), st.Target*(1+st.SpreadHigh/100)
+	return min(a, b), max(a, b)
+}
+
 // pct is a figure's departure from the target in percent of the target.
 func (m *model) pct(v float64) float64 { return 100 * (v - m.target) / math.Abs(m.target) }
 

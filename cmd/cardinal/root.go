@@ -14,6 +14,7 @@ func commands(e *env) []*cobra.Command {
 		newInspectCmd(e, runInspect),
 		newRequestCmd(e, runRequest),
 		newDrawCmd(e, runDraw),
+		newToleranceCmd(e, runTolerance),
 		newReportCmd(e, runReport),
 		newSearchesCmd(e),
 		newCatalogCmd(e),

@@ -54,7 +54,7 @@ func WriteStudyPlot(w io.Writer, req search.Requirement, st search.Study, title,
 	if unit != "" {
 		label += " (" + unit + ")"
 	}
-	lo, hi := st.Target*(1+st.SpreadLow/100), st.Target*(1+st.SpreadHigh/100)
+	lo, hi := st.FigureRange()
 	right, err := studyPanel(st.Figure, lo, hi, label, st.Target-st.Tol, st.Target+st.Tol)
 	if err != nil {
 		return err

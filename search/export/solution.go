@@ -130,3 +130,22 @@ func (s Solution) Verify() []string {
 func near(a, b float64) bool {
 	return math.Abs(a-b) <= 1e-6*math.Max(1, math.Max(math.Abs(a), math.Abs(b)))
 }
+
+// Setup is the solution as the build study sees it (search.StudyBuild):
+// its parts as used, their stated tolerances and the solved distances.
+func (s Solution) Setup() search.Setup {
+	su := search.Setup{Parts: s.Parts}
+	for _, e := range s.Entries {
+		su.Tols = append(su.Tols, e.Tolerances)
+	}
+	if len(s.Gaps) > 0 {
+		su.Gap = s.Gaps[0]
+	}
+	if !math.IsInf(s.ObjectZ, 0) {
+		su.WorkingDistance = -s.ObjectZ
+	}
+	if !math.IsNaN(s.ImageZ) {
+		su.BackClearance = s.ImageZ
+	}
+	return su
+}

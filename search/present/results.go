@@ -61,8 +61,13 @@ func resultColumns(req search.Requirement, rs []search.Result, qs search.Quality
 		{Column{Key: "form", Label: "form", Optional: !expand}, func(r search.Result) Cell { return Text(string(r.Form)) }},
 		{Column{Key: "error_pct", Label: "error", Unit: "%"}, func(r search.Result) Cell { return errorCell(r.ErrorPct) }},
 	}
+	build := buildColumns(rs)
+	if len(build) > 0 {
+		cols = append(cols, build[0]) // the yield, before the real-ray columns
+		build = build[1:]
+	}
 	cols = append(cols, qualityColumns(qs)...)
-	cols = append(cols, buildColumns(rs)...)
+	cols = append(cols, build...)
 	cols = append(cols,
 		resultColumn{Column{Key: "failed_checks", Label: "checks", Optional: !anyFails}, checksCell},
 		resultColumn{Column{Key: "price", Label: "price", TextOnly: true}, priceCell})
@@ -226,8 +231,10 @@ func buildColumns(rs []search.Result) []resultColumn {
 		}
 	}
 	return []resultColumn{
+		{Column{Key: "yield_pct", Label: "yield", Unit: "%"},
+			b(func(f *search.BuildFigures) Cell { return Num(f.Yield, 0) })},
 		{Column{Key: "adjust_range_mm", Label: "adjust", Unit: "mm", TextOnly: true},
-			b(func(f *search.BuildFigures) Cell { return Text(RangeText(f.AdjustLow, f.AdjustHigh, 2)) })},
+			b(func(f *search.BuildFigures) Cell { return Text(adjustText(f.AdjustLow, f.AdjustHigh)) })},
 		{Column{Key: "compensator", Label: "adjusts", Optional: true},
 			b(func(f *search.BuildFigures) Cell { return Text(string(f.Compensator)) })},
 		{Column{Key: "adjust_low_mm", Label: "adjust low", Unit: "mm", Optional: true},
@@ -240,11 +247,18 @@ func buildColumns(rs []search.Result) []resultColumn {
 			b(func(f *search.BuildFigures) Cell { return Num(f.SpreadLow, 3) })},
 		{Column{Key: "spread_high_pct", Label: "built high", Unit: "%", Optional: true},
 			b(func(f *search.BuildFigures) Cell { return Num(f.SpreadHigh, 3) })},
-		{Column{Key: "yield_pct", Label: "yield", Unit: "%"},
-			b(func(f *search.BuildFigures) Cell { return Num(f.Yield, 0) })},
 		{Column{Key: "dominant", Label: "matters most", Optional: true},
 			b(func(f *search.BuildFigures) Cell { return Text(f.Dominant) })},
 	}
+}
+
+// adjustText is an adjustment range in mm: two decimals below a
+// millimetre, one above, to keep the column narrow.
+func adjustText(lo, hi float64) string {
+	if math.Max(math.Abs(lo), math.Abs(hi)) >= 1 {
+		return RangeText(lo, hi, 1)
+	}
+	return RangeText(lo, hi, 2)
 }
 
 // RangeText is a range of signed values, "-1.14..+1.18".

@@ -39,7 +39,7 @@ func StudySummary(req search.Requirement, st search.Study) Table {
 	if st.Compensator == search.CompensateNone {
 		adjust = "error left in 95 % of builds"
 	}
-	lo, hi := st.Target*(1+st.SpreadLow/100), st.Target*(1+st.SpreadHigh/100)
+	lo, hi := st.FigureRange()
 	rows := [][2]string{
 		{"simulated builds", fmt.Sprintf("%d (%s; seed %d)", st.Trials, dist, req.Build.Seed)},
 		{"spacing tolerance", fmt.Sprintf("+-%s mm (every gap, the working distance, the image plane where it is not the compensator)", Fixed(req.Build.SpacingTol, 3))},
@@ -55,7 +55,7 @@ func StudySummary(req search.Requirement, st search.Study) Table {
 	if st.Failed > 0 {
 		rows = append(rows, [2]string{"no solution", fmt.Sprintf("%d builds could not be compensated (counted as missing the target)", st.Failed)})
 	}
-	t := Table{Columns: []Column{{Key: "figure", Label: "figure"}, {Key: "value", Label: "value", Note: true}}}
+	t := Table{Columns: []Column{{Key: "figure", Label: "figure"}, {Key: "value", Label: "value"}}}
 	for _, r := range rows {
 		t.Add(Text(r[0]), Text(r[1]))
 	}
