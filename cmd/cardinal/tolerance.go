@@ -167,20 +167,20 @@ func runTolerance(o *toleranceOptions) error {
 		return err
 	}
 	s := sols[0]
-	req := sv.Req
+	req := sv.Search.Requirement
 	req.Build = o.settings(req.Build)
 	st, err := search.StudyBuild(req, s.Setup())
 	if err != nil {
-		return usageErrorf("search %d, result %d: %v", sv.ID, s.Result.Rank, err)
+		return usageErrorf("search %d, result %d: %v", sv.Search.ID, s.Result.Rank, err)
 	}
 	name, unit := search.FigureName(req.Kind)
-	title := fmt.Sprintf("Search %d, result %d: %s", sv.ID, s.Result.Rank, export.DescribeParts(s.Result.Parts))
+	title := fmt.Sprintf("Search %d, result %d: %s", sv.Search.ID, s.Result.Rank, export.DescribeParts(s.Result.Parts))
 	if o.Plot != "" {
 		if err := writeStudyPlot(o, req, st, title); err != nil {
 			return err
 		}
 	}
-	doc := toleranceOutput{Search: sv.ID, Rank: s.Result.Rank, Parts: s.Result.Parts, Build: req.Build,
+	doc := toleranceOutput{Search: sv.Search.ID, Rank: s.Result.Rank, Parts: s.Result.Parts, Build: req.Build,
 		Figure: name, Unit: unit, Study: st, Requirement: req, Cautions: export.Cautions(req),
 		AdjustHist: search.NewHistogram(st.Adjust, histogramBins), FigureHist: search.NewHistogram(st.Figure, histogramBins)}
 	switch o.out.Format {
