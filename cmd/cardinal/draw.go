@@ -29,7 +29,7 @@ func newDrawCmd(e *env, run func(*drawOptions) error) *cobra.Command {
 	o := &drawOptions{env: e}
 	cmd := &cobra.Command{
 		Use:   "draw SEARCH --pick N -o FILE",
-		Short: "To-scale layout drawing, or spot diagrams and ray fans, of a saved result",
+		Short: "To-scale layout drawing, or the spot figures, of a saved result",
 		Long: `Draw one result of a saved search (its number, or "last").
 
 Without --spot: an SVG layout drawn to scale (1 unit = 1 mm) from the parts'
@@ -38,9 +38,12 @@ plane, real marginal and chief rays traced through the parts, the cardinal
 points of each part (above the axis) and of the whole system (below), and the
 working distance, gap, back clearance, envelope and track dimensioned.
 
-With --spot: spot diagrams and meridional and sagittal ray fans on axis, at
-0.7 of the field and at the field edge, one colour per wavelength, as PNG or
-SVG (chosen by the -o file's extension; SVG on standard output).
+With --spot: one row per field point (on axis, at 0.7 of the field and at the
+field edge; a laser search without a field on axis only): the spot at best
+focus on its Airy disc with its RMS radius written on it, the RMS spot radius
+through focus, and the ray error across the pupil; each wavelength in its own
+colour (ultraviolet and infrared in named greys), as PNG or SVG (chosen by the
+-o file's extension; SVG on standard output).
 
 The field is --field (object height in mm for a finite object, field angle in
 degrees for an object at infinity), else the search's --object-height or
@@ -62,7 +65,7 @@ The RMS spot radius of each field point and wavelength is printed on stderr.`,
 	f.IntSliceVar(&o.Picks, "pick", nil, "rank of the result to draw (required)")
 	f.StringVarP(&o.Output, "output", "o", "", "file to write (.svg, or .png with --spot); standard output if absent")
 	f.BoolVar(&o.Force, "force", false, "overwrite the output file if it exists")
-	f.BoolVar(&o.Spot, "spot", false, "spot diagrams and ray fans instead of the layout")
+	f.BoolVar(&o.Spot, "spot", false, "spot figures (spot at best focus, through focus, ray errors) instead of the layout")
 	addFieldFlags(f, &o.field)
 	f.Float64SliceVar(&o.Band, "band", nil, "wavelengths in nm for --spot, the first the reference (default: the search's wavelength and band; without a band F and C beside it in the visible)")
 	return cmd
@@ -131,7 +134,7 @@ func drawSpots(o *drawOptions, s export.Solution, field float64, title string) e
 	if err != nil {
 		return err
 	}
-	if err := sp.WritePlot(w, title+": spot diagrams and ray fans", o.format); err != nil {
+	if err := sp.WritePlot(w, title+": spots at best focus, through focus, and ray errors", o.format); err != nil {
 		w.Close()
 		return err
 	}

@@ -29,7 +29,7 @@ func newReportCmd(e *env, run func(*reportOptions) error) *cobra.Command {
 		Long: `Write one HTML page about chosen results of a saved search (its number, or
 "last"): the requirement, the ranked results (with their real-ray figures
 where the search traced them, and a note on what the ranking used), for each
-chosen result its to-scale layout drawing, spot diagrams and ray fans with
+chosen result its build table, to-scale layout drawing, spot figures with
 their RMS figures, then the purchase request and the cautions. The page is self-contained (styles
 inline, drawings as inline SVG, plots as embedded PNG): it fetches nothing, so
 it can be mailed, archived with a lab notebook or printed.`,

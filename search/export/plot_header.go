@@ -2,12 +2,11 @@ package export
 
 import (
 	"fmt"
-	"image/color"
 	"strings"
 
 	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/font"
 	"gonum.org/v1/plot/plotter"
-	"gonum.org/v1/plot/plotutil"
 	"gonum.org/v1/plot/text"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
@@ -42,7 +41,7 @@ func (sp Spots) newHeader(title string, width vg.Length) header {
 	h := header{width: width}
 	h.key, h.keyNames = sp.key()
 	h.titleSty, h.notesSty = plot.New().Title.TextStyle, plot.New().Title.TextStyle
-	h.titleSty.Font.Size, h.notesSty.Font.Size = vg.Points(12), vg.Points(10)
+	h.titleSty.Font, h.notesSty.Font = font.From(plotFont, 12), font.From(plotFont, 10)
 	for _, s := range []*text.Style{&h.titleSty, &h.notesSty} {
 		s.XAlign, s.YAlign = draw.XLeft, draw.YTop
 	}
@@ -62,36 +61,41 @@ func (sp Spots) newHeader(title string, width vg.Length) header {
 	return h
 }
 
-// headerNotes are the lines under the title: the spots' origin and the
-// image plane.
+// headerNotes are the lines under the title: the reference of the spots,
+// the image plane and best focus, and the search's verdict.
 func (sp Spots) headerNotes() []string {
-	n := []string{fmt.Sprintf("spots relative to the chief ray at %.1f nm", sp.Wavelengths[0])}
+	n := []string{fmt.Sprintf("spots relative to the chief ray at %s", WavelengthName(sp.Wavelengths[0]))}
 	if sp.Angular {
-		return append(n, "afocal: output directions in µrad")
+		return append(n, "afocal: output directions in µrad; no focus")
 	}
-	return append(n, fmt.Sprintf("image plane %.3f mm behind the last vertex", sp.ImageZ))
+	n = append(n, fmt.Sprintf("image plane %s mm behind the last vertex; best focus %s mm from it (least RMS spot on axis)",
+		Fixed(sp.ImageZ, 3), Fixed(sp.BestFocus, 3)))
+	if sp.Verdict != "" {
+		n = append(n, sp.Verdict)
+	}
+	return n
 }
 
 // key is the legend of the colours, one per wavelength, and of the Airy
-// circle, with the names of its entries.
+// disc, with the names of its entries.
 func (sp Spots) key() (plot.Legend, []string) {
 	var names []string
 	key := plot.NewLegend()
 	key.Top = true
-	key.TextStyle.Font.Size = vg.Points(10)
-	for k, wl := range sp.Wavelengths {
+	key.TextStyle.Font = font.From(plotFont, 10)
+	for _, wl := range sp.Wavelengths {
 		g, _ := plotter.NewScatter(plotter.XYs{{}})
-		g.GlyphStyle.Color, g.GlyphStyle.Shape = plotutil.Color(k), plotutil.Shape(k)
+		g.GlyphStyle = wavelengthGlyph(wl)
 		l, _ := plotter.NewLine(plotter.XYs{{}, {X: 1}})
-		l.Color = plotutil.Color(k)
-		names = append(names, fmt.Sprintf("%.1f nm", wl))
+		l.Color, l.Width = WavelengthColour(wl), vg.Points(1.6)
+		names = append(names, WavelengthName(wl))
 		key.Add(names[len(names)-1], g, l)
 	}
 	if sp.Airy > 0 {
-		l, _ := plotter.NewLine(plotter.XYs{{}, {X: 1}})
-		l.Color, l.Dashes = color.Gray{Y: 90}, []vg.Length{vg.Points(3), vg.Points(2)}
-		names = append(names, fmt.Sprintf("Airy radius %.3g %s", sp.Airy, sp.Unit()))
-		key.Add(names[len(names)-1], l)
+		disc, _ := plotter.NewPolygon(plotter.XYs{{}, {X: 1}, {X: 1, Y: 1}})
+		disc.Color, disc.LineStyle.Width = airyFill, 0
+		names = append(names, fmt.Sprintf("Airy disc, radius %s %s", figure(sp.Airy), sp.Unit()))
+		key.Add(names[len(names)-1], disc)
 	}
 	return key, names
 }

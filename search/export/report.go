@@ -126,7 +126,7 @@ func pickPage(s Solution, in ReportInput) (reportPick, error) {
 		return p, fmt.Errorf("solution %d: %w", p.Rank, err)
 	}
 	b.Reset()
-	if err := p.Spots.WritePlot(&b, fmt.Sprintf("Solution %d: spot diagrams and ray fans", p.Rank), "png"); err != nil {
+	if err := p.Spots.WritePlot(&b, fmt.Sprintf("Solution %d: spots at best focus, through focus, and ray errors", p.Rank), "png"); err != nil {
 		return p, err
 	}
 	p.Plot = template.URL("data:image/png;base64," + base64.StdEncoding.EncodeToString(b.Bytes()))

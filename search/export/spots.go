@@ -29,6 +29,10 @@ type SpotSet struct {
 	// wavelength's chief ray, in micrometres (microradians of direction
 	// for an afocal solution); W their shares of the pupil's area.
 	X, Y, W []float64
+	// DX, DY are the rays' slopes relative to the reference chief ray's,
+	// dx/dz and dy/dz (0 for an afocal solution): how each point moves
+	// when the plane moves.
+	DX, DY []float64
 	// RMS is the RMS radius about the centroid, same unit.
 	RMS          float64
 	Passed, Lost int
@@ -36,6 +40,10 @@ type SpotSet struct {
 	// same unit: Mer* along y for pupil points on the y axis, Sag* along x
 	// for pupil points on the x axis. Rays that do not pass are left out.
 	MerPupil, MerError, SagPupil, SagError []float64
+	// MerSlope and SagSlope are the fans' ray slopes relative to the
+	// reference chief ray's (dy/dz, dx/dz): the error dz mm past the image
+	// plane is the error plus 1000 dz times the slope, µm.
+	MerSlope, SagSlope []float64
 }
 
 // Spots holds the spot diagrams and ray fans of a solution.
@@ -53,6 +61,13 @@ type Spots struct {
 	Wavelengths []float64
 	Fields      []float64 // object heights or field angles, on axis first
 	Sets        []SpotSet // by field, then by wavelength
+	// BestFocus is the plane of the least on-axis RMS spot at the
+	// reference wavelength, mm from the image plane (positive away from
+	// the lens); 0 when angular.
+	BestFocus float64
+	// Verdict is the search's diffraction-limited verdict in words, ""
+	// when the search traced no real rays.
+	Verdict string
 }
 
 // Unit is the unit of the figures.
@@ -128,6 +143,14 @@ func NewSpots(s Solution, o PlotOptions) (Spots, error) {
 		}
 	}
 	sp.Airy = sp.airy(sys, s, wls[0])
+	sp.BestFocus = sp.bestFocus()
+	if q := s.Result.ImageQuality; q != nil {
+		limited := "not diffraction limited"
+		if q.DiffractionLimited {
+			limited = "diffraction limited"
+		}
+		sp.Verdict = fmt.Sprintf("the search's verdict: %s (%s waves RMS wavefront error on axis; Maréchal's criterion is 0.07)", limited, figure(q.WavefrontRMS))
+	}
 	return sp, nil
 }
 

@@ -31,6 +31,11 @@ func (sp Spots) set(sys optics.System, s Solution, o PlotOptions, field, wl floa
 		set.Passed++
 		x, y := sp.coords(p, ref)
 		set.X, set.Y, set.W = append(set.X, x), append(set.Y, y), append(set.W, b.Points[i].Weight)
+		dx, dy := 0.0, 0.0
+		if !sp.Angular {
+			dx, dy = p.Dir.X/p.Dir.Z-ref.Dir.X/ref.Dir.Z, p.Dir.Y/p.Dir.Z-ref.Dir.Y/ref.Dir.Z
+		}
+		set.DX, set.DY = append(set.DX, dx), append(set.DY, dy)
 	}
 	set.RMS = weightedRMS(set.X, set.Y, set.W)
 	sag := make([]optics.PupilPoint, fanSamples)
@@ -38,10 +43,10 @@ func (sp Spots) set(sys optics.System, s Solution, o PlotOptions, field, wl floa
 		sag[i] = optics.PupilPoint{X: q.Y, Weight: q.Weight}
 	}
 	for _, fan := range []struct {
-		pts        []optics.PupilPoint
-		pupil, err *[]float64
-		meridional bool
-	}{{optics.MeridionalFan(fanSamples), &set.MerPupil, &set.MerError, true}, {sag, &set.SagPupil, &set.SagError, false}} {
+		pts               []optics.PupilPoint
+		pupil, err, slope *[]float64
+		meridional        bool
+	}{{optics.MeridionalFan(fanSamples), &set.MerPupil, &set.MerError, &set.MerSlope, true}, {sag, &set.SagPupil, &set.SagError, &set.SagSlope, false}} {
 		fb, err := sys.Bundle(s.Object(), field, wl, fan.pts)
 		if err != nil {
 			return SpotSet{}, err
@@ -52,10 +57,14 @@ func (sp Spots) set(sys optics.System, s Solution, o PlotOptions, field, wl floa
 				continue
 			}
 			x, y := sp.coords(p, ref)
+			dx, dy := 0.0, 0.0
+			if !sp.Angular {
+				dx, dy = p.Dir.X/p.Dir.Z-ref.Dir.X/ref.Dir.Z, p.Dir.Y/p.Dir.Z-ref.Dir.Y/ref.Dir.Z
+			}
 			if fan.meridional {
-				*fan.pupil, *fan.err = append(*fan.pupil, fan.pts[i].Y), append(*fan.err, y)
+				*fan.pupil, *fan.err, *fan.slope = append(*fan.pupil, fan.pts[i].Y), append(*fan.err, y), append(*fan.slope, dy)
 			} else {
-				*fan.pupil, *fan.err = append(*fan.pupil, fan.pts[i].X), append(*fan.err, x)
+				*fan.pupil, *fan.err, *fan.slope = append(*fan.pupil, fan.pts[i].X), append(*fan.err, x), append(*fan.slope, dx)
 			}
 		}
 	}

@@ -48,7 +48,7 @@ func (sc *Scene) WriteSVG(w io.Writer, o DrawOptions) error {
 	last := d.dimY(max(d.lastDimRow(), 2))
 	bottom := last + 2.5*d.fs + float64(len(legend))*1.5*d.fs
 	scale, note := printScale(x1 - x0)
-	fmt.Fprintf(&d.b, `<svg xmlns="http://www.w3.org/2000/svg" class="cardinal-layout" viewBox="%s %s %s %s" width="%smm" height="%smm" font-family="sans-serif" data-units="mm" data-print-scale="%s">`+"\n",
+	fmt.Fprintf(&d.b, `<svg xmlns="http://www.w3.org/2000/svg" class="cardinal-layout" viewBox="%s %s %s %s" width="%smm" height="%smm" font-family="'Liberation Sans', 'DejaVu Sans', Arial, sans-serif" data-units="mm" data-print-scale="%s">`+"\n",
 		f4(x0), f4(-top), f4(x1-x0), f4(top+bottom), f4((x1-x0)/scale), f4((top+bottom)/scale), note)
 	fmt.Fprintf(&d.b, `<rect x="%s" y="%s" width="%s" height="%s" fill="#ffffff"/>`+"\n", f4(x0), f4(-top), f4(x1-x0), f4(top+bottom))
 	for i, l := range title {
