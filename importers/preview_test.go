@@ -19,7 +19,7 @@ func TestPreview(t *testing.T) {
 	rows := Preview(es)
 	// A plano-convex lens has f = R/(n - 1) whatever its thickness when the
 	// flat side faces the image (Hecht, Optics, 5th ed., sec. 6.2, thick-lens
-	// focal length with R2 infinite); n = 1.517 for glass code 517642 (the
+	// focal length with R2 infinite; the section number from memory); n = 1.517 for glass code 517642 (the
 	// code's first three digits, common practice). The code's dispersion
 	// moves n by ~1e-6 between 587.56 and 587.6 nm, hence 1e-3 mm.
 	want := 51.68 / 0.517

@@ -243,15 +243,17 @@ func (b *xlsxBook) readStyles() error {
 }
 
 // builtinDateFormat tells whether a built-in number format shows a date or
-// time: ids 14-22 and 45-47 (ECMA-376 Part 1, 18.8.30 numFmt), and 27-36
-// and 50-58, the dates of East Asian locales (common practice).
+// time: ids 14-22 and 45-47 (ECMA-376 Part 1, 18.8.30 numFmt; the clause
+// number from memory), and 27-36 and 50-58, the dates of East Asian locales
+// (common practice).
 func builtinDateFormat(id int) bool {
 	return id >= 14 && id <= 22 || id >= 45 && id <= 47 || id >= 27 && id <= 36 || id >= 50 && id <= 58
 }
 
 // isDateFormat tells whether a format code shows a date or time: it has a
 // y, m, d, h or s outside quoted text, escapes and [colour] brackets
-// (ECMA-376 Part 1, 18.8.31 numFmts, format code syntax).
+// (ECMA-376 Part 1, 18.8.31 numFmts, format code syntax; the clause number
+// from memory).
 func isDateFormat(code string) bool {
 	inQuote, inBracket := false, false
 	for i := 0; i < len(code); i++ {
@@ -494,7 +496,8 @@ func (x *xlsxRows) readCell(se xml.StartElement, row, col int) (srcCell, int, er
 	}
 }
 
-// cellValue turns a cell's type (ECMA-376 Part 1, 18.18.11 ST_CellType),
+// cellValue turns a cell's type (ECMA-376 Part 1, 18.18.11 ST_CellType, the
+// clause number from memory),
 // style and value into a srcCell.
 func (x *xlsxRows) cellValue(typ string, style int, v, inline string, formula, hasV bool) srcCell {
 	if formula && (!hasV || strings.TrimSpace(v) == "" && typ != "str" && typ != "inlineStr") {

@@ -74,7 +74,7 @@ func runMappedImport(o *catalogImportOptions) error {
 		return usageErrorf("%s cannot be imported; nothing was changed. Fix these and import again:\n%v", where, err)
 	}
 	for _, w := range f.Warnings {
-		fmt.Fprintf(o.env.Err, "cardinal: warning: %v\n", w)
+		notef(o.env, "cardinal: warning: %v\n", w)
 	}
 	if s == nil {
 		if s, err = openForWrite(o.DB, o.env, true); err != nil {
@@ -92,13 +92,13 @@ func runMappedImport(o *catalogImportOptions) error {
 		return importErrorf(where, err)
 	}
 	for _, w := range rep.Warnings {
-		fmt.Fprintf(o.env.Err, "cardinal: warning: %s, row %d: %s: %s\n", where, w.Line, w.ID, w.Reason)
+		notef(o.env, "cardinal: warning: %s, row %d: %s: %s\n", where, w.Line, w.ID, w.Reason)
 	}
-	out := o.env.Out
+	pe := *o.env
 	if o.DryRun && o.Format != "table" {
-		out = o.env.Err // keep the preview alone on stdout
+		pe.Out = o.env.Err // keep the preview alone on stdout
 	}
-	printChanges(&env{Out: out}, s.Path(), where, "parts", rep.Added, rep.Updated, len(rep.Unchanged), len(rep.Warnings), o.DryRun)
+	printChanges(&pe, s.Path(), where, "parts", rep.Added, rep.Updated, len(rep.Unchanged), len(rep.Warnings), o.DryRun)
 	return nil
 }
 
