@@ -3,6 +3,7 @@ package main
 import (
 	"fmt"
 	"io"
+	"strings"
 
 	"github.com/spf13/cobra"
 
@@ -109,11 +110,13 @@ func writeRequest(e *env, w io.Writer, format string, rq export.Request) error {
 		line := n[0] + ": " + n[1]
 		if format == "md" {
 			line = "- **" + n[0] + "**: " + n[1]
+		} else if e.width() > 0 {
+			line = strings.ReplaceAll(present.Wrap(line, e.width()-2), "\n", "\n  ")
 		}
 		if _, err := fmt.Fprintln(w, line); err != nil {
 			return err
 		}
 	}
 	fmt.Fprintln(w)
-	return render(e, w, outputFlags{Format: format}, textTable(export.RequestHeader, rq.Rows()), nil)
+	return render(e, w, outputFlags{Format: format}, rq.Table(), nil)
 }

@@ -199,7 +199,7 @@ func TestRunRequestFormats(t *testing.T) {
 		check        func(t *testing.T, out string)
 	}{
 		{"table", "table", func(t *testing.T, out string) {
-			mustContain(t, out, "requirement: image: track 300 mm", "subtotal", "to_order")
+			mustContain(t, out, "requirement: image: track 300 mm", "subtotal", "to order")
 		}},
 		{"md", "md", func(t *testing.T, out string) {
 			mustContain(t, out, "- **requirement**: image", "| supplier | part |")

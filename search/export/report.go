@@ -91,7 +91,7 @@ var reportTmpl = template.Must(template.New("report").Funcs(reportFuncs).Parse(r
 // fetches nothing.
 func WriteReport(w io.Writer, in ReportInput) error {
 	page := reportPage{ReportInput: in, RequirementText: DescribeRequirement(in.Requirement), Picked: map[int]bool{},
-		Cautions: Cautions(in.Requirement), RequestRows: in.Request.Rows(), RequestHeader: RequestLabels, RequestNotes: notesWithoutBuilds(in.Request.Notes()),
+		Cautions: Cautions(in.Requirement), RequestRows: in.Request.Rows(), RequestHeader: RequestLabels(), RequestNotes: notesWithoutBuilds(in.Request.Notes()),
 		QualityColumns: search.ShownQuality(in.Results), BuildHeader: BuildHeader}
 	page.RankingNote = rankingNote(in.Requirement, page.QualityColumns)
 	in.Draw, in.Plot, page.FieldNote = commonField(in.Picks, in.Draw, in.Plot)

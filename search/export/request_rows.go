@@ -9,29 +9,68 @@ import (
 	"cardinal/search/present"
 )
 
-// RequestHeader names the columns of a request's rows.
-var RequestHeader = []string{"supplier", "part", "description", "needed", "in_drawer", "location", "to_order", "unit_price", "line_total", "currency", "url"}
+// RequestHeader is the keys of a request's columns: the CSV header.
+func RequestHeader() []string { return Request{}.Table().Keys() }
 
-// RequestLabels are RequestHeader in words, for pages people read.
-var RequestLabels = []string{"supplier", "part", "description", "needed", "in drawer", "location", "to order", "unit price", "line total", "currency", "where to buy"}
+// RequestLabels are the columns' headings, for pages people read.
+func RequestLabels() []string {
+	t := Request{}.Table()
+	h := make([]string, len(t.Columns))
+	for i, c := range t.Columns {
+		h[i] = c.Heading()
+	}
+	return h
+}
 
-// Rows lays the request out as a table: each supplier's lines, then its
-// subtotal (one row per currency), then the grand totals, one row per
-// currency. Quantities are whole numbers, money has two decimals, an
-// unknown price is empty.
-func (r Request) Rows() [][]string {
-	var rows [][]string
+// Table lays the request out once for every format: each supplier's
+// lines, then its subtotal (one row per currency), then the grand totals,
+// one row per currency. Quantities are whole numbers, money has two
+// decimals, an unknown price is missing; on a narrow terminal the
+// description and the address move under the table, labelled by part.
+func (r Request) Table() present.Table {
+	t := present.Table{Label: 1, Columns: []present.Column{
+		{Key: "supplier", Label: "supplier"}, {Key: "part", Label: "part"},
+		{Key: "description", Label: "description", Note: true},
+		{Key: "needed", Label: "needed"}, {Key: "in_drawer", Label: "in drawer"}, {Key: "location", Label: "location"},
+		{Key: "to_order", Label: "to order"}, {Key: "unit_price", Label: "unit price"}, {Key: "line_total", Label: "line total"},
+		{Key: "currency", Label: "currency"}, {Key: "url", Label: "where to buy", Note: true},
+	}}
+	none := present.Cell{Text: present.Missing}
 	for _, g := range r.Suppliers {
 		for _, l := range g.Lines {
-			rows = append(rows, []string{l.Supplier, l.Part, l.Description, strconv.Itoa(l.Needed),
-				strconv.Itoa(l.InDrawer), l.Location, strconv.Itoa(l.ToOrder), money(l.UnitPrice), money(l.LineTotal), l.Currency, l.URL})
+			t.Add(present.Text(l.Supplier), present.Text(l.Part), present.Text(l.Description), present.Int(l.Needed),
+				present.Int(l.InDrawer), present.Text(l.Location), present.Int(l.ToOrder), moneyCell(l.UnitPrice),
+				moneyCell(l.LineTotal), present.Text(l.Currency), present.Text(l.URL))
 		}
 		for _, m := range g.Subtotals {
-			rows = append(rows, []string{g.Supplier, "subtotal", "", "", "", "", "", "", money(&m.Amount), m.Currency, ""})
+			t.Add(present.Text(g.Supplier), present.Text("subtotal"), none, none, none, none, none, none,
+				present.Num(m.Amount, 2), present.Text(m.Currency), none)
 		}
 	}
 	for _, m := range r.Totals {
-		rows = append(rows, []string{"total", "", "", "", "", "", "", "", money(&m.Amount), m.Currency, ""})
+		t.Add(present.Text("total"), none, none, none, none, none, none, none, present.Num(m.Amount, 2), present.Text(m.Currency), none)
+	}
+	return t
+}
+
+func moneyCell(v *float64) present.Cell {
+	if v == nil {
+		return present.Cell{Text: present.Missing}
+	}
+	return present.Num(*v, 2)
+}
+
+// Rows are the request's table as text, empty where a value is missing.
+func (r Request) Rows() [][]string {
+	t := r.Table()
+	rows := make([][]string, len(t.Rows))
+	for i, row := range t.Rows {
+		rows[i] = make([]string, len(row))
+		for j, c := range row {
+			if c.Raw != nil {
+				rows[i][j] = c.Text
+			}
+		}
 	}
 	return rows
 }
@@ -69,25 +108,17 @@ func (r Request) Notes() [][2]string {
 // strict CSV reader takes it.
 func (r Request) WriteCSV(w io.Writer) error {
 	c := present.NewSafeCSV(w)
-	rows := append([][]string{RequestHeader}, r.Rows()...)
+	rows := append([][]string{RequestHeader()}, r.Rows()...)
 	rows = append(rows, nil)
 	for _, n := range r.Notes() {
 		rows = append(rows, n[:])
 	}
 	for _, row := range rows {
-		full := make([]string, len(RequestHeader))
+		full := make([]string, len(RequestHeader()))
 		copy(full, row)
 		if err := c.Write(full); err != nil {
 			return err
 		}
 	}
 	return c.Flush()
-}
-
-// money prints an amount with two decimals, "" when unknown.
-func money(v *float64) string {
-	if v == nil {
-		return ""
-	}
-	return strconv.FormatFloat(*v, 'f', 2, 64)
 }

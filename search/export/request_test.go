@@ -162,8 +162,8 @@ func TestRequestCSV(t *testing.T) {
 	}
 	notes := map[string]string{}
 	for _, r := range rows {
-		if len(r) != len(RequestHeader) {
-			t.Errorf("row %q has %d cells, want %d", r, len(r), len(RequestHeader))
+		if len(r) != len(RequestHeader()) {
+			t.Errorf("row %q has %d cells, want %d", r, len(r), len(RequestHeader()))
 		}
 		if _, ok := notes[r[0]]; !ok {
 			notes[r[0]] = r[1]
@@ -231,7 +231,7 @@ func TestRequestURLAndBuild(t *testing.T) {
 		t.Fatal(err)
 	}
 	rq.AddBuilds(sols)
-	url := slices.Index(RequestHeader, "url")
+	url := slices.Index(RequestHeader(), "url")
 	for _, r := range rq.Rows() {
 		if r[1] == "subtotal" || r[0] == "total" {
 			continue

@@ -14,11 +14,7 @@ import (
 // are there only when a result was traced, the edge spot and the focal
 // shift only when a field or a band was given.
 func Results(req search.Requirement, rs []search.Result) Table {
-	anyFails := false
-	for _, r := range rs {
-		anyFails = anyFails || !r.Meets
-	}
-	cols := resultColumns(req, rs, search.ShownQuality(rs), anyFails)
+	cols := resultColumns(req, rs, search.ShownQuality(rs))
 	t := Table{Columns: make([]Column, len(cols))}
 	for i, c := range cols {
 		t.Columns[i] = c.Column
@@ -39,27 +35,34 @@ type resultColumn struct {
 	cell func(search.Result) Cell
 }
 
-func resultColumns(req search.Requirement, rs []search.Result, qs search.QualityShown, anyFails bool) []resultColumn {
+func resultColumns(req search.Requirement, rs []search.Result, qs search.QualityShown) []resultColumn {
+	// The checks column only where some layout fails one, the error only
+	// where some layout is off target.
+	anyFails, anyOff := false, false
+	for _, r := range rs {
+		anyFails = anyFails || !r.Meets
+		anyOff = anyOff || Signed(r.ErrorPct) != "0"
+	}
 	focus, image, expand := req.Kind == search.Focus, req.Kind == search.Image, req.Kind == search.Expand
 	cols := []resultColumn{
-		{Column{Key: "rank", Label: "#"}, func(r search.Result) Cell { return Int(r.Rank) }},
-		{Column{Key: "parts", Label: "parts"}, func(r search.Result) Cell { return Text(PartsText(r.Parts)) }},
-		{Column{Key: "working_distance_mm", Label: "wd", Unit: "mm", Optional: !image},
+		{Column{Key: "rank", Keep: 9, Label: "#"}, func(r search.Result) Cell { return Int(r.Rank) }},
+		{Column{Key: "parts", Keep: 9, Label: "parts"}, func(r search.Result) Cell { return Text(PartsText(r.Parts)) }},
+		{Column{Key: "working_distance_mm", Keep: 6, Label: "wd", Unit: "mm", Optional: !image},
 			func(r search.Result) Cell { return OptNum(r.WorkingDistance, 2) }},
-		{Column{Key: "gap_mm", Label: "gap", Unit: "mm"}, func(r search.Result) Cell { return OptNum(r.Gap, 2) }},
-		{Column{Key: "back_clearance_mm", Label: "back", Unit: "mm", Optional: expand},
+		{Column{Key: "gap_mm", Keep: 6, Label: "gap", Unit: "mm"}, func(r search.Result) Cell { return OptNum(r.Gap, 2) }},
+		{Column{Key: "back_clearance_mm", Keep: 6, Label: "back", Unit: "mm", Optional: expand},
 			func(r search.Result) Cell { return OptNum(r.BackClearance, 2) }},
-		{Column{Key: "envelope_mm", Label: "envelope", Unit: "mm", Optional: !expand},
+		{Column{Key: "envelope_mm", Keep: 5, Label: "envelope", Unit: "mm", Optional: !expand},
 			func(r search.Result) Cell { return Num(r.Envelope, 2) }},
-		{Column{Key: "track_mm", Label: "track", Unit: "mm", Optional: !image},
+		{Column{Key: "track_mm", Keep: 6, Label: "track", Unit: "mm", Optional: !image},
 			func(r search.Result) Cell { return OptNum(r.Track, 2) }},
-		{Column{Key: "efl_mm", Label: "EFL", Unit: "mm", Optional: !focus}, func(r search.Result) Cell { return OptNum(r.EFL, 3) }},
-		{Column{Key: "magnification", Label: "mag", Optional: !image},
+		{Column{Key: "efl_mm", Keep: 8, Label: "EFL", Unit: "mm", Optional: !focus}, func(r search.Result) Cell { return OptNum(r.EFL, 3) }},
+		{Column{Key: "magnification", Keep: 8, Label: "mag", Optional: !image},
 			func(r search.Result) Cell { return OptNum(r.Magnification, 4) }},
-		{Column{Key: "expansion", Label: "expansion", Optional: !expand},
+		{Column{Key: "expansion", Keep: 8, Label: "expansion", Optional: !expand},
 			func(r search.Result) Cell { return OptNum(r.Expansion, 3) }},
-		{Column{Key: "form", Label: "form", Optional: !expand}, func(r search.Result) Cell { return Text(string(r.Form)) }},
-		{Column{Key: "error_pct", Label: "error", Unit: "%"}, func(r search.Result) Cell { return errorCell(r.ErrorPct) }},
+		{Column{Key: "form", Keep: 7, Label: "form", Optional: !expand}, func(r search.Result) Cell { return Text(string(r.Form)) }},
+		{Column{Key: "error_pct", Keep: 4, Label: "error", Unit: "%", Optional: !anyOff}, func(r search.Result) Cell { return errorCell(r.ErrorPct) }},
 	}
 	build := buildColumns(rs)
 	if len(build) > 0 {
@@ -69,13 +72,13 @@ func resultColumns(req search.Requirement, rs []search.Result, qs search.Quality
 	cols = append(cols, qualityColumns(qs)...)
 	cols = append(cols, build...)
 	cols = append(cols,
-		resultColumn{Column{Key: "failed_checks", Label: "checks", Optional: !anyFails}, checksCell},
-		resultColumn{Column{Key: "price", Label: "price", TextOnly: true}, priceCell})
+		resultColumn{Column{Key: "failed_checks", Keep: 7, Label: "checks", Optional: !anyFails}, checksCell},
+		resultColumn{Column{Key: "price", Keep: 7, Label: "price", TextOnly: true}, priceCell})
 	cols = append(cols, priceColumns(rs)...)
 	return append(cols,
 		resultColumn{Column{Key: "pieces_to_order", Label: "to order", Optional: true},
 			func(r search.Result) Cell { return Int(r.ToOrder) }},
-		resultColumn{Column{Key: "in_drawer", Label: "drawer"}, func(r search.Result) Cell { return Bool(r.InDrawer) }},
+		resultColumn{Column{Key: "in_drawer", Keep: 7, Label: "drawer"}, func(r search.Result) Cell { return Bool(r.InDrawer) }},
 		resultColumn{Column{Key: "score", Label: "score", Optional: true}, func(r search.Result) Cell { return Num(r.Score, 3) }},
 		resultColumn{Column{Key: "reason", Label: "why", Note: true}, func(r search.Result) Cell { return Text(r.Reason) }},
 	)
@@ -95,15 +98,15 @@ func qualityColumns(qs search.QualityShown) []resultColumn {
 		}
 	}
 	cols := []resultColumn{
-		{Column{Key: "rms_spot_um", Label: "spot", Unit: "µm"}, q(func(iq *search.ImageQuality) Cell { return Num(iq.RMSSpot, 1) })},
-		{Column{Key: "rms_spot_edge_um", Label: "edge spot", Unit: "µm", Optional: !qs.Edge},
+		{Column{Key: "rms_spot_um", Keep: 5, Label: "spot", Unit: "µm"}, q(func(iq *search.ImageQuality) Cell { return Num(iq.RMSSpot, 1) })},
+		{Column{Key: "rms_spot_edge_um", Keep: 5, Label: "edge spot", Unit: "µm", Optional: !qs.Edge},
 			q(func(iq *search.ImageQuality) Cell { return OptNum(iq.RMSSpotEdge, 1) })},
 		{Column{Key: "airy_radius_um", Label: "Airy", Unit: "µm", Optional: true}, q(func(iq *search.ImageQuality) Cell { return Num(iq.AiryRadius, 1) })},
 		{Column{Key: "wavefront_rms_waves", Label: "wavefront", Unit: "waves", Optional: true},
 			q(func(iq *search.ImageQuality) Cell { return Num(iq.WavefrontRMS, 3) })},
-		{Column{Key: "diffraction_limited", Label: "diffraction limited"},
+		{Column{Key: "diffraction_limited", Keep: 6, Label: "diffraction limited"},
 			q(func(iq *search.ImageQuality) Cell { return Bool(iq.DiffractionLimited) })},
-		{Column{Key: "focal_shift_um", Label: "focal shift", Unit: "µm", Optional: !qs.Colour},
+		{Column{Key: "focal_shift_um", Keep: 5, Label: "focal shift", Unit: "µm", Optional: !qs.Colour},
 			q(func(iq *search.ImageQuality) Cell { return OptNum(iq.FocalShift, 0) })},
 		{Column{Key: "best_focus_shift_mm", Label: "best focus", Unit: "mm", Optional: true},
 			q(func(iq *search.ImageQuality) Cell { return Num(iq.BestFocusShift, 3) })},
@@ -231,9 +234,9 @@ func buildColumns(rs []search.Result) []resultColumn {
 		}
 	}
 	return []resultColumn{
-		{Column{Key: "yield_pct", Label: "yield", Unit: "%"},
+		{Column{Key: "yield_pct", Keep: 5, Label: "yield", Unit: "%"},
 			b(func(f *search.BuildFigures) Cell { return Num(f.Yield, 0) })},
-		{Column{Key: "adjust_range_mm", Label: "adjust", Unit: "mm", TextOnly: true},
+		{Column{Key: "adjust_range_mm", Keep: 4, Label: "adjust", Unit: "mm", TextOnly: true},
 			b(func(f *search.BuildFigures) Cell { return Text(adjustText(f.AdjustLow, f.AdjustHigh)) })},
 		{Column{Key: "compensator", Label: "adjusts", Optional: true},
 			b(func(f *search.BuildFigures) Cell { return Text(string(f.Compensator)) })},

@@ -23,6 +23,9 @@ type Column struct {
 	// optional columns say the same for programs, one number each): CSV
 	// and JSON leave them out unless --columns names them.
 	TextOnly bool
+	// Keep orders the columns a terminal too narrow for the table leaves
+	// out: the lowest first, and of equals the rightmost.
+	Keep int
 	// Note marks a long text column (a reason, a description): on a
 	// terminal too narrow for it, it moves to a line under the table.
 	Note bool
@@ -47,6 +50,9 @@ type Cell struct {
 type Table struct {
 	Columns []Column
 	Rows    [][]Cell
+	// Label is the column whose cell names a row in the notes a narrow
+	// terminal moves under the table; the first column by default.
+	Label int
 }
 
 // Add appends a row; it panics when the row does not have one cell per
@@ -95,6 +101,9 @@ func (t Table) pick(idx []int) Table {
 	out := Table{Columns: make([]Column, len(idx)), Rows: make([][]Cell, len(t.Rows))}
 	for j, i := range idx {
 		out.Columns[j] = t.Columns[i]
+		if i == t.Label {
+			out.Label = j
+		}
 	}
 	for r, row := range t.Rows {
 		out.Rows[r] = make([]Cell, len(idx))

@@ -51,16 +51,21 @@ func WriteTerminal(w io.Writer, t Table, width int) (Fit, error) {
 	var notes []int
 	if width > 0 && lay.total() > width {
 		for i, c := range t.Columns {
-			if c.Note && i > 0 {
+			if c.Note && i != t.Label {
 				notes = append(notes, i)
 			}
 		}
 		lay.drop(notes)
 		lay.shrink(width)
 		for lay.total() > width && len(lay.cols) > 1 {
-			last := lay.cols[len(lay.cols)-1]
-			fit.Hidden = append([]string{t.Columns[last].Key}, fit.Hidden...)
-			lay.drop([]int{last})
+			least := lay.cols[len(lay.cols)-1]
+			for _, i := range lay.cols[1:] {
+				if t.Columns[i].Keep <= t.Columns[least].Keep {
+					least = i
+				}
+			}
+			fit.Hidden = append(fit.Hidden, t.Columns[least].Key)
+			lay.drop([]int{least})
 			lay.shrink(width)
 		}
 	}
@@ -102,7 +107,7 @@ func newLayout(t Table) *layout {
 func widths(s string) (whole, word int) {
 	for _, line := range strings.Split(s, "\n") {
 		whole = max(whole, runewidth.StringWidth(line))
-		for _, f := range strings.Fields(line) {
+		for _, f := range glue(strings.Fields(line)) {
 			word = max(word, runewidth.StringWidth(f))
 		}
 	}
@@ -202,14 +207,14 @@ func (l *layout) render(w io.Writer) error {
 func writeNotes(w io.Writer, t Table, notes []int, width int) error {
 	pad := 0
 	for _, row := range t.Rows {
-		pad = max(pad, runewidth.StringWidth(row[0].Text))
+		pad = max(pad, runewidth.StringWidth(row[t.Label].Text))
 	}
 	for _, row := range t.Rows {
 		for _, i := range notes {
 			if row[i].Text == Missing || row[i].Text == "" {
 				continue
 			}
-			label := fmt.Sprintf("%*s %s: ", pad, row[0].Text, t.Columns[i].Label)
+			label := fmt.Sprintf("%*s %s: ", pad, row[t.Label].Text, t.Columns[i].Label)
 			indent := strings.Repeat(" ", runewidth.StringWidth(label))
 			text := Wrap(row[i].Text, max(width-len(indent), 20))
 			if _, err := fmt.Fprintf(w, "%s%s\n", label, strings.ReplaceAll(text, "\n", "\n"+indent)); err != nil {
@@ -246,13 +251,13 @@ func Wrap(s string, width int) string {
 	return strings.Join(out, "\n")
 }
 
-// glue keeps a lone "+" (between the parts of a pair) with the word before
-// it, so that a line never starts with it.
+// glue keeps a lone "+" (between the parts of a pair) and "(reversed)"
+// with the word before them, so that a line never starts with either.
 func glue(words []string) []string {
 	var out []string
 	for _, w := range words {
-		if w == "+" && len(out) > 0 {
-			out[len(out)-1] += " +"
+		if (w == "+" || w == "(reversed)") && len(out) > 0 {
+			out[len(out)-1] += " " + w
 			continue
 		}
 		out = append(out, w)
