@@ -10,8 +10,9 @@ import (
 )
 
 // readmeCommands are the cardinal command lines of the README's examples
-// (lines of its code blocks that start with "cardinal " or "go run
-// ./cmd/cardinal "), without comments, in order.
+// (lines of its code blocks that start with "cardinal ", "./cardinal " or
+// "go run ./cmd/cardinal ", continued over lines ending in a backslash),
+// without comments, in order.
 func readmeCommands(t *testing.T) [][]string {
 	t.Helper()
 	f, err := os.Open("../../README.md")
@@ -24,6 +25,9 @@ func readmeCommands(t *testing.T) [][]string {
 	sc := bufio.NewScanner(f)
 	for sc.Scan() {
 		line := strings.TrimSpace(sc.Text())
+		for strings.HasSuffix(line, "\\") && sc.Scan() { // a command continued on the next line
+			line = strings.TrimSuffix(line, "\\") + " " + strings.TrimSpace(sc.Text())
+		}
 		if strings.HasPrefix(line, "```") {
 			in = !in
 			continue
@@ -32,11 +36,16 @@ func readmeCommands(t *testing.T) [][]string {
 			continue
 		}
 		line, _, _ = strings.Cut(line, " #")
-		line = strings.TrimPrefix(line, "go run ./cmd/cardinal ")
-		line = strings.TrimPrefix(line, "cardinal ")
-		if line == strings.TrimSpace(sc.Text()) || strings.ContainsAny(line, "|>$<") {
+		var args string
+		for _, prefix := range []string{"cardinal ", "./cardinal ", "go run ./cmd/cardinal "} {
+			if rest, ok := strings.CutPrefix(line, prefix); ok {
+				args = rest
+			}
+		}
+		if args == "" || strings.ContainsAny(args, "|>$<") {
 			continue // not a cardinal command, or one that needs a shell
 		}
+		line = args
 		cmds = append(cmds, strings.Fields(line))
 	}
 	return cmds
