@@ -80,6 +80,8 @@ var reportFuncs = template.FuncMap{
 	"rmsAt":    rmsAt,
 	"timefmt":  func(t time.Time) string { return t.UTC().Format("2006-01-02 15:04 UTC") },
 	"imageRow": func(sp Spots) bool { return !sp.Angular },
+	"swatch":   func(nm float64) template.CSS { return template.CSS("background:" + hexColour(WavelengthColour(nm))) },
+	"wlname":   WavelengthName,
 }
 
 var reportTmpl = template.Must(template.New("report").Funcs(reportFuncs).Parse(reportTemplate))

@@ -50,6 +50,13 @@ func TestReportReadable(t *testing.T) {
 	if !strings.Contains(page, `id="field-note"`) || !strings.Contains(page, "the same for all") {
 		t.Error("the report does not say which field all its picks use")
 	}
+	// The figures' wavelength columns carry the colour the plots and the
+	// drawings give each wavelength.
+	for _, wl := range DefaultWavelengths(sols[0]) {
+		if want := `style="background:` + hexColour(WavelengthColour(wl)) + `"`; !strings.Contains(page, want) {
+			t.Errorf("no swatch %s for %g nm", want, wl)
+		}
+	}
 }
 
 // The figure labels carry units, and keys the report does not know yet
