@@ -48,8 +48,11 @@ type Quality struct {
 	AiryRadius     float64
 	// Wavefront is the on-axis RMS wavefront error against the best
 	// reference sphere (tilt and defocus removed).
-	Wavefront          Wavefront
-	DiffractionLimited bool // Wavefront.RMS <= MarechalRMS
+	Wavefront Wavefront
+	// Verdict judges every field point at every band wavelength on one
+	// common image plane; DiffractionLimited is Verdict.Limited.
+	Verdict            Verdict
+	DiffractionLimited bool
 	Colour             Chromatic
 	// Seidel holds the third-order sums at the reference wavelength, with
 	// colour between the band's shortest and longest wavelengths.
@@ -77,12 +80,18 @@ func (s System) Assess(c Conditions) (Quality, error) {
 		}
 		q.ImageZ = z
 	}
-	if err := q.axis(s, c, wl); err != nil {
+	axis, err := q.axis(s, c, wl)
+	if err != nil {
 		return Quality{}, err
 	}
-	if err := q.edge(s, c, wl); err != nil {
+	edge, err := q.edge(s, c, wl)
+	if err != nil {
 		return Quality{}, err
 	}
+	if q.Verdict, err = s.verdict(c, wl, axis, edge, q.Wavefront); err != nil {
+		return Quality{}, err
+	}
+	q.DiffractionLimited = q.Verdict.Limited
 	return q, q.colour(s, c, wl)
 }
 
@@ -93,47 +102,47 @@ func rings(c Conditions) int {
 	return 12
 }
 
-// axis fills the on-axis figures.
-func (q *Quality) axis(s System, c Conditions, wl float64) error {
+// axis fills the on-axis figures and returns the traced bundle.
+func (q *Quality) axis(s System, c Conditions, wl float64) (Traced, error) {
 	b, err := s.Bundle(c.Object, 0, wl, Hexapolar(rings(c)))
 	if err != nil {
-		return err
+		return Traced{}, err
 	}
 	tr := s.Tracer(wl).TraceBundle(b, q.ImageZ)
 	q.noteLost("on axis", tr)
 	q.AxisAtImage, q.Axis = tr.SpotAt(q.ImageZ), tr.BestFocus()
 	if q.Axis.Passed == 0 {
-		return errors.New("no ray on axis reaches the image")
+		return Traced{}, errors.New("no ray on axis reaches the image")
 	}
 	q.BestFocusShift = q.Axis.Z - q.ImageZ
 	if q.Focus, err = s.MarginalFocus(c.Object, wl); err != nil {
-		return err
+		return Traced{}, err
 	}
 	q.AiryRadius = AiryRadius(wl, q.Focus.NA)
 	centre := Vec3{X: q.Axis.CentroidX, Y: q.Axis.CentroidY, Z: tr.Tracer.LastVertex() + q.Axis.Z}
 	if q.Wavefront, err = tr.BestWavefront(centre); err != nil {
-		return err
+		return Traced{}, err
 	}
-	q.DiffractionLimited = q.Wavefront.DiffractionLimited()
-	return nil
+	return tr, nil
 }
 
-// edge fills the field-edge spot on the on-axis best-focus plane.
-func (q *Quality) edge(s System, c Conditions, wl float64) error {
+// edge fills the field-edge spot on the on-axis best-focus plane and
+// returns the traced bundle; nil without a field.
+func (q *Quality) edge(s System, c Conditions, wl float64) (*Traced, error) {
 	if c.Field == 0 {
-		return nil
+		return nil, nil
 	}
 	b, err := s.Bundle(c.Object, c.Field, wl, Hexapolar(rings(c)))
 	if err != nil {
-		return err
+		return nil, err
 	}
 	tr := s.Tracer(wl).TraceBundle(b, q.ImageZ)
 	q.noteLost("at the field edge", tr)
 	q.Edge = tr.SpotAt(q.Axis.Z)
 	if q.Edge.Passed == 0 {
-		return errors.New("no ray from the field edge reaches the image")
+		return nil, errors.New("no ray from the field edge reaches the image")
 	}
-	return nil
+	return &tr, nil
 }
 
 // colour fills the band figures and the Seidel sums.

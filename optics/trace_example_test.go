@@ -67,13 +67,15 @@ func ExampleSystem_Assess() {
 	}
 	fmt.Printf("RMS spot on axis %.1f um at best focus, %.3f mm from the paraxial image\n", q.Axis.RMS*1000, q.BestFocusShift)
 	fmt.Printf("RMS spot at the field edge %.1f um\n", q.Edge.RMS*1000)
-	fmt.Printf("Airy radius %.1f um, wavefront %.3f waves RMS, diffraction limited: %v\n", q.AiryRadius*1000, q.Wavefront.RMS, q.DiffractionLimited)
+	fmt.Printf("Airy radius %.1f um, wavefront %.3f waves RMS on axis at best focus\n", q.AiryRadius*1000, q.Wavefront.RMS)
 	fmt.Printf("focal shift over the band %.3f mm\n", q.Colour.FocalShift)
+	fmt.Printf("diffraction limited over the field and band: %s (worst %.2f waves RMS)\n", q.Verdict.Why, q.Verdict.Worst)
 	// Output:
 	// RMS spot on axis 2.3 um at best focus, -0.182 mm from the paraxial image
 	// RMS spot at the field edge 6.6 um
-	// Airy radius 7.1 um, wavefront 0.022 waves RMS, diffraction limited: true
+	// Airy radius 7.1 um, wavefront 0.022 waves RMS on axis at best focus
 	// focal shift over the band 1.534 mm
+	// diffraction limited over the field and band: no: colour (worst 0.54 waves RMS)
 }
 
 // The entrance pupil of a lens with its stop 20 mm behind it.

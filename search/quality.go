@@ -5,6 +5,7 @@ import (
 	"math"
 	"runtime"
 	"sort"
+	"strings"
 	"sync"
 
 	"cardinal/optics"
@@ -24,9 +25,28 @@ type ImageQuality struct {
 	// WavefrontRMS is the on-axis RMS wavefront error against the best
 	// reference sphere, waves.
 	WavefrontRMS float64 `json:"wavefront_rms_waves"`
-	// DiffractionLimited is WavefrontRMS <= 0.07 waves (Marechal's
-	// criterion, common practice; optics.MarechalRMS).
+	// DiffractionLimited is true when every field point judged (the axis,
+	// and the field edge when given) at every wavelength judged (the
+	// requirement's and each of the band's) has an RMS wavefront error of
+	// 0.07 waves or less (Marechal's criterion, common practice;
+	// optics.MarechalRMS) on one image plane shared by all of them: the
+	// plane that makes the worst of them least (optics.Verdict).
 	DiffractionLimited bool `json:"diffraction_limited"`
+	// DiffractionLimitedWhy says which fails first: "yes", "no: on axis"
+	// (the axis at the requirement's wavelength, even at its own best
+	// focus), "no: field edge" (axis and edge at that wavelength share no
+	// plane within the criterion), "no: colour" (the band's wavelengths
+	// do not).
+	DiffractionLimitedWhy string `json:"diffraction_limited_why"`
+	// WavefrontWorst is the largest RMS wavefront error, waves, over every
+	// field point and wavelength on the common plane, and VerdictPlane
+	// that plane from the image plane, mm, positive away from the lens.
+	WavefrontWorst float64 `json:"wavefront_worst_rms_waves"`
+	VerdictPlane   float64 `json:"verdict_plane_mm"`
+	// WavefrontBand is the RMS wavefront error at each wavelength judged,
+	// the worse of the field points, on the common plane; only with a
+	// band.
+	WavefrontBand []BandWavefront `json:"wavefront_band,omitempty"`
 	// FocalShift is the spread of the paraxial focus over the band, um;
 	// nil without a band of two or more wavelengths.
 	FocalShift *float64 `json:"focal_shift_um,omitempty"`
@@ -41,7 +61,11 @@ type ImageQuality struct {
 // wavelengths.
 func NewImageQuality(q optics.Quality, field bool, band []float64) ImageQuality {
 	iq := ImageQuality{RMSSpot: 1000 * q.Axis.RMS, AiryRadius: 1000 * q.AiryRadius,
-		WavefrontRMS: q.Wavefront.RMS, DiffractionLimited: q.DiffractionLimited, BestFocusShift: q.BestFocusShift}
+		WavefrontRMS: q.Wavefront.RMS, DiffractionLimited: q.DiffractionLimited, BestFocusShift: q.BestFocusShift,
+		DiffractionLimitedWhy: q.Verdict.Why, WavefrontWorst: q.Verdict.Worst, VerdictPlane: q.Verdict.PlaneZ - q.ImageZ}
+	if len(band) > 0 {
+		iq.WavefrontBand = bandWavefronts(q.Verdict.Judged)
+	}
 	if field {
 		iq.RMSSpotEdge = ptr(1000 * q.Edge.RMS)
 	}
@@ -49,6 +73,30 @@ func NewImageQuality(q optics.Quality, field bool, band []float64) ImageQuality 
 		iq.FocalShift = ptr(1000 * q.Colour.FocalShift)
 	}
 	return iq
+}
+
+// BandWavefront is the RMS wavefront error at one wavelength, the worse of
+// the field points judged, on the verdict's common plane.
+type BandWavefront struct {
+	Wavelength float64 `json:"wavelength_nm"`
+	RMS        float64 `json:"rms_waves"`
+}
+
+// bandWavefronts takes the worse field point of each wavelength, in the
+// order judged.
+func bandWavefronts(js []optics.Judged) []BandWavefront {
+	var out []BandWavefront
+	at := map[float64]int{}
+	for _, j := range js {
+		k, ok := at[j.Wavelength]
+		if !ok {
+			at[j.Wavelength] = len(out)
+			out = append(out, BandWavefront{Wavelength: j.Wavelength, RMS: j.RMS})
+			continue
+		}
+		out[k].RMS = math.Max(out[k].RMS, j.RMS)
+	}
+	return out
 }
 
 // ColourBlur is the RMS blur radius, um, that the focal shift over the
@@ -252,7 +300,7 @@ func (j judgement) apply(r *Result, w Weights) {
 	case j.q.DiffractionLimited:
 		r.Reason += ", diffraction limited"
 	default:
-		r.Reason += fmt.Sprintf(", spot %.2gx Airy", worst/j.q.AiryRadius)
+		r.Reason += fmt.Sprintf(", spot %.2gx Airy, not diffraction limited (%s)", worst/j.q.AiryRadius, strings.TrimPrefix(j.q.DiffractionLimitedWhy, "no: "))
 	}
 }
 
@@ -279,9 +327,12 @@ func qualityNotes(req Requirement, traced, met int, js []judgement) []string {
 	if traced < met {
 		n = append(n, fmt.Sprintf("the next %d layouts that meet were not traced (at most %d are): they rank after the traced ones, on first order only", met-traced, maxTraced))
 	}
-	if len(req.Band) < 2 {
+	if req.IsLaser() && len(req.Band) == 0 {
+		n = append(n, fmt.Sprintf("a laser is one wavelength: spots and the verdict use %s nm alone (give --band to judge more)", formatG(req.Lambda())))
+	} else if len(req.Band) < 2 {
 		n = append(n, "no colour figure: the wavelength alone gives none; give --band (e.g. 486.1,587.6,656.3) for the focal shift")
 	}
+	n = append(n, "diffraction limited: every field point at every wavelength judged within 0.07 waves RMS on one image plane shared by all, the one that makes the worst least")
 	for k, j := range js {
 		if j.err != nil {
 			n = append(n, fmt.Sprintf("result %d: real rays not traced: %v", k+1, j.err))

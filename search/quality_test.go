@@ -330,7 +330,7 @@ func TestResultJSONRoundTrip(t *testing.T) {
 	}
 }
 
-// Laser means a power given or a wavelength outside 400-700 nm (issue 6;
+// A laser is the laser switch, a power given or a wavelength outside 400-700 nm (issue 6;
 // the visible band as common practice), not a beam alone.
 func TestLaser(t *testing.T) {
 	tests := []struct {
@@ -340,14 +340,15 @@ func TestLaser(t *testing.T) {
 	}{
 		{"visible beam", Requirement{Kind: Focus, Beam: 3, Wavelength: 632.8}, false},
 		{"power", Requirement{Kind: Focus, Beam: 3, Power: 0.005, Wavelength: 632.8}, true},
+		{"laser switch in the visible", Requirement{Kind: Focus, Beam: 3, Laser: true, Wavelength: 632.8}, true},
 		{"infrared", Requirement{Kind: Focus, Wavelength: 1064}, true},
 		{"ultraviolet", Requirement{Kind: Image, Wavelength: 355}, true},
 		{"d line by default", Requirement{Kind: Image}, false},
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
-			if got := tt.req.Laser(); got != tt.want {
-				t.Errorf("Laser() = %v, want %v", got, tt.want)
+			if got := tt.req.IsLaser(); got != tt.want {
+				t.Errorf("IsLaser() = %v, want %v", got, tt.want)
 			}
 		})
 	}

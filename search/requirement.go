@@ -90,6 +90,10 @@ type Requirement struct {
 	FieldAngle float64   `json:"field_angle_deg,omitempty"` // focus: field edge for the real-ray figures, degrees
 	Band       []float64 `json:"band_nm,omitempty"`         // wavelengths of the colour figures, nm; none: no colour figure
 	Power      float64   `json:"power_w,omitempty"`         // laser power, W: brings the laser cautions
+	// Laser says the light is a laser even in the visible without a power
+	// (see IsLaser): one wavelength in plots, spots and verdicts unless a
+	// band is given, and the laser cautions.
+	Laser bool `json:"laser,omitempty"`
 
 	// Build says how every ranked result is simulated as built (build.go).
 	Build BuildSettings `json:"build,omitzero"`
@@ -188,11 +192,14 @@ func (r Requirement) ChecksAperture() bool {
 	return r.Beam > 0 || r.NA > 0 || r.ObjectHeight > 0
 }
 
-// Laser tells whether the requirement mentions a laser: a power given, or
-// a wavelength outside the visible 400-700 nm (common practice).
-func (r Requirement) Laser() bool {
+// IsLaser tells whether the requirement names a laser: the laser switch, a
+// power given, or a wavelength outside the visible 400-700 nm (common
+// practice). A laser is one wavelength: plots, spots and the
+// diffraction-limited verdict use the requirement's wavelength alone
+// unless a band is given.
+func (r Requirement) IsLaser() bool {
 	l := r.Lambda()
-	return r.Power > 0 || l < 400 || l > 700
+	return r.Laser || r.Power > 0 || l < 400 || l > 700
 }
 
 // Validate rejects impossible or contradictory requirements before any

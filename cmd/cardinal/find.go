@@ -29,7 +29,7 @@ type findOptions struct {
 	LengthMax, DiameterMax, GapMin float64
 	Elements, Top                  int
 	Supplier, Prefer, Spec         string
-	DrawerOnly                     bool
+	DrawerOnly, Laser              bool
 	FieldAngle, Power              float64
 	Band                           []float64
 
@@ -69,8 +69,14 @@ layouts (3 x --top, at least 30) are traced with real rays at the wavelength
 and ranked by image quality too: RMS spot at best focus on axis and at the
 field edge (--field-angle, --object-height) against the Airy radius, and the
 focal shift over --band. Each row shows the spot, the Airy radius and whether
-the wavefront is diffraction limited (0.07 waves RMS, Marechal). Expanders
-are ranked on first order only.`,
+the image is diffraction limited (0.07 waves RMS, Marechal) at every field
+point and every wavelength judged, on one image plane shared by all (the one
+that makes the worst least): yes, or which fails first: "no: on axis", "no:
+field edge" or "no: colour". Expanders are ranked on first order only.
+
+A laser (--laser, --power, or a wavelength outside 400-700 nm) is one
+wavelength: the verdict, and the spots and plots of draw and report, use it
+alone unless --band asks for more.`,
 		Example: `  cardinal find --efl 75 --efl-tol 1% --beam 6 --back-clearance-min 40 --wavelength 1064
   cardinal find --track 300 --mag -0.36 --mag-tol 2% --object-height 5 --na 0.02 --working-distance-min 60 --back-clearance-min 15
   cardinal find --expand 5 --expand-tol 2% --beam 2 --galilean --envelope-max 150
@@ -93,6 +99,7 @@ are ranked on first order only.`,
 	f.Float64Var(&opts.BFDMin, "back-clearance-min", 0, "least back clearance, last vertex to the focal or image plane, mm")
 	f.Float64Var(&opts.Wavelength, "wavelength", 587.5618, "wavelength, nm")
 	f.Float64Var(&opts.Power, "power", 0, "laser power, W (brings the laser cautions)")
+	f.BoolVar(&opts.Laser, "laser", false, "the light is a laser (also in the visible without --power): one wavelength in spots, plots and verdicts unless --band, and the laser cautions")
 	f.Float64Var(&opts.FieldAngle, "field-angle", 0, "focus: field edge for the real-ray spot, degrees")
 	f.Float64SliceVar(&opts.Band, "band", nil, "wavelengths for the focal shift, nm, e.g. 486.1,587.6,656.3; none gives no colour figure")
 	f.Float64Var(&opts.Track, "track", 0, "image: object plane to image plane, mm")
@@ -223,6 +230,9 @@ func (o *findOptions) applyRest(req *search.Requirement, set func(string) bool) 
 	}
 	if set("band") {
 		req.Band = o.Band
+	}
+	if set("laser") {
+		req.Laser = o.Laser
 	}
 	switch {
 	case o.Galilean && o.Keplerian:

@@ -165,6 +165,8 @@ func TestRunFind(t *testing.T) {
 			nil, []string{"none meets every constraint", "longer than the length maximum", "nearest misses", "fails gap,"}, nil},
 		{"ultraviolet is a laser wavelength", []string{"--efl", "100", "--efl-tol", "3%", "--wavelength", "355"}, 0,
 			nil, []string{"laser safety officer"}, nil},
+		{"--laser in the visible: one wavelength and the cautions", []string{"--efl", "100", "--efl-tol", "3%", "--wavelength", "632.8", "--beam", "4", "--laser"}, 0,
+			nil, []string{"laser safety officer", "a laser is one wavelength: spots and the verdict use 632.8 nm alone"}, []string{"no colour figure"}},
 		{"no part strong enough", []string{"--track", "20", "--mag", "-1", "--elements", "1"}, exitNoResult,
 			nil, []string{"no part is strong enough for a 20 mm track"}, nil},
 		{"no aperture: quality not judged, in one line", []string{"--efl", "75"}, 0,
@@ -283,7 +285,8 @@ func TestFindQualityJSON(t *testing.T) {
 				t.Fatalf("%d results", len(doc.Results))
 			}
 			for i, r := range doc.Results {
-				for _, k := range []string{"rms_spot_um", "airy_radius_um", "wavefront_rms_waves", "diffraction_limited", "best_focus_shift_mm"} {
+				for _, k := range []string{"rms_spot_um", "airy_radius_um", "wavefront_rms_waves", "diffraction_limited", "best_focus_shift_mm",
+					"diffraction_limited_why", "wavefront_worst_rms_waves", "verdict_plane_mm"} {
 					if _, ok := r[k]; !ok {
 						t.Fatalf("result %d lacks %q: %v", i+1, k, r)
 					}
@@ -293,8 +296,8 @@ func TestFindQualityJSON(t *testing.T) {
 				if edge != tc.edge || shift != tc.shift {
 					t.Errorf("result %d: edge spot %v (want %v), focal shift %v (want %v)", i+1, edge, tc.edge, shift, tc.shift)
 				}
-				if r["diffraction_limited"] != (r["wavefront_rms_waves"].(float64) <= 0.07) {
-					t.Errorf("result %d: %v waves RMS, diffraction limited %v", i+1, r["wavefront_rms_waves"], r["diffraction_limited"])
+				if msg := verdictProblem(r); msg != "" {
+					t.Errorf("result %d: %s", i+1, msg)
 				}
 				if i > 0 && r["score"].(float64) < doc.Results[i-1]["score"].(float64) {
 					t.Errorf("result %d scores below result %d", i+1, i)

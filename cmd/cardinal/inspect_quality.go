@@ -152,7 +152,7 @@ func num(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
 // qualityKeys are the JSON keys of the real-ray figures, the CSV columns
 // too.
 var qualityKeys = []string{"rms_spot_um", "rms_spot_edge_um", "airy_radius_um", "wavefront_rms_waves",
-	"diffraction_limited", "focal_shift_um", "best_focus_shift_mm"}
+	"diffraction_limited", "focal_shift_um", "best_focus_shift_mm", "diffraction_limited_why", "wavefront_worst_rms_waves"}
 
 // qualityCells are the cells of qualityKeys, missing where a figure does
 // not apply or the part was not traced.
@@ -166,6 +166,7 @@ func qualityCells(q *search.ImageQuality) []present.Cell {
 	}
 	c[0], c[1], c[2], c[3] = present.Num(q.RMSSpot, 2), present.OptNum(q.RMSSpotEdge, 2), present.Num(q.AiryRadius, 2), present.Num(q.WavefrontRMS, 4)
 	c[4], c[5], c[6] = present.Bool(q.DiffractionLimited), present.OptNum(q.FocalShift, 1), present.Num(q.BestFocusShift, 3)
+	c[7], c[8] = present.Text(q.DiffractionLimitedWhy), present.Num(q.WavefrontWorst, 4)
 	return c
 }
 
@@ -186,7 +187,7 @@ func qualityRows(r inspection) [][]string {
 	rows = append(rows,
 		[]string{"Airy radius, 1.22 lambda / (2 NA')", present.Fixed(q.AiryRadius, 2), "um"},
 		[]string{"wavefront error, RMS", present.Fixed(q.WavefrontRMS, 4), "waves"},
-		[]string{"diffraction limited", present.Bool(q.DiffractionLimited).Text, "Marechal: 0.07 waves RMS or less"})
+		[]string{"diffraction limited", present.Limited(q).Text, "Marechal: 0.07 waves RMS or less at every field point and wavelength, one shared plane"})
 	if q.FocalShift != nil {
 		rows = append(rows, []string{"focal shift over the band", present.Fixed(*q.FocalShift, 1), "um"})
 	} else {

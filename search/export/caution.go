@@ -15,13 +15,13 @@ var LaserCautions = []string{
 const KeplerianCaution = "A Keplerian expander brings the beam to a focus between its parts: mind the damage threshold and air breakdown there."
 
 // Cautions returns the cautions for a requirement: the laser cautions when
-// it mentions a laser (search.Requirement.Laser: a power given, or a
+// it mentions a laser (search.Requirement.IsLaser: a power given, or a
 // wavelength outside 400-700 nm), and the internal-focus caution for an
 // expander that may be Keplerian. A requirement with no laser gets none.
 // These are the program's one text of the laser cautions: every command
 // prints them from here.
 func Cautions(r search.Requirement) []string {
-	if !r.Laser() {
+	if !r.IsLaser() {
 		return nil
 	}
 	c := append([]string(nil), LaserCautions...)

@@ -49,6 +49,8 @@ func DescribeRequirement(r search.Requirement) string {
 	}
 	if r.Power != 0 {
 		add("laser power %s W", num(r.Power))
+	} else if r.Laser {
+		add("laser")
 	}
 	if r.Prefer != search.Balanced {
 		add("prefer %s", r.Prefer)

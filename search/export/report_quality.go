@@ -32,10 +32,16 @@ func airyText(r search.Result) string {
 	return fmt.Sprintf("%.1f", r.AiryRadius)
 }
 
-// limitedText is the Marechal verdict, yes or no.
+// limitedText is the Marechal verdict over every field point and
+// wavelength judged: yes, or which fails first (no: on axis, no: field
+// edge, no: colour); yes or no for a result saved before the verdict said
+// why.
 func limitedText(r search.Result) string {
 	if r.ImageQuality == nil {
 		return "–"
+	}
+	if r.DiffractionLimitedWhy != "" {
+		return r.DiffractionLimitedWhy
 	}
 	return yesNo(r.DiffractionLimited)
 }
@@ -123,7 +129,7 @@ func qualityFigures(r search.Result) []figureRow {
 	for _, k := range rest {
 		rows = append(rows, figureRow{keyLabel(k), figure(r.Quality[k])})
 	}
-	return append(rows, figureRow{"diffraction limited (at most 0.07 waves RMS, Maréchal's criterion)", yesNo(r.DiffractionLimited)})
+	return append(rows, figureRow{"diffraction limited (at most 0.07 waves RMS, Maréchal's criterion, at every field point and wavelength on one shared plane)", limitedText(r)})
 }
 
 // keyLabel turns a snake_case key with a unit suffix into words with the
@@ -184,7 +190,7 @@ func commonField(picks []Solution, d DrawOptions, p PlotOptions) (DrawOptions, P
 	if f, given := DefaultField(s, 0); given {
 		return d, p, "Every drawing and spot diagram below is for " + fieldText(atInfinity, f) + ", the requirement's field."
 	}
-	if s.Requirement.Laser() {
+	if s.Requirement.IsLaser() {
 		return d, p, "The requirement is a laser beam with no field: the drawings show the beam's envelope and the spot diagrams are on axis."
 	}
 	f := math.Inf(1)

@@ -146,8 +146,11 @@ func TestReportRankedTableQuality(t *testing.T) {
 		}
 		want := map[string]string{
 			"RMS spot radius (µm), axis / edge": fmt.Sprintf("%.1f / %.1f", q.RMSSpot, *q.RMSSpotEdge),
-			"diffraction limited":               map[bool]string{true: "yes", false: "no"}[q.DiffractionLimited],
+			"diffraction limited":               q.DiffractionLimitedWhy,
 			"focal shift (µm)":                  fmt.Sprintf("%.0f", *q.FocalShift),
+		}
+		if q.DiffractionLimited != (q.DiffractionLimitedWhy == "yes") || q.DiffractionLimitedWhy == "" {
+			t.Errorf("result %d: diffraction limited %v, why %q", r.Rank, q.DiffractionLimited, q.DiffractionLimitedWhy)
 		}
 		for h, w := range want {
 			if got := rows[i][col[h]]; got != w {

@@ -92,11 +92,11 @@ func NewScene(s Solution, o DrawOptions) (Scene, error) {
 	}
 	sc.Field, sc.FieldGiven = DefaultField(s, o.Field)
 	sc.FieldGiven = sc.FieldGiven && !o.Illustrative
-	sc.Beam = !sc.FieldGiven && s.Requirement.Laser()
+	sc.Beam = !sc.FieldGiven && s.Requirement.IsLaser()
 	if err := sc.trace(sys); err != nil {
 		return Scene{}, err
 	}
-	if s.Requirement.Laser() {
+	if s.Requirement.IsLaser() {
 		sc.Envelope = sc.beamEnvelope()
 	}
 	sc.bounds()

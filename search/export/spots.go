@@ -92,7 +92,7 @@ func DefaultWavelengths(s Solution) []float64 {
 			}
 		}
 		return out
-	case s.Requirement.Laser():
+	case s.Requirement.IsLaser():
 		return []float64{wl}
 	}
 	return []float64{wl, optics.LineF, optics.LineC}
@@ -124,7 +124,7 @@ func NewSpots(s Solution, o PlotOptions) (Spots, error) {
 	}
 	edge, given := DefaultField(s, o.Field)
 	sp := Spots{Angular: s.Afocal(), AtInfinity: math.IsInf(s.ObjectZ, -1), ImageZ: s.ImageZ, Wavelengths: wls, Fields: []float64{0, 0.7 * edge, edge}}
-	if !given && s.Requirement.Laser() { // a laser beam with no field: on axis only, no invented field
+	if !given && s.Requirement.IsLaser() { // a laser beam with no field: on axis only, no invented field
 		sp.Fields = sp.Fields[:1]
 	}
 	sys := s.System()

@@ -137,6 +137,8 @@ func TestDefaultWavelengths(t *testing.T) {
 	}{
 		{"visible, no laser", search.Requirement{Kind: search.Image}, []float64{optics.LineD, optics.LineF, optics.LineC}},
 		{"laser", search.Requirement{Kind: search.Focus, Beam: 2, Power: 0.1}, []float64{optics.LineD}},
+		{"visible laser by the switch", search.Requirement{Kind: search.Expand, Beam: 2, Wavelength: 632.8, Laser: true}, []float64{632.8}},
+		{"visible, the switch not given", search.Requirement{Kind: search.Expand, Beam: 2, Wavelength: 632.8}, []float64{632.8, optics.LineF, optics.LineC}},
 		{"band holding the reference", search.Requirement{Kind: search.Focus, Band: []float64{486.1, 587.6, 656.3}}, []float64{optics.LineD, 486.1, 656.3}},
 		{"laser with a band", search.Requirement{Kind: search.Focus, Wavelength: 1064, Power: 1, Band: []float64{1030, 1064, 1090}}, []float64{1064, 1030, 1090}},
 	} {

@@ -105,13 +105,29 @@ func qualityColumns(qs search.QualityShown) []resultColumn {
 		{Column{Key: "wavefront_rms_waves", Label: "wavefront", Unit: "waves", Optional: true},
 			q(func(iq *search.ImageQuality) Cell { return Num(iq.WavefrontRMS, 3) })},
 		{Column{Key: "diffraction_limited", Keep: 6, Label: "diffraction limited"},
-			q(func(iq *search.ImageQuality) Cell { return Bool(iq.DiffractionLimited) })},
+			q(Limited)},
+		{Column{Key: "diffraction_limited_why", Label: "limited by", Optional: true},
+			q(func(iq *search.ImageQuality) Cell { return Text(iq.DiffractionLimitedWhy) })},
+		{Column{Key: "wavefront_worst_rms_waves", Label: "worst wavefront", Unit: "waves", Optional: true},
+			q(func(iq *search.ImageQuality) Cell { return Num(iq.WavefrontWorst, 3) })},
 		{Column{Key: "focal_shift_um", Keep: 5, Label: "focal shift", Unit: "µm", Optional: !qs.Colour},
 			q(func(iq *search.ImageQuality) Cell { return OptNum(iq.FocalShift, 0) })},
 		{Column{Key: "best_focus_shift_mm", Label: "best focus", Unit: "mm", Optional: true},
 			q(func(iq *search.ImageQuality) Cell { return Num(iq.BestFocusShift, 3) })},
 	}
 	return cols
+}
+
+// Limited is the diffraction-limited verdict over every field point and
+// wavelength judged: the text yes, or which fails first (no: on axis, no:
+// field edge, no: colour), the raw value the boolean; yes or no for a
+// result saved before the verdict said why.
+func Limited(q *search.ImageQuality) Cell {
+	c := Bool(q.DiffractionLimited)
+	if q.DiffractionLimitedWhy != "" {
+		c.Text = q.DiffractionLimitedWhy
+	}
+	return c
 }
 
 // PartsText names the parts in light order, "(reversed)" after a part

@@ -1,0 +1,178 @@
+package optics
+
+import "math"
+
+// The words of a diffraction-limited verdict: yes, or the first of the
+// checks below that fails.
+const (
+	LimitedYes       = "yes"
+	LimitedOnAxis    = "no: on axis"
+	LimitedFieldEdge = "no: field edge"
+	LimitedColour    = "no: colour"
+)
+
+// A Judged is one field point at one wavelength on the verdict's common
+// image plane.
+type Judged struct {
+	Edge       bool    // the field edge; false on axis
+	Wavelength float64 // nm
+	RMS        float64 // RMS wavefront error, waves of this wavelength
+}
+
+// A Verdict says whether the image is diffraction limited at every field
+// point and every wavelength judged, on one image plane shared by all of
+// them, and if not, which fails first:
+//
+//   - on axis: the on-axis bundle at the reference wavelength exceeds
+//     MarechalRMS even at its own best focus (the Wavefront of Quality);
+//   - field edge: at the reference wavelength, no plane holds both the
+//     axis and the field edge within MarechalRMS;
+//   - colour: no plane holds every field point at every band wavelength
+//     within MarechalRMS.
+//
+// The common plane is the one that makes the worst RMS wavefront error
+// over every field point and wavelength least ("one best focus shared by
+// all"). Each field point is referred to one image point for every
+// wavelength: on the axis for the axis, and the centroid of the reference
+// wavelength's spot on that plane for the field edge, so that a lateral
+// colour counts against the other wavelengths; the path differences at
+// each wavelength are in waves of that wavelength.
+type Verdict struct {
+	Limited bool
+	Why     string // LimitedYes or one of the LimitedOn... words
+	// PlaneZ is the common image plane, from the last vertex.
+	PlaneZ float64
+	// Judged lists every field point at every wavelength judged, the
+	// axis first, on the common plane.
+	Judged []Judged
+	// Worst is the largest RMS of Judged, waves.
+	Worst float64
+}
+
+// bundleAt is one traced bundle of the verdict.
+type bundleAt struct {
+	tr   Traced
+	edge bool
+	ref  bool // the reference wavelength
+}
+
+// verdict judges the traced bundles: axis and edge (edge may be nil) at
+// the reference wavelength wl, whose on-axis best wavefront is axisBest,
+// and the same field points traced here at the other band wavelengths.
+func (s System) verdict(c Conditions, wl float64, axis Traced, edge *Traced, axisBest Wavefront) (Verdict, error) {
+	bs := []bundleAt{{tr: axis, ref: true}}
+	if edge != nil {
+		bs = append(bs, bundleAt{tr: *edge, edge: true, ref: true})
+	}
+	for _, w := range c.Band {
+		if math.Abs(w-wl) <= 0.05 {
+			continue // the reference, already traced
+		}
+		fields := []float64{0}
+		if edge != nil {
+			fields = append(fields, c.Field)
+		}
+		for k, f := range fields {
+			b, err := s.Bundle(c.Object, f, w, Hexapolar(rings(c)))
+			if err != nil {
+				return Verdict{}, err
+			}
+			bs = append(bs, bundleAt{tr: s.Tracer(w).TraceBundle(b, axis.ImageZ), edge: k == 1})
+		}
+	}
+	lo, hi := focusBracket(bs)
+	v := Verdict{Limited: true, Why: LimitedYes}
+	z, worst := bestShared(bs, lo, hi)
+	v.PlaneZ, v.Worst = z, worst
+	for _, b := range bs {
+		v.Judged = append(v.Judged, Judged{Edge: b.edge, Wavelength: b.tr.Wavelength, RMS: rmsAt(b, bs, z)})
+	}
+	switch {
+	case axisBest.RMS > MarechalRMS:
+		v.Why = LimitedOnAxis
+	case edge != nil && sharedWorst(bs, lo, hi, func(b bundleAt) bool { return b.ref }) > MarechalRMS:
+		v.Why = LimitedFieldEdge
+	case worst > MarechalRMS:
+		v.Why = LimitedColour
+	}
+	v.Limited = v.Why == LimitedYes
+	return v, nil
+}
+
+// focusBracket is a range of planes that holds the best focus of every
+// bundle: their least-RMS-spot planes, widened by half their spread and a
+// tenth of a millimetre each side.
+func focusBracket(bs []bundleAt) (float64, float64) {
+	lo, hi := math.Inf(1), math.Inf(-1)
+	for _, b := range bs {
+		z := b.tr.BestFocus().Z
+		lo, hi = math.Min(lo, z), math.Max(hi, z)
+	}
+	pad := 0.5*(hi-lo) + 0.1
+	return lo - pad, hi + pad
+}
+
+// sharedWorst is the least, over planes, of the worst RMS of the bundles
+// keep selects.
+func sharedWorst(bs []bundleAt, lo, hi float64, keep func(bundleAt) bool) float64 {
+	var sel []bundleAt
+	for _, b := range bs {
+		if keep(b) {
+			sel = append(sel, b)
+		}
+	}
+	_, w := bestShared(sel, lo, hi)
+	return w
+}
+
+// bestShared finds the plane in [lo, hi] where the worst RMS wavefront
+// error of the bundles is least, by golden-section search (Press et al.,
+// Numerical Recipes, 3rd ed., sec. 10.2): the worst of functions each
+// unimodal in the plane's position, as defocus is, is unimodal too.
+func bestShared(bs []bundleAt, lo, hi float64) (float64, float64) {
+	f := func(z float64) float64 {
+		w := 0.0
+		for _, b := range bs {
+			w = math.Max(w, rmsAt(b, bs, z))
+		}
+		return w
+	}
+	g := (math.Sqrt(5) - 1) / 2
+	a, b := lo, hi
+	x1, x2 := b-g*(b-a), a+g*(b-a)
+	f1, f2 := f(x1), f(x2)
+	for i := 0; i < 60 && b-a > 1e-7; i++ {
+		if f1 <= f2 {
+			b, x2, f2 = x2, x1, f1
+			x1 = b - g*(b-a)
+			f1 = f(x1)
+		} else {
+			a, x1, f1 = x1, x2, f2
+			x2 = a + g*(b-a)
+			f2 = f(x2)
+		}
+	}
+	z := (a + b) / 2
+	return z, f(z)
+}
+
+// rmsAt is bundle b's RMS wavefront error, in its waves, against a sphere
+// centred on plane z at its field point's image point: the axis, or the
+// centroid of the reference wavelength's spot of the same field point.
+// A bundle whose rays miss the sphere counts as failing (+Inf).
+func rmsAt(b bundleAt, bs []bundleAt, z float64) float64 {
+	centre := Vec3{Z: b.tr.Tracer.LastVertex() + z}
+	if b.edge {
+		for _, r := range bs {
+			if r.edge && r.ref {
+				sp := r.tr.SpotAt(z)
+				centre.X, centre.Y = sp.CentroidX, sp.CentroidY
+			}
+		}
+	}
+	wf, err := b.tr.Wavefront(centre)
+	if err != nil {
+		return math.Inf(1)
+	}
+	return wf.RMS
+}
