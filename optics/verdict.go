@@ -49,20 +49,101 @@ type Verdict struct {
 	Worst float64
 }
 
-// bundleAt is one traced bundle of the verdict.
+// bundleAt is one traced bundle of the verdict, its passed rays kept in
+// the form the wavefront on a moved reference sphere needs.
 type bundleAt struct {
-	tr   Traced
-	edge bool
-	ref  bool // the reference wavelength
+	tr     Traced
+	edge   bool
+	ref    bool // the reference wavelength
+	rays   []rayEnd
+	n      float64 // image-space index
+	last   float64 // last vertex
+	pupil  float64 // exit pupil from the last vertex
+	pupilK bool    // the exit pupil is finite
+	// c0 and slope give the centroid of the spot on the plane at z from
+	// the last vertex, c0 + slope (z - imageZ): rays are straight in image
+	// space.
+	c0, slope Vec3
+}
+
+// rayEnd is one passed ray: its point on the image plane, direction, path
+// length to that point and pupil weight.
+type rayEnd struct {
+	p, d   Vec3
+	opl, w float64
+}
+
+func newBundleAt(tr Traced, edge, ref bool) bundleAt {
+	b := bundleAt{tr: tr, edge: edge, ref: ref, n: tr.Tracer.N[len(tr.Tracer.N)-1], last: tr.Tracer.LastVertex()}
+	b.pupil, b.pupilK = tr.Tracer.System.exitPupil(tr.Object.Stop, tr.Tracer.N)
+	var sw float64
+	for i, p := range tr.Paths {
+		if p.Status != Passed {
+			continue
+		}
+		w := tr.Points[i].Weight
+		b.rays = append(b.rays, rayEnd{p: p.Image, d: p.Dir, opl: p.OPL, w: w})
+		sw += w
+		b.c0 = b.c0.Add(p.Image.Scale(w))
+		b.slope = b.slope.Add(Vec3{X: p.Dir.X / p.Dir.Z, Y: p.Dir.Y / p.Dir.Z}.Scale(w))
+	}
+	if sw > 0 {
+		b.c0, b.slope = b.c0.Scale(1/sw), b.slope.Scale(1/sw)
+	}
+	return b
+}
+
+// centroid is the spot's centroid on the plane at z from the last vertex.
+func (b *bundleAt) centroid(z float64) (float64, float64) {
+	dz := b.last + z - b.c0.Z
+	return b.c0.X + b.slope.X*dz, b.c0.Y + b.slope.Y*dz
+}
+
+// rms is the RMS wavefront error in waves against the reference sphere
+// centred at c, as Traced.Wavefront measures it (the same sphere through
+// the exit pupil's axial point and the same path differences), in one
+// pass with no allocation; +Inf when fewer than three rays meet the
+// sphere.
+func (b *bundleAt) rms(c Vec3) float64 {
+	radius := 0.0
+	if b.pupilK {
+		radius = c.Sub(Vec3{Z: b.last + b.pupil}).Norm()
+	}
+	if radius <= 1e-3 {
+		radius = math.Max(c.Sub(Vec3{Z: b.last}).Norm(), 1e-3)
+	}
+	var sw, s1, s2, off float64
+	k := 0
+	for i := range b.rays {
+		r := &b.rays[i]
+		v := r.p.Sub(c)
+		bb := v.Dot(r.d)
+		disc := bb*bb - v.Dot(v) + radius*radius
+		if disc < 0 {
+			continue
+		}
+		opd := r.opl + b.n*(-bb-math.Sqrt(disc))
+		if k == 0 {
+			off = opd // an offset keeps the sums of squares exact enough
+		}
+		x := opd - off
+		sw, s1, s2 = sw+r.w, s1+r.w*x, s2+r.w*x*x
+		k++
+	}
+	if k < 3 || sw == 0 {
+		return math.Inf(1)
+	}
+	m := s1 / sw
+	return math.Sqrt(math.Max(s2/sw-m*m, 0)) / (b.tr.Wavelength * 1e-6)
 }
 
 // verdict judges the traced bundles: axis and edge (edge may be nil) at
 // the reference wavelength wl, whose on-axis best wavefront is axisBest,
 // and the same field points traced here at the other band wavelengths.
 func (s System) verdict(c Conditions, wl float64, axis Traced, edge *Traced, axisBest Wavefront) (Verdict, error) {
-	bs := []bundleAt{{tr: axis, ref: true}}
+	bs := []bundleAt{newBundleAt(axis, false, true)}
 	if edge != nil {
-		bs = append(bs, bundleAt{tr: *edge, edge: true, ref: true})
+		bs = append(bs, newBundleAt(*edge, true, true))
 	}
 	for _, w := range c.Band {
 		if math.Abs(w-wl) <= 0.05 {
@@ -77,15 +158,15 @@ func (s System) verdict(c Conditions, wl float64, axis Traced, edge *Traced, axi
 			if err != nil {
 				return Verdict{}, err
 			}
-			bs = append(bs, bundleAt{tr: s.Tracer(w).TraceBundle(b, axis.ImageZ), edge: k == 1})
+			bs = append(bs, newBundleAt(s.Tracer(w).TraceBundle(b, axis.ImageZ), k == 1, false))
 		}
 	}
 	lo, hi := focusBracket(bs)
 	v := Verdict{Limited: true, Why: LimitedYes}
 	z, worst := bestShared(bs, lo, hi)
 	v.PlaneZ, v.Worst = z, worst
-	for _, b := range bs {
-		v.Judged = append(v.Judged, Judged{Edge: b.edge, Wavelength: b.tr.Wavelength, RMS: rmsAt(b, bs, z)})
+	for i := range bs {
+		v.Judged = append(v.Judged, Judged{Edge: bs[i].edge, Wavelength: bs[i].tr.Wavelength, RMS: rmsAt(bs, i, z)})
 	}
 	switch {
 	case axisBest.RMS > MarechalRMS:
@@ -132,8 +213,8 @@ func sharedWorst(bs []bundleAt, lo, hi float64, keep func(bundleAt) bool) float6
 func bestShared(bs []bundleAt, lo, hi float64) (float64, float64) {
 	f := func(z float64) float64 {
 		w := 0.0
-		for _, b := range bs {
-			w = math.Max(w, rmsAt(b, bs, z))
+		for i := range bs {
+			w = math.Max(w, rmsAt(bs, i, z))
 		}
 		return w
 	}
@@ -141,7 +222,7 @@ func bestShared(bs []bundleAt, lo, hi float64) (float64, float64) {
 	a, b := lo, hi
 	x1, x2 := b-g*(b-a), a+g*(b-a)
 	f1, f2 := f(x1), f(x2)
-	for i := 0; i < 60 && b-a > 1e-7; i++ {
+	for i := 0; i < 60 && b-a > 1e-5; i++ { // 10 nm, far below any depth of focus
 		if f1 <= f2 {
 			b, x2, f2 = x2, x1, f1
 			x1 = b - g*(b-a)
@@ -156,23 +237,19 @@ func bestShared(bs []bundleAt, lo, hi float64) (float64, float64) {
 	return z, f(z)
 }
 
-// rmsAt is bundle b's RMS wavefront error, in its waves, against a sphere
+// rmsAt is bundle i's RMS wavefront error, in its waves, against a sphere
 // centred on plane z at its field point's image point: the axis, or the
-// centroid of the reference wavelength's spot of the same field point.
-// A bundle whose rays miss the sphere counts as failing (+Inf).
-func rmsAt(b bundleAt, bs []bundleAt, z float64) float64 {
-	centre := Vec3{Z: b.tr.Tracer.LastVertex() + z}
+// centroid of the reference wavelength's spot of the same field point. A
+// bundle whose rays miss the sphere counts as failing (+Inf).
+func rmsAt(bs []bundleAt, i int, z float64) float64 {
+	b := &bs[i]
+	centre := Vec3{Z: b.last + z}
 	if b.edge {
-		for _, r := range bs {
-			if r.edge && r.ref {
-				sp := r.tr.SpotAt(z)
-				centre.X, centre.Y = sp.CentroidX, sp.CentroidY
+		for k := range bs {
+			if bs[k].edge && bs[k].ref {
+				centre.X, centre.Y = bs[k].centroid(z)
 			}
 		}
 	}
-	wf, err := b.tr.Wavefront(centre)
-	if err != nil {
-		return math.Inf(1)
-	}
-	return wf.RMS
+	return b.rms(centre)
 }

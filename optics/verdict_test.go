@@ -119,3 +119,29 @@ func TestOnAxisVerdict(t *testing.T) {
 		t.Errorf("f/4 singlet: %+v, want %q", q.Verdict.Why, LimitedOnAxis)
 	}
 }
+
+// The verdict's one-pass RMS agrees with Traced.Wavefront on the same
+// sphere, and its centroid with SpotAt, at planes about the image.
+func TestVerdictRMSMatchesWavefront(t *testing.T) {
+	sys := singlet100(t)
+	obj := Object{Z: math.Inf(-1), Aperture: Aperture{Beam: 10}}
+	b, err := sys.Bundle(obj, 2, LineF, Hexapolar(8))
+	if err != nil {
+		t.Fatal(err)
+	}
+	img := sys.Cardinal(LineD).BFD()
+	tr := sys.Tracer(LineF).TraceBundle(b, img)
+	ba := newBundleAt(tr, true, true)
+	for _, dz := range []float64{-1, -0.2, 0, 0.5} {
+		sp := tr.SpotAt(img + dz)
+		x, y := ba.centroid(img + dz)
+		checkNear(t, "centroid x", x, sp.CentroidX, 1e-9, 0)
+		checkNear(t, "centroid y", y, sp.CentroidY, 1e-9, 0)
+		c := Vec3{X: x, Y: y, Z: tr.Tracer.LastVertex() + img + dz}
+		wf, err := tr.Wavefront(c)
+		if err != nil {
+			t.Fatal(err)
+		}
+		checkNear(t, "RMS", ba.rms(c), wf.RMS, 1e-9, 1e-6)
+	}
+}
