@@ -124,3 +124,16 @@ func TestFixedHasNoNegativeZero(t *testing.T) {
 		}
 	}
 }
+
+// Figures print to three significant digits, without an exponent from
+// 1000 up and without a negative zero.
+func TestFigure(t *testing.T) {
+	for _, tt := range []struct {
+		v    float64
+		want string
+	}{{3012.4, "3012"}, {-0.0004, "-0.0004"}, {math.Copysign(0, -1), "0"}, {12.345, "12.3"}, {0.000123, "0.000123"}} {
+		if got := figure(tt.v); got != tt.want {
+			t.Errorf("figure(%g) = %q, want %q", tt.v, got, tt.want)
+		}
+	}
+}

@@ -143,8 +143,12 @@ func keyLabel(k string) string {
 	return strings.Join(parts, " ")
 }
 
-// figure prints a figure to three significant digits, never as "-0".
+// figure prints a figure to three significant digits (whole numbers from
+// 1000 up), never as "-0" or with an exponent above 1000.
 func figure(v float64) string {
+	if math.Abs(v) >= 1000 {
+		return Fixed(v, 0)
+	}
 	s := strconv.FormatFloat(v, 'g', 3, 64)
 	if strings.Contains(s, "e") {
 		return s

@@ -29,7 +29,11 @@ func (d *svgDoc) legend() []legendLine {
 	if e := sc.Envelope; e != nil {
 		ls = append(ls, legendLine{"envelope", fmt.Sprintf("laser beam: 1/e² envelope of a Gaussian beam (TEM00, M² = 1) of %s mm diameter, its waist at the first vertex, carried by the ABCD law", num(sc.Solution.Requirement.Beam))})
 		if !math.IsNaN(e.WaistZ) {
-			ls = append(ls, legendLine{"", fmt.Sprintf("output waist: 1/e² radius %s µm at z = %s mm", figure(1000*e.Waist), Fixed(e.WaistZ, 2))})
+			radius := figure(1000*e.Waist) + " µm"
+			if e.Waist >= 0.1 {
+				radius = Fixed(e.Waist, 3) + " mm"
+			}
+			ls = append(ls, legendLine{"", fmt.Sprintf("output waist: 1/e² radius %s at z = %s mm", radius, Fixed(e.WaistZ, 2))})
 		}
 	}
 	if sc.Beam {
