@@ -8,6 +8,7 @@ import (
 	"strings"
 
 	"cardinal/importers"
+	"cardinal/optics"
 )
 
 // fingerprint is a hash of every field of an entry that the catalog
@@ -50,6 +51,14 @@ func fingerprint(e importers.Entry, otherWarnings []string) string {
 	str(e.Currency)
 	str(e.URL)
 	str(e.Notes)
+	if t := e.Tolerances; t != (optics.Tolerances{}) {
+		// Only when stated, so that the fingerprints of parts stored before
+		// tolerances existed do not change.
+		b.WriteString("|t")
+		for _, v := range []float64{t.EFLPct, t.Thickness, t.Index, t.RadiusPct} {
+			num(v)
+		}
+	}
 	for _, w := range otherWarnings {
 		str(w)
 	}

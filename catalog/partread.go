@@ -92,9 +92,19 @@ func sortByID(entries []importers.Entry, ids []int64) {
 }
 
 func readPartRows(ctx context.Context, q querier, where string, args []any) ([]importers.Entry, []int64, error) {
+	// A migration before the tolerance columns existed (0005) may read
+	// parts too (the search index rebuild of 0002): they read as not stated.
+	var hasTols int
+	if err := q.QueryRowContext(ctx, "SELECT COUNT(*) FROM pragma_table_info('parts') WHERE name = 'efl_tol_pct'").Scan(&hasTols); err != nil {
+		return nil, nil, err
+	}
+	tols := "NULL, NULL, NULL, NULL"
+	if hasTols > 0 {
+		tols = "p.efl_tol_pct, p.thickness_tol_mm, p.index_tol, p.radius_tol_pct"
+	}
 	rows, err := q.QueryContext(ctx, `SELECT p.id, p.supplier, p.part, p.description, p.diameter_mm,
 		p.clear_aperture_mm, p.stated_efl_mm, p.stated_bfd_mm, p.stated_edge_mm, p.stated_wavelength_nm,
-		p.price, p.currency, p.url, p.notes`+filteredParts+"WHERE "+where+" ORDER BY p.id", args...)
+		p.price, p.currency, p.url, p.notes, `+tols+filteredParts+"WHERE "+where+" ORDER BY p.id", args...)
 	if err != nil {
 		return nil, nil, err
 	}
@@ -104,12 +114,13 @@ func readPartRows(ctx context.Context, q querier, where string, args []any) ([]i
 	for rows.Next() {
 		var e importers.Entry
 		var id int64
-		var efl, bfd, edge, wl, price sql.NullFloat64
+		var efl, bfd, edge, wl, price, tEFL, tThick, tIndex, tRadius sql.NullFloat64
 		p := &e.Part
 		if err := rows.Scan(&id, &p.Supplier, &p.Name, &p.Description, &p.Diameter, &p.ClearAperture,
-			&efl, &bfd, &edge, &wl, &price, &e.Currency, &e.URL, &e.Notes); err != nil {
+			&efl, &bfd, &edge, &wl, &price, &e.Currency, &e.URL, &e.Notes, &tEFL, &tThick, &tIndex, &tRadius); err != nil {
 			return nil, nil, err
 		}
+		e.Tolerances = optics.Tolerances{EFLPct: tEFL.Float64, Thickness: tThick.Float64, Index: tIndex.Float64, RadiusPct: tRadius.Float64}
 		e.StatedEFL, e.StatedBFD, e.StatedEdge = efl.Float64, bfd.Float64, edge.Float64
 		e.StatedWavelength, e.Price = wl.Float64, price.Float64
 		entries, ids = append(entries, e), append(ids, id)

@@ -37,11 +37,14 @@ func writePart(ctx context.Context, tx *txWriter, id int64, e storedEntry, glass
 	p := e.Part
 	cols := []any{p.Description, p.Diameter, p.ClearAperture, kindOf(p),
 		nullIfZero(e.StatedEFL), nullIfZero(e.StatedBFD), nullIfZero(e.StatedEdge),
-		nullIfZero(e.StatedWavelength), nullIfZero(e.Price), e.Currency, e.URL, e.Notes, e.fingerprint}
+		nullIfZero(e.StatedWavelength), nullIfZero(e.Price), e.Currency, e.URL, e.Notes, e.fingerprint,
+		nullIfZero(e.Tolerances.EFLPct), nullIfZero(e.Tolerances.Thickness), nullIfZero(e.Tolerances.Index),
+		nullIfZero(e.Tolerances.RadiusPct)}
 	if id == 0 {
 		res, err := tx.exec(ctx, `INSERT INTO parts (supplier, part, description, diameter_mm,
 			clear_aperture_mm, kind, stated_efl_mm, stated_bfd_mm, stated_edge_mm, stated_wavelength_nm,
-			price, currency, url, notes, fingerprint) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
+			price, currency, url, notes, fingerprint, efl_tol_pct, thickness_tol_mm, index_tol, radius_tol_pct)
+			VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
 			append([]any{p.Supplier, p.Name}, cols...)...)
 		if err != nil {
 			return 0, err
@@ -52,7 +55,8 @@ func writePart(ctx context.Context, tx *txWriter, id int64, e storedEntry, glass
 	} else {
 		_, err := tx.exec(ctx, `UPDATE parts SET description = ?, diameter_mm = ?,
 			clear_aperture_mm = ?, kind = ?, stated_efl_mm = ?, stated_bfd_mm = ?, stated_edge_mm = ?,
-			stated_wavelength_nm = ?, price = ?, currency = ?, url = ?, notes = ?, fingerprint = ?
+			stated_wavelength_nm = ?, price = ?, currency = ?, url = ?, notes = ?, fingerprint = ?,
+			efl_tol_pct = ?, thickness_tol_mm = ?, index_tol = ?, radius_tol_pct = ?
 			WHERE id = ?`, append(cols, id)...)
 		if err != nil {
 			return 0, err

@@ -28,7 +28,8 @@ var prescriptionSchema = schema{
 		switch name {
 		case "supplier", "part", "description", "diameter", "clear_aperture",
 			"efl", "bfd", "edge_thickness", "stated_wavelength",
-			"price", "currency", "url", "notes":
+			"price", "currency", "url", "notes",
+			"efl_tolerance", "thickness_tolerance", "index_tolerance", "radius_tolerance":
 			return true
 		}
 		for _, p := range []struct {
@@ -259,6 +260,38 @@ func parseStated(r *row, e *Entry) {
 	e.Currency = r.text("currency")
 	e.URL = r.text("url")
 	e.Notes = r.text("notes")
+	parseTolerances(r, e)
+}
+
+// parseTolerances reads the part's stated manufacturing tolerances (empty
+// cells are not stated): efl_tolerance and radius_tolerance in percent (a
+// trailing % allowed), thickness_tolerance in mm, index_tolerance a plain
+// number.
+func parseTolerances(r *row, e *Entry) {
+	pct := func(col string) float64 {
+		s := strings.TrimSpace(strings.TrimSuffix(r.text(col), "%"))
+		if s == "" {
+			return 0
+		}
+		v, err := strconv.ParseFloat(s, 64)
+		if err != nil || v != v || v < 0 || v >= 50 {
+			r.fail(col, "%q: want a percentage from 0 up to below 50, such as 1%% or 2", r.text(col))
+			return 0
+		}
+		return v
+	}
+	e.Tolerances.EFLPct = pct("efl_tolerance")
+	e.Tolerances.RadiusPct = pct("radius_tolerance")
+	if v, ok := r.number("thickness_tolerance"); ok && (v < 0 || v > 10) {
+		r.fail("thickness_tolerance", "%s mm: want 0 to 10 mm", formatFloat(v))
+	} else {
+		e.Tolerances.Thickness = v
+	}
+	if v, ok := r.number("index_tolerance"); ok && (v < 0 || v >= 0.5) {
+		r.fail("index_tolerance", "%s: want 0 up to below 0.5", formatFloat(v))
+	} else {
+		e.Tolerances.Index = v
+	}
 }
 
 // sortErrors orders problems by line, keeping the order within a line.

@@ -14,7 +14,8 @@ import (
 // warnings aside, which the reader sets): numbers in the shortest form that
 // parses back to the same float, flats as inf, zero optional values as
 // empty cells. Conic and asphere columns appear only up to the last surface
-// that uses them. Glasses are written by name, so the reader's glass table
+// that uses them, tolerance columns only when some entry states one.
+// Glasses are written by name, so the reader's glass table
 // must know every glass the entries use.
 func WritePrescriptions(w io.Writer, entries []Entry) error {
 	n, nConic, nAsph := 2, 0, 0
@@ -32,10 +33,23 @@ func WritePrescriptions(w io.Writer, entries []Entry) error {
 			}
 		}
 	}
-	cw := csv.NewWriter(w)
-	cw.Write(prescriptionHeader(n, nConic, nAsph))
+	tols := false
 	for _, e := range entries {
-		cw.Write(prescriptionRow(e, n, nConic, nAsph))
+		tols = tols || e.Tolerances != (optics.Tolerances{})
+	}
+	cw := csv.NewWriter(w)
+	h := prescriptionHeader(n, nConic, nAsph)
+	if tols {
+		h = append(h, "efl_tolerance", "thickness_tolerance", "index_tolerance", "radius_tolerance")
+	}
+	cw.Write(h)
+	for _, e := range entries {
+		row := prescriptionRow(e, n, nConic, nAsph)
+		if tols {
+			t := e.Tolerances
+			row = append(row, optionalFloat(t.EFLPct), optionalFloat(t.Thickness), optionalFloat(t.Index), optionalFloat(t.RadiusPct))
+		}
+		cw.Write(row)
 	}
 	cw.Flush()
 	return cw.Error()

@@ -29,7 +29,7 @@ Until you import a file, read commands show the built-in demo catalog.`,
 	}
 	cmd.AddCommand(newCatalogImportCmd(e, runCatalogImport), newCatalogListCmd(e, runCatalogList),
 		newCatalogExportCmd(e, runCatalogExport), newCatalogRemoveCmd(e, runCatalogRemove),
-		newCatalogMappingCmd(e, runCatalogMapping))
+		newCatalogMappingCmd(e, runCatalogMapping), newCatalogTolerancesCmd(e, runCatalogTolerances))
 	return cmd
 }
 

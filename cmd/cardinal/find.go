@@ -263,6 +263,9 @@ func runFind(o *findOptions) error {
 	}
 	defer st.Close()
 	ctx := context.Background()
+	if o.Req.Build.PartDefaults, err = st.PartTolerances(ctx); err != nil {
+		return catalogError(err)
+	}
 	out, err := findIndexed(ctx, st, o.Req)
 	if err != nil {
 		return err

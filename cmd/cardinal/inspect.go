@@ -317,7 +317,11 @@ type inspection struct {
 	AntiNodalMm          *float64 `json:"antinodal_mm"`
 	AntiNodalPrimeMm     *float64 `json:"antinodal_prime_mm"`
 	EdgeThicknessMm      float64  `json:"edge_thickness_mm"`
-	Warnings             []string `json:"warnings"`
+	// Tolerances are the part's manufacturing tolerances: as stated, the
+	// program's defaults where not (StatedTolerances says which).
+	Tolerances       optics.Tolerances `json:"tolerances"`
+	StatedTolerances bool              `json:"tolerances_stated"`
+	Warnings         []string          `json:"warnings"`
 	// ImageQuality holds the real-ray figures, its keys inline; nil
 	// unless --beam or --na is given and the part can be traced.
 	*search.ImageQuality
@@ -357,6 +361,8 @@ func inspect(e importers.Entry, reverse bool, wl float64, in, out optics.Medium)
 		r.PrincipalMm, r.PrincipalPrimeMm, r.NodalMm, r.NodalPrimeMm = v(c.P), v(c.PPrime), v(c.N), v(c.NPrime)
 		r.AntiPrincipalMm, r.AntiPrincipalPrimeMm, r.AntiNodalMm, r.AntiNodalPrimeMm = v(c.AP), v(c.APPrime), v(c.AN), v(c.ANPrime)
 	}
+	r.Tolerances = e.Tolerances.Or(optics.DefaultTolerances)
+	r.StatedTolerances = e.Tolerances != (optics.Tolerances{})
 	r.Warnings = warnings
 	return r
 }
@@ -441,6 +447,13 @@ func figureTable(r inspection) present.Table {
 		}
 		add(where, present.Fixed(r.indices[i], 6), m.Name())
 	}
+	from := "default"
+	if r.StatedTolerances {
+		from = "as stated, default where not"
+	}
+	t := r.Tolerances
+	add("tolerances (build study)", fmt.Sprintf("EFL +-%s %%, thickness +-%s mm, index +-%s", present.Fixed(t.EFLPct, 2),
+		present.Fixed(t.Thickness, 3), strconv.FormatFloat(t.Index, 'g', -1, 64)), from)
 	return textTable([]string{"figure", "value", "unit"}, append(rows, qualityRows(r)...))
 }
 
