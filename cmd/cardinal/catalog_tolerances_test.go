@@ -14,7 +14,9 @@ func TestCatalogTolerancesFlags(t *testing.T) {
 	}{
 		{"show", nil, func(o *catalogTolerancesOptions) bool { return !o.changesAny }, ""},
 		{"set", []string{"--efl-tol", "2%", "--radius-tol", "0", "--thickness-tol", "0.2"},
-			func(o *catalogTolerancesOptions) bool { return o.changesAny && o.eflPct == 2 && o.radiusPct == 0 && o.Thickness == 0.2 }, ""},
+			func(o *catalogTolerancesOptions) bool {
+				return o.changesAny && o.eflPct == 2 && o.radiusPct == 0 && o.Thickness == 0.2
+			}, ""},
 		{"zero efl", []string{"--efl-tol", "0"}, nil, "--efl-tol"},
 		{"huge efl", []string{"--efl-tol", "60%"}, nil, "below 50"},
 		{"negative thickness", []string{"--thickness-tol", "-1"}, nil, "--thickness-tol"},
