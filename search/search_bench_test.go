@@ -21,7 +21,9 @@ func benchRequirements() map[string]Requirement {
 	exp := Defaults()
 	exp.Kind, exp.Expansion, exp.ExpandTol = Expand, 5, Tolerance{Value: 2, Percent: true}
 	exp.Beam, exp.Form, exp.LengthMax = 2, Galilean, 150
-	return map[string]Requirement{"focus": focus, "image": img, "expand": exp}
+	focusD := focus
+	focusD.Wavelength = 0 // the d line: the index's stored cardinal points
+	return map[string]Requirement{"focus": focus, "image": img, "expand": exp, "focus-d": focusD}
 }
 
 var (
