@@ -65,6 +65,9 @@ func readHeaderCell(s string) headerCell {
 		}
 	}
 	low = strings.ReplaceAll(low, "#", " no ")
+	for _, d := range []string{"ø", "⌀", "∅"} { // the diameter sign (common practice)
+		low = strings.ReplaceAll(low, d, " diameter ")
+	}
 	low = strings.ReplaceAll(low, "\"", " inch ")
 	f := strings.FieldsFunc(low, func(r rune) bool {
 		return !(r >= 'a' && r <= 'z' || r >= '0' && r <= '9')

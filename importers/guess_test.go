@@ -47,7 +47,7 @@ func TestGuessMapping(t *testing.T) {
 func TestGuessHeaderWords(t *testing.T) {
 	for header, field := range map[string]string{
 		"R1": "r1", "Radius 2": "r2", "R2 (in)": "r2", "Front radius": "r1", "Back Radius [mm]": "r2",
-		"Center Thickness": "t1", "CT2": "t2", "Centre thickness (inch)": "t1", "Dia.": "diameter", "Ø": "",
+		"Center Thickness": "t1", "CT2": "t2", "Centre thickness (inch)": "t1", "Dia.": "diameter", "Ø (mm)": "diameter", "⌀": "diameter",
 		"Material": "glass1", "Glass 2": "glass2", "EFL (mm)": "efl", "Focal Length": "efl", "BFL": "bfd",
 		"Part #": "part", "P/N": "part", "Edge thickness": "edge_thickness", "Shape": "shape", "Conic 1": "conic1",
 		"Colour": "",

@@ -289,6 +289,7 @@ func TestRunSheetCommands(t *testing.T) {
 		{name: "guess from a missing sheet", args: []string{"catalog", "mapping", xlsx, "--sheet", "Nope"}, code: exitUsage, err: `there is no sheet`},
 		{name: "alias to a code", args: []string{"glass", "alias", "Vellum Crown", "517642"}, out: `added the glass alias "Vellum Crown" -> 517642 (nd 1.51700)`},
 		{name: "alias again", args: []string{"glass", "alias", "vellum crown", "517642"}, out: "replaced"},
+		{name: "the neutral CSV uses aliases too", args: []string{"catalog", "import", "NEUTRAL"}, out: "1 added"},
 		{name: "alias over a glass", args: []string{"glass", "alias", "caf2", "517642"}, code: exitUsage, err: "is already a glass"},
 		{name: "alias to nothing", args: []string{"glass", "alias", "Odd", "12345"}, code: exitUsage, err: "the target must be a six-digit glass code"},
 		{name: "list aliases", args: []string{"glass", "aliases", "--format", "csv"}, out: "name,glass,nd\nvellum crown,517642,1.517\n"}, // the latest spelling,
@@ -300,14 +301,19 @@ func TestRunSheetCommands(t *testing.T) {
 	}
 	colmap := filepath.Join(dir, "lenses.colmap")
 	os.WriteFile(colmap, []byte(lensMapping), 0o644)
+	neutral := filepath.Join(dir, "lab.csv")
+	os.WriteFile(neutral, []byte("supplier,part,diameter,r1,r2,t1,glass1\nLAB,L-1,25.4,51.68,inf,3.6,vellum CROWN\n"), 0o644)
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
 			e, out, errb := storeEnv(t, nil)
 			e.ErrTerminal = tc.terminal
 			args := append([]string{"--db", db}, tc.args...)
 			for i, a := range args {
-				if a == "MAP" {
+				switch a {
+				case "MAP":
 					args[i] = colmap
+				case "NEUTRAL":
+					args[i] = neutral
 				}
 			}
 			if code := execute(args, e); code != tc.code {
