@@ -164,6 +164,14 @@ func (sp Spots) spotPanel(i int) (*plot.Plot, []string, error) {
 		sc.GlyphStyle = wavelengthGlyph(sp.Wavelengths[j])
 		p.Add(sc)
 	}
+	if sp.Airy > 0 { // the disc's rim on top, so that a spot smaller than it shows it
+		rim, err := plotter.NewLine(append(circlePoints(cx, cy, sp.Airy), circlePoints(cx, cy, sp.Airy)[0]))
+		if err != nil {
+			return nil, nil, err
+		}
+		rim.Color, rim.Width = color.Gray{Y: 0x55}, vg.Points(0.8)
+		p.Add(rim)
+	}
 	square(p)
 	rms := sp.RMSAt(i*n, sp.BestFocus)
 	note := fmt.Sprintf("RMS %s %s", figure(rms), u)

@@ -47,7 +47,9 @@ func (sp Spots) newHeader(title string, width vg.Length) header {
 	}
 	inner := width - 2*headerMargin
 	h.title = wrapStyled(h.titleSty, title, inner)
-	h.notes = sp.headerNotes()
+	for _, n := range sp.headerNotes() {
+		h.notes = append(h.notes, wrapStyled(h.notesSty, n, inner)...)
+	}
 	h.notesTop = headerTop + vg.Length(len(h.title))*h.titleSty.Font.Size*lineSpacing
 	notesH := vg.Length(len(h.notes)) * h.notesSty.Font.Size * lineSpacing
 	h.keyW, h.keyH = keySize(h.key, h.keyNames)

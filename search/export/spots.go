@@ -3,6 +3,7 @@ package export
 import (
 	"fmt"
 	"math"
+	"strings"
 
 	"cardinal/optics"
 )
@@ -149,7 +150,11 @@ func NewSpots(s Solution, o PlotOptions) (Spots, error) {
 		if q.DiffractionLimited {
 			limited = "diffraction limited"
 		}
-		sp.Verdict = fmt.Sprintf("the search's verdict: %s (%s waves RMS wavefront error on axis; Maréchal's criterion is 0.07)", limited, figure(q.WavefrontRMS))
+		if why, ok := strings.CutPrefix(q.DiffractionLimitedWhy, "no: "); ok {
+			limited += map[string]string{"on axis": " on axis", "field edge": " at the field edge", "colour": " in colour"}[why]
+		}
+		sp.Verdict = fmt.Sprintf("the search's verdict: %s (worst RMS wavefront error %s waves over the points and wavelengths judged, on one plane %s mm from the image plane; Maréchal's criterion is 0.07)",
+			limited, figure(q.WavefrontWorst), Fixed(q.VerdictPlane, 3))
 	}
 	return sp, nil
 }
