@@ -11,6 +11,7 @@ import (
 	"time"
 
 	"cardinal/search"
+	"cardinal/search/present"
 )
 
 //go:embed report.html.tmpl
@@ -57,6 +58,7 @@ type reportPage struct {
 	RequestNotes    [][2]string
 	QualityColumns  search.QualityShown
 	RankingNote     string
+	ResultsTable    template.HTML // present.HTML of the ranked results
 	BuildHeader     []string
 	// FieldNote says which field the drawings and plots use, the same for
 	// every pick.
@@ -64,18 +66,6 @@ type reportPage struct {
 }
 
 var reportFuncs = template.FuncMap{
-	"parts":    partsHTML,
-	"zero":     Fixed,
-	"mm":       func(v *float64) string { return optMM(v) },
-	"fixed":    Fixed,
-	"target":   targetText,
-	"checks":   checksText,
-	"price":    priceText,
-	"yesno":    yesNo,
-	"spot":     spotText,
-	"airy":     airyText,
-	"limited":  limitedText,
-	"shift":    shiftText,
 	"figure":   figure,
 	"rmsAt":    rmsAt,
 	"timefmt":  func(t time.Time) string { return t.UTC().Format("2006-01-02 15:04 UTC") },
@@ -96,6 +86,7 @@ func WriteReport(w io.Writer, in ReportInput) error {
 		Cautions: Cautions(in.Requirement), RequestRows: in.Request.Rows(), RequestHeader: RequestLabels(), RequestNotes: notesWithoutBuilds(in.Request.Notes()),
 		QualityColumns: search.ShownQuality(in.Results), BuildHeader: BuildHeader}
 	page.RankingNote = rankingNote(in.Requirement, page.QualityColumns)
+	page.ResultsTable = rankedTable(in)
 	in.Draw, in.Plot, page.FieldNote = commonField(in.Picks, in.Draw, in.Plot)
 	for _, s := range in.Picks {
 		p, err := pickPage(s, in)
@@ -112,7 +103,7 @@ func WriteReport(w io.Writer, in ReportInput) error {
 func pickPage(s Solution, in ReportInput) (reportPick, error) {
 	p := reportPick{Rank: s.Result.Rank, Parts: DescribeParts(s.Result.Parts),
 		Spacings: DescribeSpacings(in.Requirement.Kind, s.Result), Figures: qualityFigures(s.Result), Warnings: s.Verify(),
-		Build: s.Build().Rows(SidesOf(in.Requirement.Kind)), Names: partsHTML(s.Result.Parts)}
+		Build: s.Build().Rows(SidesOf(in.Requirement.Kind)), Names: template.HTML(present.PartsHTML(s.Result.Parts))}
 	sc, err := NewScene(s, in.Draw)
 	if err != nil {
 		return p, fmt.Errorf("solution %d: %w", p.Rank, err)
@@ -150,47 +141,29 @@ func notesWithoutBuilds(ns [][2]string) [][2]string {
 // rmsAt is the RMS radius of field i at wavelength j.
 func rmsAt(sp Spots, i, j int) float64 { return sp.Sets[i*len(sp.Wavelengths)+j].RMS }
 
-func optMM(v *float64) string {
-	if v == nil {
-		return "–"
-	}
-	return fmt.Sprintf("%.2f", *v)
-}
-
-func targetText(r search.Result) string {
-	switch {
-	case r.EFL != nil:
-		return fmt.Sprintf("EFL %.3f mm", *r.EFL)
-	case r.Magnification != nil:
-		return fmt.Sprintf("m %.4f", *r.Magnification)
-	case r.Expansion != nil:
-		return fmt.Sprintf("%.4f× %s", *r.Expansion, r.Form)
-	}
-	return "–"
-}
-
-func checksText(r search.Result) string {
-	var bad []string
-	for _, c := range r.Checks {
-		if !c.OK {
-			bad = append(bad, c.Name)
+// rankedTable is the ranked results as find describes them (one
+// presentation model: present.Results), the default columns with the Airy
+// radius, the picks highlighted.
+func rankedTable(in ReportInput) template.HTML {
+	t := present.Results(in.Requirement, in.Results)
+	keys := []string{}
+	for _, c := range t.Columns {
+		if !c.Optional || c.Key == "airy_radius_um" || c.Key == "envelope_mm" || c.Key == "track_mm" && in.Requirement.Kind != search.Expand {
+			keys = append(keys, c.Key)
 		}
 	}
-	if len(bad) == 0 {
-		return "all met"
+	t, err := t.Select(keys, false, false)
+	if err != nil {
+		panic("export: " + err.Error()) // the keys come from the table itself
 	}
-	return fmt.Sprintf("misses %v", bad)
-}
-
-// priceText is the price of every piece, one amount per currency (never
-// summed across currencies), "?" when no piece's price is stated and a
-// "+ ?" when some are not.
-func priceText(r search.Result) string {
-	switch {
-	case len(r.Prices) == 0:
-		return "?"
-	case r.PriceUnknown:
-		return search.AmountsText(r.Prices) + " + ?"
+	picked := map[int]bool{}
+	for _, s := range in.Picks {
+		picked[s.Result.Rank] = true
 	}
-	return search.AmountsText(r.Prices)
+	return template.HTML(present.HTML(t, "results", func(i int) string { // escaped by present.HTML
+		if picked[in.Results[i].Rank] {
+			return "picked"
+		}
+		return ""
+	}))
 }

@@ -2,56 +2,14 @@ package export
 
 import (
 	"fmt"
-	"html/template"
 	"math"
 	"sort"
 	"strconv"
 	"strings"
 
 	"cardinal/search"
+	"cardinal/search/present"
 )
-
-// spotText is the RMS spot on axis, and at the field edge where given, in
-// µm at best focus; "–" where the result was not traced.
-func spotText(r search.Result) string {
-	q := r.ImageQuality
-	if q == nil {
-		return "–"
-	}
-	s := fmt.Sprintf("%.1f", q.RMSSpot)
-	if q.RMSSpotEdge != nil {
-		s += fmt.Sprintf(" / %.1f", *q.RMSSpotEdge)
-	}
-	return s
-}
-
-func airyText(r search.Result) string {
-	if r.ImageQuality == nil {
-		return "–"
-	}
-	return fmt.Sprintf("%.1f", r.AiryRadius)
-}
-
-// limitedText is the Marechal verdict over every field point and
-// wavelength judged: yes, or which fails first (no: on axis, no: field
-// edge, no: colour); yes or no for a result saved before the verdict said
-// why.
-func limitedText(r search.Result) string {
-	if r.ImageQuality == nil {
-		return "–"
-	}
-	if r.DiffractionLimitedWhy != "" {
-		return r.DiffractionLimitedWhy
-	}
-	return yesNo(r.DiffractionLimited)
-}
-
-func shiftText(r search.Result) string {
-	if r.ImageQuality == nil || r.FocalShift == nil {
-		return "–"
-	}
-	return fmt.Sprintf("%.0f", *r.FocalShift)
-}
 
 func yesNo(b bool) string {
 	if b {
@@ -129,7 +87,7 @@ func qualityFigures(r search.Result) []figureRow {
 	for _, k := range rest {
 		rows = append(rows, figureRow{keyLabel(k), figure(r.Quality[k])})
 	}
-	return append(rows, figureRow{"diffraction limited (at most 0.07 waves RMS, Maréchal's criterion, at every field point and wavelength on one shared plane)", limitedText(r)})
+	return append(rows, figureRow{"diffraction limited (at most 0.07 waves RMS, Maréchal's criterion, at every field point and wavelength on one shared plane)", present.Limited(r.ImageQuality).Text})
 }
 
 // keyLabel turns a snake_case key with a unit suffix into words with the
@@ -157,19 +115,6 @@ func figure(v float64) string {
 		return "0"
 	}
 	return s
-}
-
-// partsHTML names the parts in light order for a page, each name in a
-// span that does not break ("(reversed)" where turned).
-func partsHTML(ps []search.PartUse) template.HTML {
-	s := make([]string, len(ps))
-	for i, p := range ps {
-		s[i] = `<span class="part">` + template.HTMLEscapeString(p.ID()) + `</span>`
-		if p.Reversed {
-			s[i] += " (reversed)"
-		}
-	}
-	return template.HTML(strings.Join(s, " + ")) // each name escaped above
 }
 
 // commonField chooses one field for the drawings and plots of every pick

@@ -131,7 +131,7 @@ func TestReportRankedTableQuality(t *testing.T) {
 	page, results := testReportOf(t, req)
 	head, rows := resultsTable(t, page)
 	col := map[string]int{}
-	for _, h := range []string{"RMS spot radius (µm), axis / edge", "Airy radius (µm)", "diffraction limited", "focal shift (µm)"} {
+	for _, h := range []string{"spot µm", "edge spot µm", "Airy µm", "diffraction limited", "focal shift µm"} {
 		if col[h] = slices.Index(head, h); col[h] < 0 {
 			t.Fatalf("the ranked table has no column %q: %q", h, head)
 		}
@@ -145,9 +145,10 @@ func TestReportRankedTableQuality(t *testing.T) {
 			t.Fatalf("result %d was not traced with a field and a band: %+v", r.Rank, q)
 		}
 		want := map[string]string{
-			"RMS spot radius (µm), axis / edge": fmt.Sprintf("%.1f / %.1f", q.RMSSpot, *q.RMSSpotEdge),
-			"diffraction limited":               q.DiffractionLimitedWhy,
-			"focal shift (µm)":                  fmt.Sprintf("%.0f", *q.FocalShift),
+			"spot µm":             fmt.Sprintf("%.1f", q.RMSSpot),
+			"edge spot µm":        fmt.Sprintf("%.1f", *q.RMSSpotEdge),
+			"diffraction limited": q.DiffractionLimitedWhy,
+			"focal shift µm":      fmt.Sprintf("%.0f", *q.FocalShift),
 		}
 		if q.DiffractionLimited != (q.DiffractionLimitedWhy == "yes") || q.DiffractionLimitedWhy == "" {
 			t.Errorf("result %d: diffraction limited %v, why %q", r.Rank, q.DiffractionLimited, q.DiffractionLimitedWhy)
@@ -161,9 +162,9 @@ func TestReportRankedTableQuality(t *testing.T) {
 		// lambda f / D (Born and Wolf, Principles of Optics, 7th ed.,
 		// section 8.5.2); a real marginal ray's sine differs from D / 2f by
 		// well under 1 % at f/9.
-		airy, err := strconv.ParseFloat(rows[i][col["Airy radius (µm)"]], 64)
+		airy, err := strconv.ParseFloat(rows[i][col["Airy µm"]], 64)
 		if wantAiry := 1.22 * req.Lambda() * 1e-3 * *r.EFL / req.Beam; err != nil || math.Abs(airy-wantAiry) > 0.02*wantAiry {
-			t.Errorf("result %d: Airy radius cell %q, want %.2f µm within 2 %%", r.Rank, rows[i][col["Airy radius (µm)"]], wantAiry)
+			t.Errorf("result %d: Airy radius cell %q, want %.2f µm within 2 %%", r.Rank, rows[i][col["Airy µm"]], wantAiry)
 		}
 	}
 	note := page[strings.Index(page, `id="ranking-note"`):]

@@ -112,9 +112,10 @@ func WriteJSON(w io.Writer, t Table) error {
 	return err
 }
 
-// HTML is the table as an HTML table of the cells' text (escaped); numeric
-// columns carry the class "num" so a page can align them.
-func HTML(t Table, class string) string {
+// HTML is the table as an HTML table of the cells' text (escaped) or their
+// HTML; numeric columns carry the class "num" so a page can align them,
+// and rowClass (nil for none) names a class for a row, "" for none.
+func HTML(t Table, class string, rowClass func(row int) string) string {
 	var b strings.Builder
 	fmt.Fprintf(&b, "<table class=\"%s\">\n<thead><tr>", html.EscapeString(class))
 	num := numeric(t)
@@ -122,13 +123,26 @@ func HTML(t Table, class string) string {
 		fmt.Fprintf(&b, "<th>%s</th>", html.EscapeString(c.Heading()))
 	}
 	b.WriteString("</tr></thead>\n<tbody>\n")
-	for _, row := range t.Rows {
-		b.WriteString("<tr>")
-		for i, c := range row {
-			if num[i] {
-				fmt.Fprintf(&b, "<td class=\"num\">%s</td>", html.EscapeString(c.Text))
+	for r, row := range t.Rows {
+		if rc := ""; rowClass != nil {
+			rc = rowClass(r)
+			if rc != "" {
+				fmt.Fprintf(&b, "<tr class=\"%s\">", html.EscapeString(rc))
 			} else {
-				fmt.Fprintf(&b, "<td>%s</td>", html.EscapeString(c.Text))
+				b.WriteString("<tr>")
+			}
+		} else {
+			b.WriteString("<tr>")
+		}
+		for i, c := range row {
+			cell := c.HTML
+			if cell == "" {
+				cell = html.EscapeString(c.Text)
+			}
+			if num[i] {
+				fmt.Fprintf(&b, "<td class=\"num\">%s</td>", cell)
+			} else {
+				fmt.Fprintf(&b, "<td>%s</td>", cell)
 			}
 		}
 		b.WriteString("</tr>\n")

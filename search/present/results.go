@@ -1,6 +1,7 @@
 package present
 
 import (
+	"html"
 	"math"
 	"slices"
 	"strings"
@@ -46,7 +47,7 @@ func resultColumns(req search.Requirement, rs []search.Result, qs search.Quality
 	focus, image, expand := req.Kind == search.Focus, req.Kind == search.Image, req.Kind == search.Expand
 	cols := []resultColumn{
 		{Column{Key: "rank", Keep: 9, Label: "#"}, func(r search.Result) Cell { return Int(r.Rank) }},
-		{Column{Key: "parts", Keep: 9, Label: "parts"}, func(r search.Result) Cell { return Text(PartsText(r.Parts)) }},
+		{Column{Key: "parts", Keep: 9, Label: "parts"}, func(r search.Result) Cell { return partsCell(r.Parts) }},
 		{Column{Key: "working_distance_mm", Keep: 6, Label: "wd", Unit: "mm", Optional: !image},
 			func(r search.Result) Cell { return OptNum(r.WorkingDistance, 2) }},
 		{Column{Key: "gap_mm", Keep: 6, Label: "gap", Unit: "mm"}, func(r search.Result) Cell { return OptNum(r.Gap, 2) }},
@@ -136,6 +137,26 @@ func PartsText(ps []search.PartUse) string {
 	s := make([]string, len(ps))
 	for i, p := range ps {
 		s[i] = p.ID()
+		if p.Reversed {
+			s[i] += " (reversed)"
+		}
+	}
+	return strings.Join(s, " + ")
+}
+
+// partsCell names the parts, each name unbroken on a page.
+func partsCell(ps []search.PartUse) Cell {
+	c := Text(PartsText(ps))
+	c.HTML = PartsHTML(ps)
+	return c
+}
+
+// PartsHTML names the parts for a page, escaped, each name in a span that
+// does not break, "(reversed)" after a part turned around.
+func PartsHTML(ps []search.PartUse) string {
+	s := make([]string, len(ps))
+	for i, p := range ps {
+		s[i] = `<span class="part">` + html.EscapeString(p.ID()) + `</span>`
 		if p.Reversed {
 			s[i] += " (reversed)"
 		}

@@ -44,6 +44,9 @@ func (c Column) Heading() string {
 type Cell struct {
 	Text string
 	Raw  any
+	// HTML, when set, is the cell for a page, already escaped (part names
+	// that must not break); pages show Text otherwise.
+	HTML string
 }
 
 // A Table is columns and rows of cells, one cell per column.
