@@ -25,7 +25,8 @@ func (r PartRow) ID() string { return r.Supplier + ":" + r.Part }
 
 // Computed returns the stored computed columns of the parts the filter
 // selects, ordered by supplier and part, from one snapshot of the catalog.
-func (s *Store) Computed(ctx context.Context, f Filter) ([]PartRow, error) {
+func (s *Store) Computed(ctx context.Context, f Filter) (_ []PartRow, err error) {
+	defer s.classify(&err)
 	where, args, err := f.where()
 	if err != nil {
 		return nil, err

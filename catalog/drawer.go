@@ -14,7 +14,8 @@ type DrawerItem = importers.DrawerItem
 
 // Drawer returns the parts with at least one piece in the drawer, keyed by
 // SUPPLIER:PART.
-func (s *Store) Drawer(ctx context.Context) (map[string]DrawerItem, error) {
+func (s *Store) Drawer(ctx context.Context) (_ map[string]DrawerItem, err error) {
+	defer s.classify(&err)
 	items, err := s.DrawerItems(ctx)
 	if err != nil {
 		return nil, err
@@ -30,7 +31,8 @@ func (s *Store) Drawer(ctx context.Context) (map[string]DrawerItem, error) {
 
 // DrawerItems returns every drawer row, those with none left included,
 // ordered by supplier and part.
-func (s *Store) DrawerItems(ctx context.Context) ([]DrawerItem, error) {
+func (s *Store) DrawerItems(ctx context.Context) (_ []DrawerItem, err error) {
+	defer s.classify(&err)
 	rows, err := s.db.QueryContext(ctx, `SELECT p.supplier, p.part, d.quantity, d.location
 		FROM drawer d JOIN parts p ON p.id = d.part_id ORDER BY p.supplier, p.part`)
 	if err != nil {
@@ -59,7 +61,8 @@ type DrawerReport struct {
 // close names), a negative quantity or a part given twice changes nothing,
 // and the *ImportError lists every problem with its line. Parts not in the
 // list keep their drawer rows.
-func (s *Store) ImportDrawer(ctx context.Context, items []DrawerItem, dryRun bool) (DrawerReport, error) {
+func (s *Store) ImportDrawer(ctx context.Context, items []DrawerItem, dryRun bool) (_ DrawerReport, err error) {
+	defer s.classify(&err)
 	rep := DrawerReport{DryRun: dryRun}
 	tx, err := s.db.BeginTx(ctx, nil)
 	if err != nil {
@@ -122,7 +125,8 @@ func resolveItems(ctx context.Context, tx *sql.Tx, items []DrawerItem) ([]int64,
 // SetDrawer sets how many of the part named SUPPLIER:PART are in the drawer
 // and where; keepLocation leaves a stored location as it is. A part not in
 // the catalog gives a *NotFoundError that suggests close names.
-func (s *Store) SetDrawer(ctx context.Context, id string, quantity int, location string, keepLocation bool) (DrawerItem, error) {
+func (s *Store) SetDrawer(ctx context.Context, id string, quantity int, location string, keepLocation bool) (_ DrawerItem, err error) {
+	defer s.classify(&err)
 	if quantity < 0 {
 		return DrawerItem{}, fmt.Errorf("quantity %d is negative", quantity)
 	}

@@ -10,6 +10,11 @@ type OpenError struct {
 	Path   string
 	Reason string // reads after the path: "is a directory; ..."
 	Err    error  // the underlying error, if any
+	// Missing is true when the file does not exist (or holds no catalog
+	// yet) and a command that only reads was pointed at it.
+	Missing bool
+	// ReadOnly is true when the file or its folder cannot be written.
+	ReadOnly bool
 }
 
 func (e *OpenError) Error() string { return "catalog " + e.Path + " " + e.Reason }

@@ -17,7 +17,8 @@ import (
 // of the same name), then the user's glass aliases, each under its own
 // name as the medium it stands for. Air and six-digit glass codes resolve
 // as always.
-func (s *Store) Glasses(ctx context.Context) (optics.GlassTable, error) {
+func (s *Store) Glasses(ctx context.Context) (_ optics.GlassTable, err error) {
+	defer s.classify(&err)
 	t, err := readGlassTable(ctx, s.db)
 	if err != nil {
 		return nil, err
@@ -26,7 +27,8 @@ func (s *Store) Glasses(ctx context.Context) (optics.GlassTable, error) {
 }
 
 // UserGlasses returns the user's glasses as imported, ordered by name.
-func (s *Store) UserGlasses(ctx context.Context) ([]importers.Glass, error) {
+func (s *Store) UserGlasses(ctx context.Context) (_ []importers.Glass, err error) {
+	defer s.classify(&err)
 	return readUserGlasses(ctx, s.db)
 }
 

@@ -22,7 +22,8 @@ type GlassReport struct {
 // changed glass, all in one transaction: a list with any bad glass changes
 // nothing and returns an *ImportError naming every one. With dryRun the
 // report is worked out and nothing is kept.
-func (s *Store) ImportGlasses(ctx context.Context, glasses []importers.Glass, dryRun bool) (GlassReport, error) {
+func (s *Store) ImportGlasses(ctx context.Context, glasses []importers.Glass, dryRun bool) (_ GlassReport, err error) {
+	defer s.classify(&err)
 	rep := GlassReport{DryRun: dryRun}
 	if bad := checkGlasses(glasses); len(bad) > 0 {
 		return rep, &ImportError{Rows: bad}

@@ -28,7 +28,8 @@ type ImportReport struct {
 // nothing the second time. Media must be known to the catalog's glass table
 // (built-in glasses, six-digit codes, air, or the user's glasses). With
 // dryRun every check runs and nothing is kept.
-func (s *Store) Import(ctx context.Context, entries []importers.Entry, dryRun bool) (ImportReport, error) {
+func (s *Store) Import(ctx context.Context, entries []importers.Entry, dryRun bool) (_ ImportReport, err error) {
+	defer s.classify(&err)
 	rep := ImportReport{DryRun: dryRun}
 	tx, err := s.db.BeginTx(ctx, nil)
 	if err != nil {

@@ -13,7 +13,8 @@ import (
 // Part returns the full prescription of the part named SUPPLIER:PART (or
 // PART alone, when one supplier only has a part of that name). A name the
 // catalog does not hold gives a *NotFoundError that suggests close names.
-func (s *Store) Part(ctx context.Context, id string) (importers.Entry, error) {
+func (s *Store) Part(ctx context.Context, id string) (_ importers.Entry, err error) {
+	defer s.classify(&err)
 	tx, err := s.db.BeginTx(ctx, &sql.TxOptions{ReadOnly: true})
 	if err != nil {
 		return importers.Entry{}, err

@@ -21,7 +21,8 @@ type querier interface {
 // ordered by supplier and part, with their media resolved in the catalog's
 // glass table and their stored warnings. All of it is read from one
 // snapshot of the catalog.
-func (s *Store) Entries(ctx context.Context, f Filter) ([]importers.Entry, error) {
+func (s *Store) Entries(ctx context.Context, f Filter) (_ []importers.Entry, err error) {
+	defer s.classify(&err)
 	tx, err := s.db.BeginTx(ctx, &sql.TxOptions{ReadOnly: true})
 	if err != nil {
 		return nil, err

@@ -11,7 +11,8 @@ import (
 // drawer row the part had (zero if none), so that the caller can say what
 // went with it. A name the catalog does not hold gives a *NotFoundError that
 // suggests close names, and changes nothing.
-func (s *Store) Remove(ctx context.Context, id string) (DrawerItem, error) {
+func (s *Store) Remove(ctx context.Context, id string) (_ DrawerItem, err error) {
+	defer s.classify(&err)
 	tx, err := s.db.BeginTx(ctx, nil)
 	if err != nil {
 		return DrawerItem{}, s.wrapWriteError(err)

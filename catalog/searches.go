@@ -38,7 +38,8 @@ type SearchSummary struct {
 }
 
 // SaveSearch stores a search and returns its id; ss.ID is ignored.
-func (s *Store) SaveSearch(ctx context.Context, ss SavedSearch) (int64, error) {
+func (s *Store) SaveSearch(ctx context.Context, ss SavedSearch) (_ int64, err error) {
+	defer s.classify(&err)
 	outcome := ss.Outcome
 	if len(outcome) == 0 {
 		outcome = []byte("{}")
@@ -83,7 +84,8 @@ func (e *RefError) Error() string {
 
 // LoadSearch returns the search with the id ref, or the latest one when
 // ref is "last". A search that is not there gives a *NotFoundError.
-func (s *Store) LoadSearch(ctx context.Context, ref string) (SavedSearch, error) {
+func (s *Store) LoadSearch(ctx context.Context, ref string) (_ SavedSearch, err error) {
+	defer s.classify(&err)
 	id, err := s.SearchID(ctx, ref)
 	if err != nil {
 		return SavedSearch{}, err

@@ -8,10 +8,10 @@ import (
 	"io"
 	"io/fs"
 	"os"
+	"path/filepath"
 	"strings"
-
-	"modernc.org/sqlite"
-	sqlite3 "modernc.org/sqlite/lib"
+	"syscall"
+	"time"
 )
 
 // applicationID marks a database file as a cardinal catalog (PRAGMA
@@ -24,8 +24,10 @@ const Memory = ":memory:"
 // A Store is an open catalog: the user's parts, glasses, drawer and saved
 // searches in one SQLite file. It is safe for use by several goroutines.
 type Store struct {
-	db   *sql.DB
-	path string
+	db       *sql.DB
+	path     string
+	readOnly bool
+	reading  bool // opened by OpenRead: never creates a schema
 }
 
 // Path is the file the store was opened from, or Memory.
@@ -44,7 +46,13 @@ func Open(path string) (*Store, error) {
 			return nil, err
 		}
 	}
-	db, err := sql.Open("sqlite", dsn(path))
+	return openWith(path, "", false)
+}
+
+// openWith opens the file with the dsnMode given; reading is true for
+// OpenRead (a file without a catalog yet is refused, not created).
+func openWith(path, mode string, reading bool) (*Store, error) {
+	db, err := sql.Open("sqlite", dsnMode(path, mode))
 	if err != nil {
 		return nil, fmt.Errorf("opening catalog %s: %w", path, err)
 	}
@@ -52,7 +60,7 @@ func Open(path string) (*Store, error) {
 		// Every new connection to ":memory:" is a new, empty database: keep one.
 		db.SetMaxOpenConns(1)
 	}
-	s := &Store{db: db, path: path}
+	s := &Store{db: db, path: path, readOnly: mode != "", reading: reading}
 	if err := s.prepare(context.Background()); err != nil {
 		db.Close()
 		return nil, err
@@ -71,9 +79,26 @@ func (s *Store) Close() error { return s.db.Close() }
 // that two importers queue up rather than fail half-way with a stale
 // snapshot (read transactions stay deferred).
 func dsn(path string) string {
-	q := "?_pragma=foreign_keys(1)&_pragma=busy_timeout(10000)&_pragma=cache_size(-65536)&_pragma=temp_store(2)&_pragma=mmap_size(268435456)&_txlock=immediate"
+	return dsnMode(path, "")
+}
+
+// LockWait is how long a write waits for another writer (an import in
+// another process) to finish before it gives up with a *BusyError.
+const LockWait = 30 * time.Second
+
+// dsnMode adds mode to the connection string: "" read-write, "ro" read
+// only, "ro-immutable" read only without locks for a file in a folder no
+// one can write (SQLite's immutable URI parameter).
+func dsnMode(path, mode string) string {
+	q := fmt.Sprintf("?_pragma=foreign_keys(1)&_pragma=busy_timeout(%d)&_pragma=cache_size(-65536)&_pragma=temp_store(2)&_pragma=mmap_size(268435456)&_txlock=immediate", LockWait.Milliseconds())
 	if path == Memory {
 		return Memory + q
+	}
+	switch mode {
+	case "ro":
+		q += "&mode=ro"
+	case "ro-immutable":
+		q += "&mode=ro&immutable=1"
 	}
 	// A file: URI, so that '?' and '#' in a file name are escaped, not parsed.
 	r := strings.NewReplacer("%", "%25", "?", "%3f", "#", "%23")
@@ -98,6 +123,9 @@ func checkFile(path string) error {
 	if st.IsDir() {
 		return &OpenError{Path: path, Reason: "is a directory; give the path of a catalog file"}
 	}
+	if !st.Mode().IsRegular() {
+		return &OpenError{Path: path, Reason: "is not a regular file (a device or pipe); give the path of a catalog file"}
+	}
 	head := make([]byte, 16)
 	n, err := io.ReadFull(f, head)
 	if n == 0 {
@@ -115,6 +143,17 @@ func (s *Store) prepare(ctx context.Context) error {
 	version, err := s.checkOwner(ctx)
 	if err != nil {
 		return err
+	}
+	if err := s.checkTables(ctx, version); err != nil {
+		return err
+	}
+	switch {
+	case s.reading && version == 0:
+		return &OpenError{Path: s.path, Missing: true, Reason: "holds no catalog yet (an SQLite file without tables); create one there with 'cardinal catalog import FILE'"}
+	case s.readOnly && version < len(migrations):
+		return &OpenError{Path: s.path, ReadOnly: true, Reason: fmt.Sprintf("was written by an older version of cardinal (schema %d of %d) and is read-only here; run any cardinal command on it once with write access to bring it up to date", version, len(migrations))}
+	case s.readOnly:
+		return nil // read only: the journal mode is the file's own
 	}
 	if err := s.migrate(ctx, version); err != nil {
 		return s.wrapWriteError(err)
@@ -164,22 +203,72 @@ func (s *Store) checkOwner(ctx context.Context) (version int, err error) {
 	return version, nil
 }
 
-// wrapWriteError turns SQLite's failures to open or write the file into
-// messages that say what to do.
-func (s *Store) wrapWriteError(err error) error {
-	if err == nil {
-		return nil
+// checkTables refuses a catalog that lacks a table its schema version
+// should hold (a damaged or hand-edited file), before any query fails on
+// it half-way.
+func (s *Store) checkTables(ctx context.Context, version int) error {
+	rows, err := s.db.QueryContext(ctx, "SELECT lower(name) FROM sqlite_schema WHERE type = 'table'")
+	if err != nil {
+		return s.wrapWriteError(err)
 	}
-	var se *sqlite.Error
-	if errors.As(err, &se) {
-		switch se.Code() & 0xff {
-		case sqlite3.SQLITE_READONLY, sqlite3.SQLITE_PERM, sqlite3.SQLITE_CANTOPEN:
-			return &OpenError{Path: s.path, Reason: "cannot be created or written here (read-only location or no permission); choose a writable path with --db or CARDINAL_DB", Err: err}
-		case sqlite3.SQLITE_NOTADB:
-			return &OpenError{Path: s.path, Reason: "is not a cardinal catalog (not an SQLite database); choose another file with --db or CARDINAL_DB", Err: err}
-		case sqlite3.SQLITE_CORRUPT:
-			return &OpenError{Path: s.path, Reason: "is damaged (SQLite reports corruption); restore it from a backup or an export", Err: err}
+	defer rows.Close()
+	have := map[string]bool{}
+	for rows.Next() {
+		var n string
+		if err := rows.Scan(&n); err != nil {
+			return s.wrapWriteError(err)
+		}
+		have[n] = true
+	}
+	if err := rows.Err(); err != nil {
+		return s.wrapWriteError(err)
+	}
+	for _, t := range tablesOf(version) {
+		if !have[t] {
+			return &OpenError{Path: s.path, Reason: "is damaged: its table " + t + " is missing; restore it from a backup or an export, or import your data into a new catalog"}
 		}
 	}
-	return fmt.Errorf("catalog %s: %w", s.path, err)
+	return nil
 }
+
+// OpenRead opens an existing catalog file for reading, writing nothing
+// to a file that is not a cardinal catalog yet: a missing or empty file,
+// or an SQLite database without tables, is an *OpenError with Missing
+// set. A catalog the user may not write (its file or folder read-only)
+// opens read only; then SaveSearch fails with an *OpenError with
+// ReadOnly set, and everything else works. A writable catalog of an older
+// schema is brought up to date as Open does.
+func OpenRead(path string) (*Store, error) {
+	st, err := os.Stat(path)
+	switch {
+	case errors.Is(err, fs.ErrNotExist):
+		return nil, &OpenError{Path: path, Missing: true, Reason: "does not exist; create it with 'cardinal catalog import FILE' (with the same --db or CARDINAL_DB), or leave both unset to use the demo catalog", Err: err}
+	case err != nil:
+		return nil, &OpenError{Path: path, Reason: "cannot be read (" + err.Error() + "); check its permissions or give another path with --db", Err: err}
+	case st.Mode().IsRegular() && st.Size() == 0:
+		return nil, &OpenError{Path: path, Missing: true, Reason: "is an empty file, not a catalog yet; create one there with 'cardinal catalog import FILE'"}
+	}
+	if err := checkFile(path); err != nil {
+		return nil, err
+	}
+	if writable(path) && writable(filepath.Dir(path)) {
+		return openWith(path, "", true)
+	}
+	s, err := openWith(path, "ro", true)
+	if err != nil {
+		s, err = openWith(path, "ro-immutable", true)
+	}
+	if err == nil {
+		s.readOnly = true
+	}
+	return s, err
+}
+
+// writable tells whether this process may write path (access(2)).
+func writable(path string) bool {
+	return syscall.Access(path, 2) == nil // W_OK
+}
+
+// ReadOnly tells whether the store was opened read only (OpenRead on a
+// catalog the user may not write).
+func (s *Store) ReadOnly() bool { return s.readOnly }

@@ -24,6 +24,12 @@ type Outcome struct {
 	Candidates int `json:"candidates"`
 	Evaluated  int `json:"evaluated"`
 	Solved     int `json:"solved"`
+	// Met is how many layouts meet every check when MetExact; otherwise
+	// the kept list filled up, the bound it set pruned the rest, and Met is
+	// only known to be at least the number kept (and is not reported, as
+	// it depends on the order the workers ran in).
+	Met      int  `json:"-"`
+	MetExact bool `json:"-"`
 }
 
 // Find runs the pruned search. The requirement is validated first.
@@ -52,7 +58,8 @@ func runPrepared(p *prepared, req Requirement, prune bool) (Outcome, error) {
 	} else {
 		s.exhaustive()
 	}
-	out := Outcome{Requirement: req, Candidates: len(p.cands), Evaluated: s.evaluated, Solved: s.solved}
+	out := Outcome{Requirement: req, Candidates: len(p.cands), Evaluated: s.evaluated, Solved: s.solved,
+		Met: s.met, MetExact: !s.full()}
 	ls := s.sorted()
 	met, traced := len(ls), 0
 	var js []judgement
@@ -76,6 +83,9 @@ func runPrepared(p *prepared, req Requirement, prune bool) (Outcome, error) {
 	out.Notes = notes(p, req)
 	if met > 0 {
 		out.Notes = append(out.Notes, qualityNotes(req, traced, met, js)...)
+	}
+	if n := shownNote(out); n != "" {
+		out.Notes = append(out.Notes, n)
 	}
 	if len(out.Results) == 0 {
 		out.Why = s.why(p)
@@ -168,8 +178,8 @@ func (s *search) studyBuilds(p *prepared, ls []layout, rs []Result) ([]Result, e
 		}
 		return st[i].Score < st[j].Score
 	})
-	if s.req.Top > 0 && len(rs) > s.req.Top {
-		rs = rs[:s.req.Top]
+	if len(rs) > s.req.Shown() {
+		rs = rs[:s.req.Shown()]
 	}
 	for k := range rs {
 		rs[k].Rank = k + 1
@@ -204,4 +214,23 @@ func zeroNaN(v float64) float64 {
 		return 0
 	}
 	return v
+}
+
+// shownNote says, when the list shown may not be every layout that
+// meets, how many met (when that is known), how many are shown and how to
+// see more or narrow the requirement.
+func shownNote(out Outcome) string {
+	shown := len(out.Results)
+	if shown == 0 || out.MetExact && out.Met <= shown {
+		return ""
+	}
+	more := fmt.Sprintf("--top shows more (at most %d); ", MaxShown)
+	if out.Requirement.Shown() >= MaxShown {
+		more = ""
+	}
+	how := more + "a tighter tolerance, --envelope-max, --diameter-max or --supplier narrows the requirement"
+	if out.MetExact {
+		return fmt.Sprintf("%d shown of the %d layouts that meet the requirement: %s", shown, out.Met, how)
+	}
+	return fmt.Sprintf("the best %d shown; more layouts may meet the requirement (the search stops counting once the best are certain): %s", shown, how)
 }

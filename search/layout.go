@@ -99,7 +99,7 @@ func (s *search) finish(l *layout) bool {
 		return false
 	}
 	r := &s.req
-	if math.Abs(l.err) > s.tol {
+	if math.Abs(l.err) > s.tol+onTarget(s.req) {
 		l.fails |= failTarget
 	}
 	if !math.IsNaN(l.bc) && l.bc < r.BFDMin {
@@ -108,8 +108,8 @@ func (s *search) finish(l *layout) bool {
 	if !math.IsNaN(l.wd) && l.wd < r.WDMin {
 		l.fails |= failWD
 	}
-	if r.LengthMax > 0 && l.env > r.LengthMax {
-		l.fails |= failEnvelope
+	if l.env > r.LengthLimit() || l.track > r.TrackLimit() {
+		l.fails |= failEnvelope // NaN tracks (afocal) compare false
 	}
 	if l.pair() {
 		b := &s.c[l.b]

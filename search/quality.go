@@ -157,18 +157,15 @@ func (r Requirement) TracesRays() bool {
 
 // survivors is how many layouts the first-order search keeps: the top N
 // and, when real rays are traced, a margin (3N, at least 30) so that image
-// quality can reorder them. 0 keeps every layout that meets.
+// quality can reorder them; never more than MaxShown.
 func survivors(r Requirement) int {
-	if r.Top == 0 {
-		return 0
-	}
 	if r.Prefer == PreferRobust && !r.TracesRays() {
-		return max(3*r.Top, 30) // the build study reorders them (find.go)
+		return min(max(3*r.Shown(), 30), MaxShown) // the build study reorders them (find.go)
 	}
 	if !r.TracesRays() {
-		return r.Top
+		return r.Shown()
 	}
-	return max(3*r.Top, 30)
+	return min(max(3*r.Shown(), 30), MaxShown)
 }
 
 // Conditions are the real-ray conditions of the requirement for a layout
@@ -229,8 +226,8 @@ func (s *search) judge(p *prepared, ls []layout) ([]layout, []judgement, int) {
 		idx[i] = i
 	}
 	sort.SliceStable(idx, func(a, b int) bool { return s.judgedBefore(&ls[idx[a]], &ls[idx[b]], &js[idx[a]], &js[idx[b]]) })
-	if s.req.Top > 0 && len(idx) > s.req.Top {
-		idx = idx[:s.req.Top]
+	if len(idx) > s.req.Shown() {
+		idx = idx[:s.req.Shown()]
 	}
 	outL, outJ := make([]layout, len(idx)), make([]judgement, len(idx))
 	for k, i := range idx {

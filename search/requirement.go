@@ -3,10 +3,8 @@ package search
 import (
 	"bytes"
 	"encoding/json"
-	"errors"
 	"fmt"
 	"math"
-	"strings"
 
 	"cardinal/optics"
 )
@@ -203,148 +201,166 @@ func (r Requirement) IsLaser() bool {
 }
 
 // Validate rejects impossible or contradictory requirements before any
-// search, every problem in one error.
+// search, every problem in one *RequirementError that names each field by
+// its JSON key. Every number must be finite and inside its Range, so that
+// nothing downstream divides into an infinity.
 func (r Requirement) Validate() error {
-	var errs []string
-	bad := func(format string, a ...any) { errs = append(errs, fmt.Sprintf(format, a...)) }
+	var ps problems
 	for _, f := range r.numbers() {
-		if math.IsNaN(f.v) || math.IsInf(f.v, 0) {
-			bad("%s must be a finite number", f.name)
-		} else if f.v < 0 && f.name != "magnification" {
-			bad("%s is negative (%g)", f.name, f.v)
+		rg := rangeOf(f.key)
+		v := f.v
+		if f.key == "magnification" {
+			v = math.Abs(v)
+		}
+		switch {
+		case math.IsNaN(f.v) || math.IsInf(f.v, 0):
+			ps.add("{%s} must be a finite number (%s)", f.key, rg)
+		case f.v < 0 && f.key != "magnification":
+			ps.add("{%s} is negative (%g); give %s", f.key, f.v, rg)
+		case f.v != 0 && (v < rg.Min || v > rg.Max):
+			ps.add("{%s} %g is outside %s", f.key, f.v, rg)
 		}
 	}
-	if len(errs) > 0 {
-		return joinProblems(errs)
+	if len(ps) > 0 {
+		return ps.err()
 	}
 	switch r.Kind {
 	case Focus:
-		r.validateFocus(bad)
+		r.validateFocus(&ps)
 	case Image:
-		r.validateImage(bad)
+		r.validateImage(&ps)
 	case Expand:
-		r.validateExpand(bad)
+		r.validateExpand(&ps)
+	case "":
+		ps.add("say what to find: an EFL ({efl_mm}), a track and magnification ({track_mm}, {magnification}), or a beam expansion ({expansion})")
 	default:
-		bad("say what to find: an EFL (--efl), a track and magnification (--track, --mag), or a beam expansion (--expand)")
+		ps.add("unknown {kind} %q: use focus, image or expand", r.Kind)
 	}
-	r.validateCommon(bad)
-	return joinProblems(errs)
+	r.validateCommon(&ps)
+	return ps.err()
 }
 
 type named struct {
-	name string
-	v    float64
+	key string // JSON key
+	v   float64
 }
 
 func (r Requirement) numbers() []named {
-	return []named{{"efl", r.EFL}, {"efl tolerance", r.EFLTol.Value}, {"track", r.Track},
-		{"magnification", r.Mag}, {"magnification tolerance", r.MagTol.Value},
-		{"object height", r.ObjectHeight}, {"NA", r.NA}, {"working distance minimum", r.WDMin},
-		{"expansion", r.Expansion}, {"expansion tolerance", r.ExpandTol.Value}, {"beam", r.Beam},
-		{"back clearance minimum", r.BFDMin}, {"length maximum", r.LengthMax},
-		{"diameter maximum", r.DiameterMax}, {"gap minimum", r.GapMin}, {"wavelength", r.Wavelength},
-		{"field angle", r.FieldAngle}, {"power", r.Power}}
+	ns := []named{{"efl_mm", r.EFL}, {"efl_tol", r.EFLTol.Value}, {"track_mm", r.Track},
+		{"magnification", r.Mag}, {"mag_tol", r.MagTol.Value},
+		{"object_height_mm", r.ObjectHeight}, {"na", r.NA}, {"working_distance_min_mm", r.WDMin},
+		{"expansion", r.Expansion}, {"expand_tol", r.ExpandTol.Value}, {"beam_mm", r.Beam},
+		{"back_clearance_min_mm", r.BFDMin}, {"envelope_max_mm", r.LengthMax},
+		{"diameter_max_mm", r.DiameterMax}, {"gap_min_mm", r.GapMin}, {"wavelength_nm", r.Wavelength},
+		{"field_angle_deg", r.FieldAngle}, {"power_w", r.Power}, {"top", float64(r.Top)}}
+	for _, b := range r.Band {
+		ns = append(ns, named{"band_nm", b})
+	}
+	return ns
 }
 
-func (r Requirement) validateFocus(bad func(string, ...any)) {
+func (r Requirement) validateFocus(ps *problems) {
 	if r.EFL <= 0 {
-		bad("a focus requirement needs a positive EFL (--efl); to spread a beam use --expand")
+		ps.add("a focus requirement needs a positive EFL ({efl_mm}); to spread a beam use {expansion}")
 	} else if r.EFLTol.Abs(r.EFL) >= r.EFL {
-		bad("the EFL tolerance %s is as large as the EFL itself", r.EFLTol)
+		ps.add("the EFL tolerance {efl_tol} %s is as large as the EFL itself", r.EFLTol)
 	}
-	r.notFor("focus", bad, named{"--track", r.Track}, named{"--mag", r.Mag}, named{"--na", r.NA},
-		named{"--object-height", r.ObjectHeight}, named{"--working-distance-min", r.WDMin}, named{"--expand", r.Expansion})
+	r.notFor(Focus, ps, named{"track_mm", r.Track}, named{"magnification", r.Mag}, named{"na", r.NA},
+		named{"object_height_mm", r.ObjectHeight}, named{"working_distance_min_mm", r.WDMin}, named{"expansion", r.Expansion})
 	if r.Form != AnyForm {
-		bad("--galilean and --keplerian apply to --expand only")
-	}
-	if r.FieldAngle >= 90 {
-		bad("a field angle of %g degrees is not below 90", r.FieldAngle)
+		ps.add("{form} applies to an expand requirement only")
 	}
 }
 
-func (r Requirement) validateImage(bad func(string, ...any)) {
+func (r Requirement) validateImage(ps *problems) {
 	switch {
 	case r.Track <= 0:
-		bad("an image requirement needs a positive track (--track), object plane to image plane")
+		ps.add("an image requirement needs a positive track ({track_mm}), object plane to image plane")
 	case r.Mag == 0:
-		bad("an image requirement needs a non-zero magnification (--mag); an object at infinity is a focus requirement (--efl)")
+		ps.add("an image requirement needs a non-zero magnification ({magnification}); an object at infinity is a focus requirement ({efl_mm})")
 	case r.MagTol.Abs(r.Mag) >= math.Abs(r.Mag):
-		bad("the magnification tolerance %s is as large as the magnification itself", r.MagTol)
+		ps.add("the magnification tolerance {mag_tol} %s is as large as the magnification itself", r.MagTol)
 	case r.WDMin+r.BFDMin >= r.Track:
-		bad("the working distance minimum %g mm and back clearance minimum %g mm leave nothing of the %g mm track", r.WDMin, r.BFDMin, r.Track)
+		ps.add("the working distance minimum {working_distance_min_mm} %g mm and back clearance minimum {back_clearance_min_mm} %g mm leave nothing of the %g mm track", r.WDMin, r.BFDMin, r.Track)
 	case r.Mag > 0 && r.MaxElements() == 1:
-		bad("a single part forms an inverted real image (negative magnification); an erect image (%g) needs two elements", r.Mag)
+		ps.add("a single part forms an inverted real image (negative magnification); an erect image (%g) needs two {elements}", r.Mag)
 	}
-	if r.NA >= 1 {
-		bad("an NA in air must be below 1, not %g", r.NA)
+	r.notFor(Image, ps, named{"efl_mm", r.EFL}, named{"beam_mm", r.Beam}, named{"expansion", r.Expansion})
+	if r.FieldAngle != 0 {
+		ps.add("{field_angle_deg} does not apply to an image requirement: give {object_height_mm}")
 	}
-	r.notFor("image", bad, named{"--efl", r.EFL}, named{"--beam", r.Beam}, named{"--expand", r.Expansion},
-		named{"--field-angle (for an image give --object-height)", r.FieldAngle})
 	if r.Form != AnyForm {
-		bad("--galilean and --keplerian apply to --expand only")
+		ps.add("{form} applies to an expand requirement only")
 	}
 }
 
-func (r Requirement) validateExpand(bad func(string, ...any)) {
+func (r Requirement) validateExpand(ps *problems) {
 	switch {
 	case r.Expansion <= 0:
-		bad("a beam expansion (--expand) must be positive: output over input beam diameter")
+		ps.add("a beam expansion ({expansion}) must be positive: output over input beam diameter")
 	case r.ExpandTol.Abs(r.Expansion) >= r.Expansion:
-		bad("the expansion tolerance %s is as large as the expansion itself", r.ExpandTol)
+		ps.add("the expansion tolerance {expand_tol} %s is as large as the expansion itself", r.ExpandTol)
 	}
 	if r.MaxElements() == 1 {
-		bad("a beam expander needs two elements; drop --elements 1")
+		ps.add("a beam expander needs two elements; drop {elements} 1")
 	}
 	if r.Form != AnyForm && r.Form != Keplerian && r.Form != Galilean {
-		bad("unknown expander form %q: use keplerian or galilean", r.Form)
+		ps.add("unknown expander {form} %q: use keplerian or galilean", r.Form)
 	}
-	r.notFor("expand", bad, named{"--efl", r.EFL}, named{"--track", r.Track}, named{"--mag", r.Mag},
-		named{"--na", r.NA}, named{"--object-height", r.ObjectHeight}, named{"--working-distance-min", r.WDMin},
-		named{"--back-clearance-min", r.BFDMin}, named{"--field-angle", r.FieldAngle})
+	r.notFor(Expand, ps, named{"efl_mm", r.EFL}, named{"track_mm", r.Track}, named{"magnification", r.Mag},
+		named{"na", r.NA}, named{"object_height_mm", r.ObjectHeight}, named{"working_distance_min_mm", r.WDMin},
+		named{"back_clearance_min_mm", r.BFDMin}, named{"field_angle_deg", r.FieldAngle})
 	if len(r.Band) > 0 {
-		bad("--band does not apply to an expand requirement: expanders are ranked on first order only")
+		ps.add("{band_nm} does not apply to an expand requirement: expanders are ranked on first order only")
 	}
 }
 
-func (r Requirement) notFor(kind string, bad func(string, ...any), fs ...named) {
+func (r Requirement) notFor(kind Kind, ps *problems, fs ...named) {
+	article := "a"
+	if kind == Image || kind == Expand {
+		article = "an"
+	}
 	for _, f := range fs {
 		if f.v != 0 {
-			bad("%s does not apply to %s %s requirement", f.name, map[bool]string{true: "an", false: "a"}[kind == "image" || kind == "expand"], kind)
+			ps.add("{%s} does not apply to %s %s requirement", f.key, article, kind)
 		}
 	}
 }
 
-func (r Requirement) validateCommon(bad func(string, ...any)) {
+func (r Requirement) validateCommon(ps *problems) {
 	if r.Elements != 0 && r.Elements != 1 && r.Elements != 2 {
-		bad("--elements must be 1 or 2, not %d", r.Elements)
-	}
-	if r.Top < 0 {
-		bad("--top must be 0 (all) or more, not %d", r.Top)
-	}
-	if l := r.Lambda(); l < 150 || l > 20000 {
-		bad("wavelength %g nm is outside 150-20000 nm", l)
+		ps.add("{elements} must be 1 or 2, not %d", r.Elements)
 	}
 	switch r.Prefer {
 	case Balanced, PreferDraw, PreferShort, PreferCheap, PreferSharp, PreferRobust:
 	default:
-		bad("unknown preference %q: use drawer, short, cheap, sharp or robust", r.Prefer)
+		ps.add("unknown preference {prefer} %q: use drawer, short, cheap, sharp or robust", r.Prefer)
 	}
 	if err := r.Build.Validate(); err != nil {
-		bad("%v", err)
-	}
-	for _, b := range r.Band {
-		if !(b >= 150 && b <= 20000) {
-			bad("band wavelength %g nm is outside 150-20000 nm", b)
-		}
+		ps.add("{build}: %s", err)
 	}
 	if r.LengthMax > 0 && r.LengthMax <= r.GapMin && r.MaxElements() == 2 && r.Kind == Expand {
-		bad("the length maximum %g mm leaves no room for two parts %g mm apart", r.LengthMax, r.GapMin)
+		ps.add("the envelope maximum {envelope_max_mm} %g mm leaves no room for two parts %g mm apart", r.LengthMax, r.GapMin)
 	}
 }
 
-func joinProblems(errs []string) error {
-	if len(errs) == 0 {
-		return nil
+// LengthLimit is the longest envelope a result may have: the length
+// maximum when given, else SanityLength. TrackLimit is the longest track:
+// SanityLength, or the length maximum when that is longer.
+func (r Requirement) LengthLimit() float64 {
+	if r.LengthMax > 0 {
+		return r.LengthMax
 	}
-	return errors.New("requirement: " + strings.Join(errs, "; "))
+	return SanityLength
+}
+
+// TrackLimit: see LengthLimit.
+func (r Requirement) TrackLimit() float64 { return math.Max(SanityLength, r.LengthMax) }
+
+// Shown is how many results a search keeps: Top, or MaxShown for Top 0.
+func (r Requirement) Shown() int {
+	if r.Top <= 0 || r.Top > MaxShown {
+		return MaxShown
+	}
+	return r.Top
 }

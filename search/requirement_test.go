@@ -2,6 +2,8 @@ package search
 
 import (
 	"encoding/json"
+	"errors"
+	"math"
 	"reflect"
 	"strings"
 	"testing"
@@ -31,31 +33,44 @@ func TestRequirementValidate(t *testing.T) {
 		{"image", image(nil), ""},
 		{"expand", expandReq(3), ""},
 		{"no kind", Defaults(), "say what to find"},
-		{"negative EFL", focus(func(r *Requirement) { r.EFL = -50 }), "efl is negative"},
+		{"negative EFL", focus(func(r *Requirement) { r.EFL = -50 }), `"efl_mm" is negative`},
 		{"tolerance as large as the EFL", focus(func(r *Requirement) { r.EFLTol = Tolerance{Value: 60} }), "as large as the EFL"},
-		{"negative track", image(func(r *Requirement) { r.Track = -1 }), "track is negative"},
+		{"negative track", image(func(r *Requirement) { r.Track = -1 }), `"track_mm" is negative`},
 		{"zero magnification", image(func(r *Requirement) { r.Mag = 0 }), "non-zero magnification"},
-		{"NA of 1", image(func(r *Requirement) { r.NA = 1 }), "must be below 1"},
+		{"NA of 1", image(func(r *Requirement) { r.NA = 1 }), `"na" 1 is outside 0 to 0.999`},
 		{"minimums longer than the track", image(func(r *Requirement) { r.WDMin, r.BFDMin = 200, 100 }), "leave nothing"},
-		{"erect image from one part", image(func(r *Requirement) { r.Mag, r.Elements = 0.5, 1 }), "needs two elements"},
+		{"erect image from one part", image(func(r *Requirement) { r.Mag, r.Elements = 0.5, 1 }), `needs two "elements"`},
 		{"expander of one part", func() Requirement { r := expandReq(3); r.Elements = 1; return r }(), "needs two elements"},
 		{"zero expansion", func() Requirement { r := expandReq(3); r.Expansion = 0; return r }(), "must be positive"},
 		{"NaN", focus(func(r *Requirement) { r.Beam = nan() }), "finite"},
-		{"flag of another kind", focus(func(r *Requirement) { r.NA = 0.1 }), "--na does not apply"},
-		{"three elements", focus(func(r *Requirement) { r.Elements = 3 }), "--elements must be 1 or 2"},
-		{"negative top", focus(func(r *Requirement) { r.Top = -1 }), "--top"},
-		{"wavelength out of range", focus(func(r *Requirement) { r.Wavelength = 50 }), "outside 150-20000"},
-		{"form on a focus", focus(func(r *Requirement) { r.Form = Galilean }), "apply to --expand only"},
+		{"flag of another kind", focus(func(r *Requirement) { r.NA = 0.1 }), `"na" does not apply`},
+		{"three elements", focus(func(r *Requirement) { r.Elements = 3 }), `"elements" must be 1 or 2`},
+		{"negative top", focus(func(r *Requirement) { r.Top = -1 }), `"top" is negative`},
+		{"wavelength out of range", focus(func(r *Requirement) { r.Wavelength = 50 }), `"wavelength_nm" 50 is outside 150 to 20000 nm`},
+		{"form on a focus", focus(func(r *Requirement) { r.Form = Galilean }), `"form" applies to an expand requirement only`},
 		{"sharp", focus(func(r *Requirement) {
 			r.Prefer, r.Beam, r.FieldAngle, r.Band = PreferSharp, 5, 2, []float64{486.1, 656.3}
 		}), ""},
-		{"field angle of 90 degrees", focus(func(r *Requirement) { r.FieldAngle = 90 }), "not below 90"},
-		{"negative field angle", focus(func(r *Requirement) { r.FieldAngle = -1 }), "field angle is negative"},
-		{"field angle on an image", image(func(r *Requirement) { r.FieldAngle = 2 }), "give --object-height"},
+		{"field angle of 90 degrees", focus(func(r *Requirement) { r.FieldAngle = 90 }), `"field_angle_deg" 90 is outside`},
+		{"negative field angle", focus(func(r *Requirement) { r.FieldAngle = -1 }), `"field_angle_deg" is negative`},
+		{"field angle on an image", image(func(r *Requirement) { r.FieldAngle = 2 }), `give "object_height_mm"`},
 		{"band on an expander", func() Requirement { r := expandReq(3); r.Band = []float64{500, 600}; return r }(), "first order only"},
-		{"band out of range", focus(func(r *Requirement) { r.Band = []float64{100, 600} }), "band wavelength 100 nm"},
-		{"negative power", focus(func(r *Requirement) { r.Power = -1 }), "power is negative"},
+		{"band out of range", focus(func(r *Requirement) { r.Band = []float64{100, 600} }), `"band_nm" 100 is outside`},
+		{"negative power", focus(func(r *Requirement) { r.Power = -1 }), `"power_w" is negative`},
 		{"power on an image", image(func(r *Requirement) { r.Power = 0.01 }), ""},
+		{"unknown kind", focus(func(r *Requirement) { r.Kind = "banana" }), `unknown "kind" "banana": use focus, image or expand`},
+		{"EFL far too short", focus(func(r *Requirement) { r.EFL = 1e-200 }), `"efl_mm" 1e-200 is outside 0.1 to 100000 mm`},
+		{"EFL far too long", focus(func(r *Requirement) { r.EFL = 1e308 }), `"efl_mm" 1e+308 is outside`},
+		{"infinite track", image(func(r *Requirement) { r.Track = math.Inf(1) }), `"track_mm" must be a finite number`},
+		{"track of 1e308", image(func(r *Requirement) { r.Track = 1e308 }), `"track_mm" 1e+308 is outside`},
+		{"tiny magnification", image(func(r *Requirement) { r.Mag = -1e-300 }), `"magnification" -1e-300 is outside`},
+		{"huge magnification", image(func(r *Requirement) { r.Mag = -1e300 }), `"magnification" -1e+300 is outside`},
+		{"huge beam", focus(func(r *Requirement) { r.Beam = 1e300 }), `"beam_mm" 1e+300 is outside`},
+		{"huge tolerance", focus(func(r *Requirement) { r.EFLTol = Tolerance{Value: 1e300} }), `"efl_tol" 1e+300 is outside`},
+		{"NaN tolerance", focus(func(r *Requirement) { r.EFLTol = Tolerance{Value: nan()} }), `"efl_tol" must be a finite number`},
+		{"NaN band", focus(func(r *Requirement) { r.Band = []float64{nan()} }), `"band_nm" must be a finite number`},
+		{"top past the ceiling", focus(func(r *Requirement) { r.Top = MaxShown + 1 }), `"top" 10001 is outside 0 to 10000`},
+		{"zero tolerance", focus(func(r *Requirement) { r.EFLTol = Tolerance{} }), ""},
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
@@ -65,6 +80,10 @@ func TestRequirementValidate(t *testing.T) {
 				t.Fatalf("unexpected error %v", err)
 			case tt.want != "" && (err == nil || !strings.Contains(err.Error(), tt.want)):
 				t.Fatalf("error %v, want one containing %q", err, tt.want)
+			}
+			var re *RequirementError
+			if err != nil && (!errors.As(err, &re) || len(re.Problems) == 0 || len(re.Problems[0].Keys) == 0) {
+				t.Errorf("error %#v names no field", err)
 			}
 		})
 	}

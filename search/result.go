@@ -220,8 +220,13 @@ func (s *search) checks(l *layout) []Check {
 	if l.pair() {
 		add(failGap, "gap", "edge clearance %.2f mm, minimum %g mm", s.edgeClearance(&s.c[l.a], &s.c[l.b], l.gap), r.GapMin)
 	}
-	if r.LengthMax > 0 {
+	switch {
+	case r.LengthMax > 0 && (l.fails&failEnvelope == 0 || l.env > r.LengthMax):
 		add(failEnvelope, "envelope", "%.2f mm, maximum %g mm", l.env, r.LengthMax)
+	case l.fails&failEnvelope != 0 && l.env > r.LengthLimit():
+		add(failEnvelope, "envelope", "%.0f mm, beyond the %g mm sanity limit (raise it with an envelope maximum)", l.env, r.LengthLimit())
+	case l.fails&failEnvelope != 0:
+		add(failEnvelope, "envelope", "track %.0f mm, beyond the %g mm sanity limit (raise it with an envelope maximum)", l.track, r.TrackLimit())
 	}
 	if r.ChecksAperture() {
 		add(failAperture, "aperture", "ray height %.0f%% of the clear aperture of part %d", 100*l.vigRatio, l.vigPart+1)

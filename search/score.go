@@ -138,7 +138,7 @@ type scorer struct {
 }
 
 func newScorer(r Requirement) scorer {
-	return scorer{w: WeightsFor(r.Prefer), lref: refLength(r), tol: firstOrderTol(r)}
+	return scorer{w: WeightsFor(r.Prefer), lref: refLength(r), tol: scoreTol(r)}
 }
 
 // errTerm is |error| / tolerance, 0 for no error.
@@ -146,10 +146,7 @@ func (s scorer) errTerm(err float64) float64 {
 	if err == 0 {
 		return 0
 	}
-	if s.tol == 0 {
-		return math.Inf(1)
-	}
-	return math.Abs(err) / s.tol
+	return math.Abs(err) / s.tol // tol is never 0 (scoreTol)
 }
 
 // singlet scores one part; c.price and c.away are 0 when the drawer holds
@@ -182,6 +179,21 @@ func pairPrice(a, b *cand) float64 {
 		return float64(max(0, 2-a.qty)) * a.unit
 	}
 	return a.price + b.price
+}
+
+// onTarget is the first-order error that counts as exactly on target: a
+// relative 1e-9 of the target, far below any tolerance a person gives and
+// above the rounding of a pair solved at the target. It makes a zero
+// tolerance mean "exactly" without dividing by zero.
+func onTarget(r Requirement) float64 { return 1e-9 * math.Abs(target(r)) }
+
+// scoreTol is the tolerance the error is scored against: the
+// requirement's, or onTarget for a zero tolerance (which means "exactly").
+func scoreTol(r Requirement) float64 {
+	if t := firstOrderTol(r); t > 0 {
+		return t
+	}
+	return onTarget(r)
 }
 
 // firstOrderTol is the absolute tolerance on the requirement's target.

@@ -23,12 +23,8 @@ type limits struct {
 }
 
 func limitsOf(r Requirement) limits {
-	l := limits{admit: firstOrderTol(r), gapMin: r.GapMin, lengthMax: math.Inf(1),
+	return limits{admit: firstOrderTol(r), gapMin: r.GapMin, lengthMax: r.LengthLimit(),
 		bfdMin: r.BFDMin, wdMin: r.WDMin, form: r.Form}
-	if r.LengthMax > 0 {
-		l.lengthMax = r.LengthMax
-	}
-	return l
 }
 
 // looser are the limits of the near-miss search: three times the tolerance,
@@ -59,7 +55,7 @@ type search struct {
 	surfs  []optics.Surface // outer surfaces of the candidates (prepared.surfs)
 	sc     scorer
 	tol    float64 // the requirement's first-order tolerance, for the checks
-	top    int     // results to keep; 0 all
+	top    int     // results to keep, at least 1: the kept heap never grows past it
 	misses bool    // keep layouts that fail checks too (near-miss search)
 	nodes  []node
 	roots  []int32
@@ -67,6 +63,7 @@ type search struct {
 
 	// Counts of this worker, added up by merge.
 	solved     int            // layouts that met the first-order target
+	met        int            // layouts that met every check (counted while the bound allowed)
 	failed     map[uint16]int // failures by check, among solved layouts
 	evaluated  int            // pairs solved
 	unverified int            // roots the matrix check refused (never seen in tests)
@@ -81,6 +78,9 @@ type kept struct {
 }
 
 func newSearch(p *prepared, req Requirement, lim limits, top int) *search {
+	if top < 1 || top > MaxShown {
+		top = MaxShown
+	}
 	s := &search{req: req, lim: lim, c: p.cands, surfs: p.surfs, sc: newScorer(req), tol: firstOrderTol(req),
 		top: top, failed: map[uint16]int{}, kept: &kept{}}
 	s.kept.heap.s = s
@@ -92,13 +92,14 @@ func newSearch(p *prepared, req Requirement, lim limits, top int) *search {
 // and kept layouts but counts on its own.
 func (s *search) worker() *search {
 	w := *s
-	w.solved, w.failed, w.evaluated, w.unverified = 0, map[uint16]int{}, 0, 0
+	w.solved, w.met, w.failed, w.evaluated, w.unverified = 0, 0, map[uint16]int{}, 0, 0
 	return &w
 }
 
 // merge adds a worker's counts to the search's.
 func (s *search) merge(w *search) {
 	s.solved += w.solved
+	s.met += w.met
 	s.evaluated += w.evaluated
 	s.unverified += w.unverified
 	for k, v := range w.failed {
@@ -118,12 +119,14 @@ func (s *search) emit(l *layout) {
 		if !s.misses {
 			return
 		}
+	} else {
+		s.met++
 	}
 	k := s.kept
 	k.mu.Lock()
 	defer k.mu.Unlock()
 	switch {
-	case s.top == 0 || k.heap.Len() < s.top:
+	case k.heap.Len() < s.top:
 		heap.Push(&k.heap, *l)
 	case s.better(l, &k.heap.ls[0]):
 		k.heap.ls[0] = *l
@@ -131,10 +134,14 @@ func (s *search) emit(l *layout) {
 	default:
 		return
 	}
-	if s.top > 0 && k.heap.Len() == s.top {
+	if k.heap.Len() == s.top {
 		k.bound.Store(math.Float64bits(k.heap.ls[0].score))
 	}
 }
+
+// full tells whether the kept list reached its size, after which the
+// bound prunes and the count of layouts that meet is a lower bound.
+func (s *search) full() bool { return !math.IsInf(s.bound(), 1) }
 
 // bound is the score a new layout must not exceed to be kept: the worst
 // kept score once the list is full, +Inf before.

@@ -12,7 +12,7 @@ var failText = []string{
 	"back clearance below the minimum",
 	"working distance below the minimum",
 	"facing surfaces closer than the gap minimum",
-	"longer than the length maximum",
+	"longer than the envelope maximum (or the 10 m sanity limit)",
 	"vignette: a ray height exceeds a clear aperture",
 	"need more pieces than the drawer holds",
 }

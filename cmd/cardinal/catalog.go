@@ -132,7 +132,11 @@ func runCatalogImport(co *catalogImportOptions) error {
 		}
 		defer s.Close()
 	}
-	rep, err := s.Import(ctx, f.Rows, o.DryRun)
+	var rep catalog.ImportReport
+	err = waitNotice(o.env, s.Path(), func() (err error) {
+		rep, err = s.Import(ctx, f.Rows, o.DryRun)
+		return err
+	})
 	if err != nil {
 		return importErrorf(o.File, err)
 	}

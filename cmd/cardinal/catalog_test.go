@@ -113,7 +113,7 @@ func TestRunCatalogCommands(t *testing.T) {
 		stderr  string
 		changes bool // whether the export may differ after
 	}{
-		{"list without a catalog uses the demo", []string{"catalog", "list"}, 0, "DEMO:PCX-50", "built-in demo catalog", false},
+		{"list of a named catalog not there yet", []string{"catalog", "list"}, exitNotFound, "", "does not exist; create it with 'cardinal catalog import FILE'", false},
 		{"dry run creates nothing", []string{"catalog", "import", demoLensesCSV, "--dry-run"}, 0, "would import", "", false},
 		{"import", []string{"catalog", "import", demoLensesCSV}, 0, "13 added, 0 updated, 0 unchanged", "", true},
 		{"import again", []string{"catalog", "import", demoLensesCSV}, 0, "0 added, 0 updated, 13 unchanged", "", false},

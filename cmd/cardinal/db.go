@@ -65,14 +65,18 @@ func (l catalogLocation) exists() (bool, error) {
 		return false, nil
 	}
 	if err != nil {
-		return false, usageErrorf("catalog %s: %v", l.Path, err)
+		return false, &catalog.OpenError{Path: l.Path, Reason: "cannot be reached; check the path and its permissions", Err: err}
 	}
 	return true, nil
 }
 
-// openForRead opens the user's catalog or, when there is none yet, the
-// built-in demo catalog, saying so in one line on stderr. Every read
-// command (list, export, find, inspect PART) opens the catalog this way.
+// openForRead opens the user's catalog or, when there is none yet at the
+// default location, the built-in demo catalog, saying so in one line on
+// stderr. A catalog the user named (--db or CARDINAL_DB) must exist: read
+// commands never create one. Every read command (list, export, find,
+// inspect PART) opens the catalog this way; it writes nothing to a file
+// that is not a catalog yet, and opens read only what the user may not
+// write.
 func openForRead(flag string, e *env) (*catalog.Store, error) {
 	loc, err := locateCatalog(flag, e)
 	if err != nil {
@@ -82,12 +86,11 @@ func openForRead(flag string, e *env) (*catalog.Store, error) {
 	if err != nil {
 		return nil, err
 	}
-	if !ok {
+	if !ok && !loc.Explicit {
 		notef(e, "cardinal: no catalog at %s yet: using the built-in demo catalog (invented parts); add your own with 'cardinal catalog import FILE'\n", loc.Path)
 		return openDemo(loc, e)
 	}
-	s, err := catalog.Open(loc.Path)
-	return s, catalogError(err)
+	return catalog.OpenRead(loc.Path)
 }
 
 // openDemo opens the demo catalog kept beside where the user's catalog
@@ -101,8 +104,7 @@ func openDemo(loc catalogLocation, e *env) (*catalog.Store, error) {
 		}
 	}
 	notef(e, "cardinal: cannot keep the demo catalog at %s: searches on it last for this run only\n", path)
-	s, err := catalog.OpenDemo()
-	return s, catalogError(err)
+	return catalog.OpenDemo()
 }
 
 // openForWrite opens the user's catalog to change it. With create, a
@@ -126,8 +128,7 @@ func openForWrite(flag string, e *env, create bool) (*catalog.Store, error) {
 			return nil, err
 		}
 	}
-	s, err := catalog.Open(loc.Path)
-	return s, catalogError(err)
+	return catalog.Open(loc.Path)
 }
 
 // prepareDir creates the default data directory; a directory the user
@@ -147,27 +148,9 @@ func prepareDir(loc catalogLocation) error {
 	return nil
 }
 
-// catalogError maps the catalog's errors to exit codes: a file that cannot
-// be used and bad input rows are usage errors, a missing part or search is
-// not found.
-func catalogError(err error) error {
-	var nf *catalog.NotFoundError
-	var oe *catalog.OpenError
-	var ie *catalog.ImportError
-	var fe importers.FileErrors
-	var ce *cmdError
-	switch {
-	case err == nil:
-		return nil
-	case errors.As(err, &ce):
-		return err
-	case errors.As(err, &nf):
-		return &cmdError{exitNotFound, err}
-	case errors.As(err, &oe), errors.As(err, &ie), errors.As(err, &fe):
-		return &cmdError{exitUsage, err}
-	}
-	return err
-}
+// catalogError returns the catalog's error as it is: its typed errors
+// map to exit codes in one place (errors.go, describe).
+func catalogError(err error) error { return err }
 
 // importErrorf reports the rows that stopped an import, one per line as
 // FILE:LINE: SUPPLIER:PART: column: reason, and that nothing changed.
@@ -198,7 +181,7 @@ func readInputFile(name string, e *env) ([]byte, error) {
 	case errors.Is(err, fs.ErrNotExist):
 		return nil, notFoundErrorf("%s: no such file", name)
 	case err != nil:
-		return nil, usageErrorf("%s: %v", name, err)
+		return nil, &cmdError{exitUsage, fmt.Errorf("%s: cannot be read (%w); check the path and its permissions", name, err)}
 	}
 	return b, nil
 }

@@ -48,7 +48,11 @@ func runDrawerImport(o *importOptions) error {
 		return err
 	}
 	defer s.Close()
-	rep, err := s.ImportDrawer(context.Background(), f.Rows, o.DryRun)
+	var rep catalog.DrawerReport
+	err = waitNotice(o.env, s.Path(), func() (err error) {
+		rep, err = s.ImportDrawer(context.Background(), f.Rows, o.DryRun)
+		return err
+	})
 	if err != nil {
 		return importErrorf(o.File, err)
 	}

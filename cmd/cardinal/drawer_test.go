@@ -52,7 +52,7 @@ func TestRunDrawerCommands(t *testing.T) {
 		stdout string
 		stderr string
 	}{
-		{"list without a catalog uses the demo", []string{"drawer", "list"}, 0, "", "built-in demo catalog"},
+		{"list of a named catalog not there yet", []string{"drawer", "list"}, exitNotFound, "", "does not exist; create it"},
 		{"set without a catalog", []string{"drawer", "set", "DEMO:PCX-50", "--quantity", "1"}, exitNotFound, "", "no catalog at"},
 		{"import the parts", []string{"catalog", "import", demoLensesCSV}, 0, "13 added", ""},
 		{"drawer import", []string{"drawer", "import", drawer}, 0, "drawer entries: 2 added", ""},

@@ -1,7 +1,10 @@
 package main
 
 import (
+	"bytes"
 	"context"
+	"errors"
+	"fmt"
 	"strings"
 
 	"github.com/spf13/cobra"
@@ -126,7 +129,8 @@ alone unless --band asks for more.`,
 }
 
 // validate builds the requirement from the spec file and the flags given,
-// and checks it.
+// and checks it. A problem with a field is named as the user gave it: by
+// its flag, or by its key in the spec file.
 func (o *findOptions) validate() error {
 	if err := checkFormat(o.out.Format); err != nil {
 		return err
@@ -137,18 +141,37 @@ func (o *findOptions) validate() error {
 		if err != nil {
 			return err
 		}
-		if req, err = search.ReadSpec(strings.NewReader(string(b)), o.Spec); err != nil {
-			return usageErrorf("%v", err)
+		if req, err = search.ReadSpec(bytes.NewReader(b), o.Spec); err != nil {
+			return err
 		}
 	}
 	if err := o.apply(&req); err != nil {
 		return err
 	}
 	if err := req.Validate(); err != nil {
-		return usageErrorf("%v", err)
+		var re *search.RequirementError
+		if errors.As(err, &re) {
+			return &namedError{re, o.fieldNamer()}
+		}
+		return err
 	}
 	o.Req = req
 	return nil
+}
+
+// fieldNamer names a requirement key by the flag that set it; with a spec
+// file, every other key by its key in the file.
+func (o *findOptions) fieldNamer() func(string) string {
+	return func(key string) string {
+		flag, hasFlag := flagKeys[key]
+		if hasFlag && o.flags != nil && o.flags.Changed(strings.TrimPrefix(flag, "--")) {
+			return flag
+		}
+		if o.Spec != "" {
+			return fmt.Sprintf("%q in %s", key, o.Spec)
+		}
+		return flagName(key)
+	}
 }
 
 // apply lays the flags given on the command line over the requirement.
@@ -272,9 +295,7 @@ func runFind(o *findOptions) error {
 	}
 	s := saved.Search{At: e.Now(), Requirement: out.Requirement, Results: out.Results,
 		Why: out.Why, Misses: out.Misses, Notes: out.Notes}
-	if err := saveSearch(ctx, st, e, s); err != nil {
-		return err
-	}
+	saveSearch(ctx, st, e, s)
 	return writeFind(e, o.out, s)
 }
 
@@ -320,11 +341,24 @@ func findIndexed(ctx context.Context, st *catalog.Store, req search.Requirement)
 	return out, nil
 }
 
-// saveSearch stores the run and says its number on stderr.
-func saveSearch(ctx context.Context, st *catalog.Store, e *env, s saved.Search) error {
-	id, err := saved.New(st).Save(ctx, s)
+// saveSearch stores the run and says its number on stderr. A run that
+// cannot be saved (a read-only catalog, another program holding the write
+// lock past catalog.LockWait) is still printed: the message says it was
+// not saved and why.
+func saveSearch(ctx context.Context, st *catalog.Store, e *env, s saved.Search) {
+	if st.ReadOnly() {
+		notef(e, "not saved: the catalog %s is read-only for you; the results are printed but 'last' will not find them (copy the catalog somewhere writable to keep runs)\n", st.Path())
+		return
+	}
+	var id int64
+	err := waitNotice(e, st.Path(), func() (err error) {
+		id, err = saved.New(st).Save(ctx, s)
+		return err
+	})
 	if err != nil {
-		return catalogError(err)
+		msg, _ := describe(err)
+		notef(e, "not saved (the results are printed): %s\n", msg)
+		return
 	}
 	switch {
 	case st.Path() == catalog.Memory:
@@ -334,7 +368,6 @@ func saveSearch(ctx context.Context, st *catalog.Store, e *env, s saved.Search) 
 	default:
 		notef(e, "saved as search %d\n", id)
 	}
-	return nil
 }
 
 // printCautions writes the notes and the safety cautions on stderr.

@@ -3,6 +3,8 @@ package main
 import (
 	"context"
 	"encoding/json"
+	"fmt"
+	"math/rand/v2"
 	"os"
 	"path/filepath"
 	"slices"
@@ -74,7 +76,7 @@ func TestFindFlags(t *testing.T) {
 		{"flags override the spec file", []string{"--spec", spec, "--track", "420", "--wd-min", "0"},
 			func(r search.Requirement) bool { return r.Track == 420 && r.WDMin == 0 && r.Mag == -1 }, ""},
 		{"spec file of another kind", []string{"--spec", spec, "--efl", "50"}, nil, "asks for image"},
-		{"misspelt spec key", []string{"--spec", badSpec}, nil, `unknown field "track"`},
+		{"misspelt spec key", []string{"--spec", badSpec}, nil, `"track": is not a requirement key`},
 		{"missing spec file", []string{"--spec", "no-such.json"}, nil, "no such file"},
 		{"no requirement", nil, nil, "say what to find"},
 		{"two requirements", []string{"--efl", "50", "--expand", "3"}, nil, "give one requirement"},
@@ -84,7 +86,7 @@ func TestFindFlags(t *testing.T) {
 		{"both expander forms", []string{"--expand", "3", "--galilean", "--keplerian"}, nil, "exclude each other"},
 		{"beam on an image", []string{"--track", "200", "--mag", "-1", "--beam", "3"}, nil, "--beam does not apply"},
 		{"margins eat the track", []string{"--track", "100", "--mag", "-1", "--wd-min", "60", "--bfd-min", "50"}, nil, "leave nothing"},
-		{"erect image from one part", []string{"--track", "300", "--mag", "0.5", "--elements", "1"}, nil, "needs two elements"},
+		{"erect image from one part", []string{"--track", "300", "--mag", "0.5", "--elements", "1"}, nil, "needs two --elements"},
 		{"expander of one part", []string{"--expand", "3", "--elements", "1"}, nil, "needs two elements"},
 		{"unknown preference", []string{"--efl", "50", "--prefer", "pretty"}, nil, "unknown preference"},
 		{"real-ray flags", []string{"--efl", "100", "--beam", "10", "--field-angle", "1.5", "--band", "486.1,587.6", "--band", "656.3", "--prefer", "sharp", "--power", "0.2"},
@@ -93,10 +95,10 @@ func TestFindFlags(t *testing.T) {
 			}, ""},
 		{"spec band kept without the flag", []string{"--spec", writeSpec(t, `{"kind": "focus", "efl_mm": 50, "beam_mm": 5, "band_nm": [500, 600]}`)},
 			func(r search.Requirement) bool { return slices.Equal(r.Band, []float64{500, 600}) }, ""},
-		{"band not a number", []string{"--efl", "50", "--band", "blue"}, nil, "invalid argument"},
-		{"band out of range", []string{"--efl", "50", "--band", "100,500"}, nil, "band wavelength 100 nm"},
+		{"band not a number", []string{"--efl", "50", "--band", "blue"}, nil, `--band "blue": want finite numbers`},
+		{"band out of range", []string{"--efl", "50", "--band", "100,500"}, nil, "--band 100: want a wavelength of 150 to 20000 nm"},
 		{"field angle on an image", []string{"--track", "300", "--mag", "-1", "--field-angle", "2"}, nil, "give --object-height"},
-		{"field angle of 90", []string{"--efl", "50", "--field-angle", "90"}, nil, "not below 90"},
+		{"field angle of 90", []string{"--efl", "50", "--field-angle", "90"}, nil, "--field-angle 90 is outside 0 to 89.9 degrees"},
 		{"negative power", []string{"--efl", "50", "--power", "-1"}, nil, "power is negative"},
 		{"band on an expander", []string{"--expand", "3", "--band", "500,600"}, nil, "first order only"},
 		{"unknown format", []string{"--efl", "50", "--format", "xml"}, nil, `unknown --format "xml"`},
@@ -133,9 +135,16 @@ func findRun(t *testing.T, db string, args ...string) (string, string, int) {
 	}
 	e, out, errb := testEnv()
 	o.env, o.db = e, db
+	if _, err := os.Stat(db); err != nil {
+		// No catalog there: the demo, kept beside the default location
+		// (a catalog named with --db must exist).
+		o.db = ""
+		e.Getenv = func(k string) string { return map[string]string{"XDG_DATA_HOME": filepath.Dir(db)}[k] }
+	}
 	err = runFind(o)
 	if err != nil {
-		errb.WriteString("cardinal: " + err.Error() + "\n")
+		msg, _ := describe(err)
+		errb.WriteString("cardinal: " + msg + "\n")
 	}
 	return out.String(), errb.String(), exitCode(err)
 }
@@ -162,7 +171,7 @@ func TestRunFind(t *testing.T) {
 		{"keplerian at 1064 nm warns of the internal focus", []string{"--expand", "3", "--expand-tol", "3%", "--keplerian", "--wavelength", "1064"}, 0,
 			[]string{"keplerian"}, []string{"focus between its parts"}, nil},
 		{"nothing that short", []string{"--efl", "75", "--length-max", "0.8"}, exitNoResult,
-			nil, []string{"none meets every constraint", "longer than the length maximum", "nearest misses", "fails gap,"}, nil},
+			nil, []string{"none meets every constraint", "longer than the envelope maximum", "nearest misses", "fails gap,"}, nil},
 		{"ultraviolet is a laser wavelength", []string{"--efl", "100", "--efl-tol", "3%", "--wavelength", "355"}, 0,
 			nil, []string{"laser safety officer"}, nil},
 		{"--laser in the visible: one wavelength and the cautions", []string{"--efl", "100", "--efl-tol", "3%", "--wavelength", "632.8", "--beam", "4", "--laser"}, 0,
@@ -398,7 +407,7 @@ func TestFindGolden(t *testing.T) {
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
-			dir := t.TempDir()
+			dir := fixedLengthDir(t)
 			out, errs, code := findRun(t, filepath.Join(dir, "none.db"), tc.args...)
 			if code != tc.code {
 				t.Fatalf("exit code %d, want %d: %s", code, tc.code, errs)
@@ -408,4 +417,16 @@ func TestFindGolden(t *testing.T) {
 				"-- stdout --\n"+out+"-- stderr --\n"+errs)
 		})
 	}
+}
+
+// fixedLengthDir is a fresh directory whose path has the same length on
+// every run, so that messages naming it wrap at the same place.
+func fixedLengthDir(t *testing.T) string {
+	t.Helper()
+	dir := filepath.Join(os.TempDir(), fmt.Sprintf("cardinal-golden-%016x", rand.Uint64()))
+	if err := os.Mkdir(dir, 0o755); err != nil {
+		t.Fatal(err)
+	}
+	t.Cleanup(func() { os.RemoveAll(dir) })
+	return dir
 }

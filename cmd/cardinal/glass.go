@@ -11,6 +11,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"cardinal/catalog"
 	"cardinal/importers"
 	"cardinal/optics"
 )
@@ -61,7 +62,11 @@ func runGlassImport(o *importOptions) error {
 		return err
 	}
 	defer s.Close()
-	rep, err := s.ImportGlasses(context.Background(), f.Rows, o.DryRun)
+	var rep catalog.GlassReport
+	err = waitNotice(o.env, s.Path(), func() (err error) {
+		rep, err = s.ImportGlasses(context.Background(), f.Rows, o.DryRun)
+		return err
+	})
 	if err != nil {
 		return importErrorf(o.File, err)
 	}

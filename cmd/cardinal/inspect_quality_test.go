@@ -32,7 +32,7 @@ func TestInspectRayFlags(t *testing.T) {
 		{"power with an NA", []string{"--na", "0.1", "--power", "1"}, nil, "go with --beam"},
 		{"field angle of 95", []string{"--beam", "5", "--field-angle", "95"}, nil, "below 90"},
 		{"negative beam", []string{"--beam", "-5"}, nil, "positive number"},
-		{"band out of range", []string{"--beam", "5", "--band", "50"}, nil, "outside 150-20000"},
+		{"band out of range", []string{"--beam", "5", "--band", "50"}, nil, "--band 50: want a wavelength of 150 to 20000 nm"},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {

@@ -66,10 +66,10 @@ func TestInspectFlags(t *testing.T) {
 				return o.File == "x.csv" && o.Reverse && o.Wavelength == 632.8 && o.MediumIn == "water" && o.MediumOut == "caf2" && o.Format == "json"
 			}},
 		{name: "unknown format", args: []string{"--format", "xml"}, errCode: exitUsage, errText: `unknown --format "xml"`},
-		{name: "zero wavelength", args: []string{"--wavelength", "0"}, errCode: exitUsage, errText: "--wavelength 0: give a wavelength in nm"},
+		{name: "zero wavelength", args: []string{"--wavelength", "0"}, errCode: exitUsage, errText: "--wavelength 0: want a wavelength of 150 to 20000 nm"},
 		{name: "infinite wavelength", args: []string{"--wavelength", "inf"}, errCode: exitUsage, errText: "--wavelength +Inf"},
-		{name: "wavelength not a number", args: []string{"--wavelength", "red"}, errCode: exitUsage, errText: "invalid argument"},
-		{name: "unknown flag", args: []string{"--colour"}, errCode: exitUsage, errText: "unknown flag: --colour"},
+		{name: "wavelength not a number", args: []string{"--wavelength", "red"}, errCode: exitUsage, errText: `--wavelength "red": want a finite number`},
+		{name: "unknown flag", args: []string{"--colour"}, errCode: exitUsage, errText: "unknown flag --colour"},
 		{name: "catalog part arguments", args: []string{"DEMO:PCX-50", "PCV-50"},
 			check: func(o *inspectOptions) bool { return slices.Equal(o.CatalogParts, []string{"DEMO:PCX-50", "PCV-50"}) }},
 		{name: "catalog part and --file", args: []string{"DEMO:PCX-50", "--file", "x.csv"}, errCode: exitUsage, errText: "not both"},

@@ -1,6 +1,9 @@
 package main
 
 import (
+	"fmt"
+	"math"
+	"strconv"
 	"strings"
 
 	"github.com/spf13/cobra"
@@ -42,15 +45,84 @@ Paraxial figures hold near the axis; check real-ray figures before you build.`,
 	root.SetErr(e.Err)
 	root.SetIn(e.In)
 	root.SetFlagErrorFunc(func(c *cobra.Command, err error) error {
-		return usageErrorf("%v (see '%s --help')", err, c.CommandPath())
+		return &flagError{c.CommandPath(), err}
 	})
+	// A word that is no command is our error, with cobra's suggestions.
+	root.Args = func(c *cobra.Command, args []string) error {
+		if len(args) == 0 {
+			return nil
+		}
+		hint := ""
+		if s := c.SuggestionsFor(args[0]); len(s) > 0 {
+			hint = "; did you mean " + strings.Join(s, " or ") + "?"
+		}
+		return usageErrorf("unknown command %q%s (see 'cardinal --help')", args[0], hint)
+	}
+	root.RunE = func(c *cobra.Command, _ []string) error { return c.Help() }
 	root.AddCommand(commands(e)...)
 	root.AddCommand(topicCommands()...)
 	root.SetGlobalNormalizationFunc(formerFlagNames)
 	wrapHelp(root, e)
 	addDBFlag(root)
 	addCompletions(root, e)
+	typedArgs(root)
+	root.PersistentPreRunE = checkNumbers
 	return root
+}
+
+// typedArgs wraps every command's argument check so that a wrong number of
+// arguments is a usage error naming the command's help.
+func typedArgs(c *cobra.Command) {
+	if c.Args != nil && c.HasParent() {
+		check := c.Args
+		c.Args = func(cmd *cobra.Command, args []string) error {
+			if err := check(cmd, args); err != nil {
+				return &flagError{cmd.CommandPath(), err}
+			}
+			return nil
+		}
+	}
+	for _, sub := range c.Commands() {
+		typedArgs(sub)
+	}
+}
+
+// checkNumbers refuses, for every command, a number flag given as NaN,
+// an infinity or a magnitude past 1e9 or below 1e-9 (zero aside): no
+// figure of a lens bench needs them, and each would turn into a NaN or
+// Inf downstream. Each command checks its own narrower ranges after this.
+func checkNumbers(c *cobra.Command, _ []string) error {
+	var bad error
+	c.Flags().Visit(func(f *pflag.Flag) {
+		if bad != nil {
+			return
+		}
+		var vs []float64
+		switch v := f.Value.(type) {
+		case pflag.SliceValue:
+			if f.Value.Type() != "float64Slice" {
+				return
+			}
+			for _, s := range v.GetSlice() {
+				x, _ := strconv.ParseFloat(s, 64)
+				vs = append(vs, x)
+			}
+		default:
+			if f.Value.Type() != "float64" {
+				return
+			}
+			x, _ := strconv.ParseFloat(f.Value.String(), 64)
+			vs = append(vs, x)
+		}
+		for _, x := range vs {
+			if a := math.Abs(x); math.IsNaN(x) || math.IsInf(x, 0) || a > 1e9 || a != 0 && a < 1e-9 {
+				bad = &flagError{c.CommandPath(), fmt.Errorf("--%s %g: want a finite number between 1e-9 and 1e9 in size (or 0)", f.Name, x)}
+			} else if (f.Name == "wavelength" || f.Name == "band") && !(x >= 150 && x <= 20000) {
+				bad = &flagError{c.CommandPath(), fmt.Errorf("--%s %g: want a wavelength of 150 to 20000 nm (leave --wavelength out for the d line, 587.5618 nm)", f.Name, x)}
+			}
+		}
+	})
+	return bad
 }
 
 // execute runs the command line and returns the exit code; every message
@@ -59,15 +131,11 @@ func execute(args []string, e *env) int {
 	root := newRootCmd(e)
 	root.SetArgs(args)
 	err := root.Execute()
+	msg, code := describe(err)
 	if err != nil {
-		msg := err.Error()
-		if strings.HasPrefix(msg, "unknown command") || strings.HasPrefix(msg, "unknown flag") ||
-			strings.Contains(msg, "accepts") && strings.Contains(msg, "arg(s)") {
-			err = usageErrorf("%s (see 'cardinal --help')", msg)
-		}
-		notef(e, "cardinal: %v\n", err)
+		notef(e, "cardinal: %s\n", msg)
 	}
-	return exitCode(err)
+	return code
 }
 
 // formerNames maps the flag names of earlier versions to the glossary's
