@@ -51,6 +51,9 @@ func (s Surface) Sag(h float64) (z float64, ok bool) {
 	h2 := h * h
 	c := s.Curvature()
 	arg := 1 - (1+s.Conic)*c*c*h2
+	if arg < 0 && arg > -rimSlack {
+		arg = 0 // the rim of a hemisphere (a ball lens), rounded past it
+	}
 	if arg < 0 {
 		return math.NaN(), false
 	}
@@ -89,9 +92,15 @@ func (s Surface) Reversed() Surface {
 	return r
 }
 
+// rimSlack is how far 1 - (1+k) c^2 h^2 may fall below zero and still
+// count as the rim: a radius equal to the semi-diameter to a relative
+// 1e-9 (a ball lens or hemisphere whose figures were rounded) reaches it.
+const rimSlack = 4e-9
+
 // checkHeight tells why the surface cannot reach height h, or returns nil.
+// A radius equal to h to a relative 1e-9 reaches it (a hemisphere).
 func (s Surface) checkHeight(h float64) error {
-	if !s.IsPlane() && s.Conic == 0 && math.Abs(s.Radius) < h {
+	if !s.IsPlane() && s.Conic == 0 && math.Abs(s.Radius) < h*(1-1e-9) {
 		return fmt.Errorf("radius %.4g mm is smaller than the %.4g mm semi-diameter", math.Abs(s.Radius), h)
 	}
 	if _, ok := s.Sag(h); !ok {
