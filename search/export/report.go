@@ -43,7 +43,13 @@ type reportPick struct {
 	Spots    Spots
 	Figures  []figureRow // the search's real-ray figures, with human labels
 	Build    [][]string  // the build sheet's rows (BuildHeader)
-	Warnings []string
+	// The build study (search.StudyBuild): its summary rows, the
+	// sensitivity table and the histograms as a PNG data URI.
+	Study      [][]string
+	SensHeader []string
+	Sens       [][]string
+	StudyPlot  template.URL
+	Warnings   []string
 }
 
 // reportPage is the template's data.
@@ -123,7 +129,49 @@ func pickPage(s Solution, in ReportInput) (reportPick, error) {
 		return p, err
 	}
 	p.Plot = template.URL("data:image/png;base64," + base64.StdEncoding.EncodeToString(b.Bytes()))
-	return p, nil
+	return p, studyPage(&p, s, in.Requirement)
+}
+
+// studyPage adds the build study of the pick with the search's settings:
+// the same figures find printed and the tolerance command prints.
+func studyPage(p *reportPick, s Solution, req search.Requirement) error {
+	st, err := search.StudyBuild(req, s.Setup())
+	if err != nil {
+		return fmt.Errorf("solution %d: build study: %w", p.Rank, err)
+	}
+	texts := func(t present.Table) (head []string, rows [][]string) {
+		for _, c := range t.Columns {
+			head = append(head, c.Heading())
+		}
+		for _, r := range t.Rows {
+			row := make([]string, len(r))
+			for i, c := range r {
+				row[i] = c.Text
+			}
+			rows = append(rows, row)
+		}
+		return head, rows
+	}
+	_, p.Study = texts(present.StudySummary(req, st))
+	sens := present.Sensitivities(req, st)
+	keep := []int{1, 3, 4, 6, 8} // tolerance, +-, unit, change of the target and of the compensator at the tolerance
+	head, rows := texts(sens)
+	for _, i := range keep {
+		p.SensHeader = append(p.SensHeader, head[i])
+	}
+	for _, r := range rows {
+		var row []string
+		for _, i := range keep {
+			row = append(row, r[i])
+		}
+		p.Sens = append(p.Sens, row)
+	}
+	var b bytes.Buffer
+	if err := WriteStudyPlot(&b, req, st, fmt.Sprintf("Solution %d: %d simulated builds", p.Rank, st.Trials), "png"); err != nil {
+		return err
+	}
+	p.StudyPlot = template.URL("data:image/png;base64," + base64.StdEncoding.EncodeToString(b.Bytes()))
+	return nil
 }
 
 // notesWithoutBuilds drops the request's build-sheet notes: the report

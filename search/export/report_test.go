@@ -60,8 +60,8 @@ func TestReportIsSelfContained(t *testing.T) {
 		}
 	}
 	srcs := regexp.MustCompile(`\ssrc="([^"]*)"`).FindAllStringSubmatch(page, -1)
-	if len(srcs) != 2 {
-		t.Errorf("%d images, want 2 (one plot per pick)", len(srcs))
+	if len(srcs) != 4 {
+		t.Errorf("%d images, want 4 (the spot plot and the build study's histograms of each pick)", len(srcs))
 	}
 	for _, s := range srcs {
 		if !strings.HasPrefix(s[1], "data:image/png;base64,") {
@@ -71,7 +71,8 @@ func TestReportIsSelfContained(t *testing.T) {
 	if n := strings.Count(page, `<svg xmlns="http://www.w3.org/2000/svg" class="cardinal-layout"`); n != 2 {
 		t.Errorf("%d inline drawings, want 2", n)
 	}
-	for _, want := range []string{"Requirement", "Ranked results", `class="picked"`, "Purchase request", "TEST:PCX-50", "Cautions"} {
+	for _, want := range []string{"Requirement", "Ranked results", `class="picked"`, "Purchase request", "TEST:PCX-50", "Cautions",
+		"Will it build?", `id="buildstudy-1"`, "of builds meet the target", "focal length of part 1"} {
 		if !strings.Contains(page, want) {
 			t.Errorf("the report lacks %q", want)
 		}
