@@ -30,7 +30,8 @@ func newReportCmd(e *env, run func(*reportOptions) error) *cobra.Command {
 "last"): the requirement, the ranked results (with their real-ray figures
 where the search traced them, and a note on what the ranking used), for each
 chosen result its build table, to-scale layout drawing, spot figures with
-their RMS figures, then the purchase request and the cautions. The page is self-contained (styles
+their RMS figures, its build study (as 'cardinal tolerance' prints it, with the
+histograms), then the purchase request and the cautions. The page is self-contained (styles
 inline, drawings as inline SVG, plots as embedded PNG): it fetches nothing, so
 it can be mailed, archived with a lab notebook or printed.`,
 		Example: `  cardinal report last --pick 1,2 -o report.html
