@@ -99,7 +99,8 @@ func TestNewton(t *testing.T) {
 
 func TestPlanoConvexPrincipalPoint(t *testing.T) {
 	// A plano-convex lens has one principal point on its curved vertex
-	// (common practice; Hecht eq. 6.3 with R2 infinite gives h1 = 0).
+	// (common practice; Hecht, Optics, 5th ed., sec. 6.2.1: h1 = -f(n-1)d/(n R2),
+	// zero when R2 is infinite).
 	pcx := singlet(51.5, math.Inf(1), 4, 1.5168, 25)
 	c := pcx.System(nil, nil).Cardinal(LineD)
 	checkNear(t, "P at curved vertex", c.P, 0, 1e-12, 0)

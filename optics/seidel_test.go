@@ -116,10 +116,13 @@ func TestPlanoConvexOrientationRatio(t *testing.T) {
 		tr := traceAtParaxialFocus(t, p.System(nil, nil), Object{Z: math.Inf(-1), Aperture: Aperture{Beam: 10}}, 0)
 		return tr.BestFocus().RMS
 	}
+	// Third order gives 3.857; the part's thickness (4 mm at f = 100 mm)
+	// and the higher orders at f/10 move the real-ray ratio by about 1 %
+	// (3.898 measured), so 3 % is allowed and no more: a shape-factor
+	// formula off by one term would miss it by far more.
 	ratio := rms(pcx.Reversed()) / rms(pcx)
-	if ratio < 3.5 || ratio > 4.5 {
-		t.Errorf("real-ray RMS ratio flat-first / curved-first = %.3f, want about 4", ratio)
-	}
+	checkNear(t, "real-ray RMS ratio flat-first / curved-first", ratio, 36/(9+28.0/3-40.0/3+13.0/3), 0, 0.03)
+	t.Logf("real-ray ratio %.3f", ratio)
 }
 
 // traceAtParaxialFocus traces a 12-ring hexapolar bundle to the paraxial

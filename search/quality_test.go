@@ -55,14 +55,70 @@ func TestPlanoConvexCurvedSideFirst(t *testing.T) {
 		curved, plano := out.Results[0].ImageQuality, out.Results[1].ImageQuality
 		got := plano.RMSSpot / curved.RMSSpot
 		want := thinLensSpherical(1.5, -1, -1) / thinLensSpherical(1.5, 1, -1) // plano first B = -1, curved first B = +1
-		checkNear(t, "spot ratio plano-first over curved-first", got, want, 0, 0.05)
+		// 3.857 at third order; 1 % off with real rays at f/10 through
+		// 4 mm of glass (measured 3.898), so 3 % is asked.
+		checkNear(t, "spot ratio plano-first over curved-first", got, want, 0, 0.03)
 		t.Logf("spot ratio %.3f, thin-lens third order %.3f", got, want)
 		if !(out.Results[0].Score < out.Results[1].Score) {
 			t.Errorf("scores %g and %g: the sharper orientation should score lower", out.Results[0].Score, out.Results[1].Score)
 		}
 	}
-	// The best form of the formula itself: dS/dB = 0 at B = -2(n^2-1)C/(n+2).
-	checkNear(t, "best-form shape factor, n = 1.5", 2*(1.5*1.5-1)/(1.5+2), 0.71, 0.01, 0)
+}
+
+// Over a bending family of singlets of one power, the real-ray stage finds
+// the smallest spot at the shape factor of least third-order spherical
+// aberration, B = -2(n^2-1)C/(n+2) = 0.714 for n = 1.5 and an object at
+// infinity (Welford, Aberrations of Optical Systems, 1986, ch. 7, from
+// dS/dB = 0 of the coefficient above). The samples are 0.2 apart and the
+// parts 2 mm thick, so the parabola through the best three may sit up to
+// about 0.1 from the thin-lens value.
+func TestBestFormFromRealRays(t *testing.T) {
+	const n, f = 1.5, 100.0
+	shapes := []float64{-0.5, 0.1, 0.3, 0.5, 0.7, 0.9, 1.1, 1.3, 1.7}
+	var its []Item
+	for i, b := range shapes {
+		// Lensmaker's thin-lens form: c1 - c2 = 1/((n-1) f), B = (c1+c2)/(c1-c2).
+		dc := 1 / ((n - 1) * f)
+		c1, c2 := dc*(b+1)/2, dc*(b-1)/2
+		its = append(its, Item{Entry: importers.Entry{Part: lens(fmt.Sprintf("B%d", i), 1/c1, 1/c2, 2, n, 25.4)}})
+	}
+	req := focusReq(f)
+	req.EFLTol, req.Elements, req.Beam, req.Wavelength = Tolerance{Value: 3, Percent: true}, 1, 10, optics.LineD
+	out := mustFind(t, its, req)
+	spot := map[float64]float64{}
+	for _, r := range out.Results {
+		var i int
+		fmt.Sscanf(r.Parts[0].Part, "B%d", &i)
+		b := shapes[i]
+		if r.Parts[0].Reversed {
+			b = -b // turned around, the shape factor changes sign
+		}
+		if r.ImageQuality != nil {
+			spot[b] = r.ImageQuality.RMSSpot
+		}
+	}
+	best := math.Inf(1)
+	var bBest float64
+	for b, s := range spot {
+		if s < best {
+			best, bBest = s, b
+		}
+	}
+	k := -1
+	for i, b := range shapes {
+		if b == bBest {
+			k = i
+		}
+	}
+	if k <= 0 || k == len(shapes)-1 {
+		t.Fatalf("smallest spot at B = %g (spots %v): want an inner sample", bBest, spot)
+	}
+	// Vertex of the parabola through the best sample and its neighbours.
+	x0, x1, x2 := shapes[k-1], shapes[k], shapes[k+1]
+	y0, y1, y2 := spot[x0], spot[x1], spot[x2]
+	vertex := x1 - 0.5*((x1-x0)*(x1-x0)*(y1-y2)-(x1-x2)*(x1-x2)*(y1-y0))/((x1-x0)*(y1-y2)-(x1-x2)*(y1-y0))
+	checkNear(t, "shape factor of the smallest real-ray spot", vertex, 2*(n*n-1)/(n+2), 0.1, 0)
+	t.Logf("smallest spot at B = %.3f, thin-lens best form %.3f", vertex, 2*(n*n-1)/(n+2))
 }
 
 // The figures of a result: the Airy radius of an f/10 focus is 1.22

@@ -8,7 +8,7 @@ import (
 // achromatize corrects the thin-lens achromat for its real thicknesses: it
 // bends the flint's last surface until the thick doublet has the same power
 // at the F and C lines (the definition of an achromat: the C and F foci
-// coincide; Hecht, Optics, ch. 6), re-solving the thicknesses and the
+// coincide; Hecht, Optics, 5th ed., ch. 6), re-solving the thicknesses and the
 // power each time. The thin-lens split is already close, so a few Newton
 // steps on that one curvature suffice.
 func (l *layout) achromatize(phi, diameter float64) error {

@@ -94,7 +94,7 @@ func newLayout(s Spec) (*layout, error) {
 // achromatLayout splits the power between crown and flint so that the
 // thin-lens achromat condition phi1/V1 + phi2/V2 = 0 holds with
 // phi1 + phi2 = phi: phi1 = phi V1/(V1 - V2), phi2 = -phi V2/(V1 - V2)
-// (Hecht, Optics, ch. 6, thin achromatic doublets; Smith, Modern Optical
+// (Hecht, Optics, 5th ed., ch. 6, thin achromatic doublets; Smith, Modern Optical
 // Engineering, ch. 5).
 func achromatLayout(s Spec, g1 glassInfo, phi float64) (*layout, error) {
 	g2, err := lookupGlass(s.Flint)

@@ -9,7 +9,8 @@ import (
 )
 
 // thickLens is the thick-lens lensmaker's equation and back focal distance
-// in air (E. Hecht, Optics, 4th ed., 2002, sec. 6.2, eqs. 6.2 and 6.3):
+// in air (E. Hecht, Optics, 5th ed., 2017, sec. 6.2.1: eq. 6.2 for 1/f,
+// eq. 6.4 for the back focal length; numbers from memory):
 // 1/f = (n-1)[1/R1 - 1/R2 + (n-1)d/(n R1 R2)], BFD = f - f(n-1)d/(n R1).
 func thickLens(r1, r2, d, n float64) (efl, bfd float64) {
 	c1, c2 := 1/r1, 1/r2 // an infinite radius gives a zero curvature
@@ -46,7 +47,7 @@ func TestDesignSinglets(t *testing.T) {
 			checkNear(t, "thick-lens EFL (Hecht eq. 6.2)", efl, tc.spec.EFL, 0, 1e-3)
 			c := p.System(nil, nil).Cardinal(optics.LineD)
 			checkNear(t, "optics EFL", c.EFL, efl, 0, 1e-9)
-			checkNear(t, "optics BFD (Hecht eq. 6.3)", c.BFD(), bfd, 1e-9, 1e-9)
+			checkNear(t, "optics BFD (Hecht eq. 6.4)", c.BFD(), bfd, 1e-9, 1e-9)
 			checkThickness(t, tc.spec, p)
 		})
 	}
@@ -135,7 +136,7 @@ func TestShapes(t *testing.T) {
 	})
 	t.Run("best form at n 1.5", func(t *testing.T) {
 		// For n = 1.5 the lens of least spherical aberration at infinite
-		// conjugate has R2 = -6 R1 (Hecht, Optics, sec. 6.3.1; common
+		// conjugate has R2 = -6 R1 (Hecht, Optics, 5th ed., sec. 6.3.1; common
 		// practice). The thick lens bends a little from the thin-lens
 		// shape, so 3 % is allowed.
 		r1, r2 := r(BestForm, "500600", 200)
@@ -168,7 +169,7 @@ func TestAchromat(t *testing.T) {
 }
 
 // TestSingletColour is the reference for TestAchromat: a thin-ish
-// singlet's fC - fF matches f/V (Hecht, Optics, sec. 6.3.2).
+// singlet's fC - fF matches f/V (Hecht, Optics, 5th ed., sec. 6.3.2).
 func TestSingletColour(t *testing.T) {
 	p := mustDesign(t, Spec{Kind: PlanoConvex, Glass: "517642", Diameter: 12.7, EFL: 400})
 	sys := p.System(nil, nil)

@@ -35,7 +35,7 @@ func (k Kind) Positive() bool {
 
 // shapeFactor is the Coddington shape factor q = (c1 + c2)/(c1 - c2) of a
 // singlet of this kind in glass of index n (W. J. Smith, Modern Optical
-// Engineering, 4th ed., ch. 6; Hecht, Optics, ch. 6): 0 is equiconvex or
+// Engineering, 4th ed., ch. 6; Hecht, Optics, 5th ed., ch. 6): 0 is equiconvex or
 // equiconcave, +1 puts the flat side second; beyond 1 the lens is a meniscus.
 func (k Kind) shapeFactor(n float64) float64 {
 	switch k {

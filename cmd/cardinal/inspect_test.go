@@ -250,7 +250,7 @@ func TestInspectAgainstFormulas(t *testing.T) {
 		{"reversed: P' on the curved vertex", func(o *inspectOptions) { o.Reverse = true }, "principal_prime_mm", 0, 1e-12},
 		{"reversed: P = d/n", func(o *inspectOptions) { o.Reverse = true }, "principal_mm", d / n, 1e-12},
 		// In water the first surface has power (n - n_w)/R; f = -n_w/phi,
-		// f' = 1/phi, and N lies (n' - n)/phi from P (Hecht sec. 6.1).
+		// f' = 1/phi, and N lies (n' - n)/phi from P (Hecht, Optics, 5th ed., sec. 6.1).
 		// n_w = 1.333 is known to about 5e-4 here, which the small index
 		// step n - n_w = 0.184 magnifies to 3e-3 in the focal lengths.
 		{"water: back focal length", func(o *inspectOptions) { o.MediumIn = "water" }, "f_back_mm", fw, 3e-3},
