@@ -419,6 +419,9 @@ func compareOracle(t *testing.T, its []Item, req Requirement, samples int) int {
 	}
 	got := searchLayouts(out.Results)
 	want := oracle(its, req, samples)
+	if len(want) >= MaxShown {
+		t.Fatalf("%s: the oracle finds %d layouts, past the %d a search keeps: tighten the requirement", req.Kind, len(want), MaxShown)
+	}
 	var missing, extra []string
 	for _, w := range unmatched(want, got) {
 		if w.margin > 1e-6 {
@@ -470,10 +473,10 @@ func head(s []string) string {
 // that bound the gap scan (an envelope maximum, or the track).
 func oracleRequirements() map[string]Requirement {
 	focus := focusReq(75)
-	focus.BFDMin, focus.LengthMax = 20, 120
+	focus.BFDMin, focus.LengthMax, focus.GapMin = 40, 12, 1
 	img := imageReq(300, -0.36)
 	img.MagTol = Tolerance{Value: 2, Percent: true}
-	img.WDMin, img.BFDMin = 30, 15
+	img.WDMin, img.BFDMin, img.LengthMax = 60, 40, 12
 	exp := expandReq(5)
 	exp.ExpandTol, exp.LengthMax = Tolerance{Value: 2, Percent: true}, 150
 	return map[string]Requirement{"focus": focus, "image": img, "expand": exp}
@@ -512,14 +515,15 @@ func TestOracleRandom(t *testing.T) {
 		case 0:
 			req.Kind, req.EFL, req.EFLTol = Focus, 30+rng.Float64()*200, Tolerance{Value: 1, Percent: true}
 			req.BFDMin = rng.Float64() * 30
-			req.LengthMax = 40 + rng.Float64()*150
+			req.LengthMax = 8 + rng.Float64()*10
 		case 1:
 			req.Kind, req.Track, req.MagTol = Image, 150+rng.Float64()*500, Tolerance{Value: 2, Percent: true}
 			req.Mag = -(0.1 + rng.Float64()*3)
 			if rng.IntN(4) == 0 {
 				req.Mag = -req.Mag
 			}
-			req.WDMin, req.BFDMin = rng.Float64()*req.Track/6, rng.Float64()*req.Track/6
+			req.WDMin, req.BFDMin = req.Track/6+rng.Float64()*req.Track/6, req.Track/6+rng.Float64()*req.Track/6
+			req.LengthMax = 10 + rng.Float64()*20
 		case 2:
 			req.Kind, req.Expansion, req.ExpandTol = Expand, 0.3+rng.Float64()*8, Tolerance{Value: 3, Percent: true}
 			req.Form = []Form{AnyForm, Keplerian, Galilean}[rng.IntN(3)]
