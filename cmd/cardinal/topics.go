@@ -16,6 +16,15 @@ var helpTopics embed.FS
 // topics lists the help topics: a name, a one-line summary, the file.
 var topics = []struct{ name, short string }{
 	{"glossary", "One name per idea: flags, columns, JSON and CSV keys"},
+	{"figures", "What 'inspect' prints: every cardinal point, real-ray figures, JSON keys"},
+	{"csv", "The neutral CSV formats: prescriptions, glasses, drawer"},
+	{"sheets", "Spreadsheets and supplier CSVs through a mapping; glass aliases"},
+	{"catalog-file", "Where the catalog lives, its tables, reading it with sqlite3"},
+	{"finding", "How find solves, checks and ranks (the score and its weights)"},
+	{"building", "Will it build? Stock tolerances, adjustment range, yield"},
+	{"quality", "The real-ray figures, the diffraction-limited verdict, the sharpness term"},
+	{"outputs", "Requests, build sheets, drawings, plots and reports"},
+	{"saved", "Saved searches, demo:N references, shell completion"},
 }
 
 // topicCommands are the help topics as cobra help-only commands.
