@@ -49,3 +49,54 @@ func TestGaussianThroughPlate(t *testing.T) {
 		t.Errorf("output index %g", out.N)
 	}
 }
+
+func TestGaussianFocusSelf(t *testing.T) {
+	// S. A. Self, "Focusing of spherical Gaussian beams", Appl. Opt. 22,
+	// 658-661 (1983), eqs. (9) and (11): a waist w0 (Rayleigh range zR) at
+	// a distance s before a thin lens f is imaged to a waist at s'' with
+	// 1/(s + zR^2/(s - f)) + 1/s'' = 1/f, of radius m w0 with
+	// m = 1 / sqrt((1 - s/f)^2 + (zR/f)^2). The cases include an input
+	// Rayleigh range comparable to f, where the waist lies well before the
+	// paraxial focus (s = 0: s'' = f / (1 + (f/zR)^2)).
+	for _, tc := range []struct {
+		name         string
+		w0, s, f, wl float64
+	}{
+		{"zR comparable to f, waist at the lens", 0.5, 0, 500, 1064},
+		{"waist 300 mm before", 0.3, 300, 200, 632.8},
+		{"waist inside f", 0.1, 40, 100, 1064},
+		{"diverging lens", 0.4, 150, -80, 532},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			g := NewGaussianBeam(tc.wl, tc.w0, tc.s, 1)
+			zr := g.RayleighRange()
+			out := g.Through(Refraction(1/tc.f), 1)
+			sPP := 1 / (1/tc.f - 1/(tc.s+zr*zr/(tc.s-tc.f)))
+			m := 1 / math.Sqrt(sq(1-tc.s/tc.f)+sq(zr/tc.f))
+			checkNear(t, "waist position s''", -out.WaistDistance(), sPP, 1e-9, 1e-9)
+			checkNear(t, "waist radius", out.WaistRadius(), m*tc.w0, 0, 1e-9)
+		})
+	}
+	// The case the issue names: the waist of a 0.5 mm beam at 1064 nm
+	// through f = 500 mm lies at 342.7 mm, far before the paraxial focus
+	// (Self 1983, eq. (9) with s = 0, evaluated by hand).
+	out := NewGaussianBeam(1064, 0.5, 0, 1).Through(Refraction(1.0/500), 1)
+	checkNear(t, "waist before the paraxial focus", -out.WaistDistance(), 342.7, 0.1, 0)
+}
+
+func TestEmbeddedGaussian(t *testing.T) {
+	// A collimated beam of quality M^2 and waist W0 focused by f has a
+	// waist M^2 lambda f / (pi W0) in the far-field limit and diverges at
+	// M^2 lambda / (pi W0) (Siegman, Proc. SPIE 1224, 2 (1990); ISO
+	// 11146-1; from memory).
+	for _, m2 := range []float64{1, 1.3, 4} {
+		g := NewEmbeddedBeam(1064, 2, 0, 1, m2)
+		checkNear(t, "waist", g.WaistRadius(), 2, 0, 1e-12)
+		checkNear(t, "divergence", g.Divergence(), m2*1064e-6/(math.Pi*2), 0, 1e-12)
+		out := g.Through(Refraction(1.0/50), 1)
+		checkNear(t, "focused waist", out.WaistRadius(), m2*1064e-6*50/(math.Pi*2), 0, 1e-3)
+		if out.Quality() != m2 {
+			t.Errorf("M^2 after a lens %g, want %g", out.Quality(), m2)
+		}
+	}
+}

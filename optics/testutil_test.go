@@ -26,3 +26,9 @@ func singlet(r1, r2, t, n, diameter float64) Part {
 		Thickness: []float64{t},
 		Media:     []Medium{Constant{Label: "n", N: n}}}
 }
+
+func cmplxExp(z complex128) complex128 {
+	return complex(math.Exp(real(z))*math.Cos(imag(z)), math.Exp(real(z))*math.Sin(imag(z)))
+}
+
+func sqAbs(z complex128) float64 { return real(z)*real(z) + imag(z)*imag(z) }

@@ -57,13 +57,17 @@ func (r ray) travel(d float64) ray { return ray{r.y + d*r.u, r.u} }
 // at the NA and the chief ray leaves the edge of the field towards the first
 // vertex, where the aperture stop is taken to be.
 func (s *search) rayHeights(l *layout) {
+	if s.req.Kind == Match {
+		s.beamHeights(l)
+		return
+	}
 	var marg, chief ray
 	switch s.req.Kind {
 	case Image:
 		marg = ray{s.req.NA * l.wd, s.req.NA}
 		chief = ray{0, -s.req.ObjectHeight / l.wd}
 	default:
-		marg = ray{s.req.Beam / 2, 0}
+		marg = ray{s.req.BeamDiameter() / 2, 0}
 	}
 	parts := [2]int32{l.a, l.b}
 	l.vigRatio, l.vigPart = 0, 0
@@ -75,6 +79,29 @@ func (s *search) rayHeights(l *layout) {
 		front := (math.Abs(marg.y) + math.Abs(chief.y)) / c.semi
 		marg, chief = marg.through(c.m), chief.through(c.m)
 		back := (math.Abs(marg.y) + math.Abs(chief.y)) / c.semi
+		if r := math.Max(front, back); r > l.vigRatio {
+			l.vigRatio, l.vigPart = r, int8(k)
+		}
+	}
+}
+
+// beamHeights is rayHeights for a Gaussian beam (mode matching): the beam's
+// 1/e^2 radius w at the outer surfaces of each part, counted as 1.5 w so
+// that the clear aperture passes about 99 % of the power (a circular
+// aperture of radius a passes 1 - exp(-2 a^2 / w^2) of a centred Gaussian
+// beam, 98.9 % at a = 1.5 w; Siegman, Lasers, 1986, ch. 17).
+func (s *search) beamHeights(l *layout) {
+	g := optics.NewGaussianBeam(s.req.Lambda(), s.req.WaistIn, l.wd, 1)
+	parts := [2]int32{l.a, l.b}
+	l.vigRatio, l.vigPart = 0, 0
+	for k, ci := range parts[:l.elements()] {
+		c := &s.c[ci]
+		if k > 0 {
+			g = g.Propagate(l.gap)
+		}
+		front := 1.5 * g.Radius() / c.semi
+		g = g.Through(c.m, 1)
+		back := 1.5 * g.Radius() / c.semi
 		if r := math.Max(front, back); r > l.vigRatio {
 			l.vigRatio, l.vigPart = r, int8(k)
 		}

@@ -63,16 +63,33 @@ func runPrepared(p *prepared, req Requirement, prune bool) (Outcome, error) {
 	ls := s.sorted()
 	met, traced := len(ls), 0
 	var js []judgement
-	if req.TracesRays() {
-		if err := s.fetchJudged(p, ls); err != nil {
+	if req.TracesRays() || req.Gaussian() {
+		n := len(ls)
+		if !req.Gaussian() {
+			n = min(n, maxTraced)
+		}
+		if err := s.fetchParts(p, ls[:n]); err != nil {
 			return Outcome{}, err
 		}
+	}
+	var cs []collimation
+	switch {
+	case req.TracesRays():
 		ls, js, traced = s.judge(p, ls)
+	case req.collimates():
+		ls, cs = s.collimate(p, ls)
 	}
 	for k := range ls {
 		r := s.result(p, &ls[k], k+1)
 		if js != nil {
 			js[k].apply(&r, s.sc.w)
+		}
+		if req.Gaussian() {
+			var c *collimation
+			if cs != nil {
+				c = &cs[k]
+			}
+			s.laserResult(p, &ls[k], &r, c)
 		}
 		out.Results = append(out.Results, r)
 	}
@@ -83,6 +100,9 @@ func runPrepared(p *prepared, req Requirement, prune bool) (Outcome, error) {
 	out.Notes = notes(p, req)
 	if met > 0 {
 		out.Notes = append(out.Notes, qualityNotes(req, traced, met, js)...)
+	}
+	if req.Gaussian() && len(out.Results) > 0 {
+		out.Notes = append(out.Notes, GhostNotes(req)...)
 	}
 	if n := shownNote(out); n != "" {
 		out.Notes = append(out.Notes, n)
@@ -144,7 +164,10 @@ const maxStudied = 100
 // the yield and spread terms to the scores, orders the results again and
 // keeps the requirement's top N.
 func (s *search) studyBuilds(p *prepared, ls []layout, rs []Result) ([]Result, error) {
-	if len(rs) == 0 {
+	if len(rs) == 0 || s.req.Kind == Match {
+		// Mode matching is judged by its coupling and the spacing
+		// tolerance of a 1 % drop (match.go), not by a build study of
+		// a first-order target.
 		return rs, nil
 	}
 	n := min(len(ls), maxStudied)

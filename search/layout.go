@@ -4,18 +4,21 @@ import "math"
 
 // Checks a layout can fail, one bit each.
 const (
-	failTarget   uint16 = 1 << iota // EFL, magnification or expansion out of tolerance
-	failForm                        // Keplerian asked, Galilean found, or the other way
-	failBack                        // back clearance below the minimum
-	failWD                          // working distance below the minimum
-	failGap                         // facing surfaces closer than the gap minimum
-	failEnvelope                    // longer than the length maximum
-	failAperture                    // a ray height exceeds a part's clear aperture
-	failDrawer                      // the drawer holds fewer pieces than needed
+	failTarget    uint16 = 1 << iota // EFL, magnification or expansion out of tolerance
+	failForm                         // Keplerian asked, Galilean found, or the other way
+	failBack                         // back clearance below the minimum
+	failWD                           // working distance below the minimum
+	failGap                          // facing surfaces closer than the gap minimum
+	failEnvelope                     // longer than the length maximum
+	failAperture                     // a ray height exceeds a part's clear aperture
+	failDrawer                       // the drawer holds fewer pieces than needed
+	failCollimate                    // laser expander: no gap puts the output waist where asked
+	failCoupling                     // mode matching: coupling below the minimum
+	failLast      = failCoupling
 )
 
 // checkNames are the names of the checks in output, in bit order.
-var checkNames = []string{"target", "form", "back_clearance", "working_distance", "gap", "envelope", "aperture", "drawer"}
+var checkNames = []string{"target", "form", "back_clearance", "working_distance", "gap", "envelope", "aperture", "drawer", "collimation", "coupling"}
 
 // layout is one way to use one candidate or two: the solved distances, the
 // achieved first-order figure and the checks.
@@ -82,6 +85,18 @@ func (s *search) sortKey(i int32) int64 {
 	return int64(c.key)*2 + int64(b2i(c.rev))
 }
 
+// scoredLength is the length the envelope term of the score counts: the
+// envelope, or for mode matching the whole track from waist to waist
+// (without a fixed track the shortest layout is the aim; with one it is
+// the same for all). It is never less than the envelope, so the pruning's
+// bounds on the envelope bound it too.
+func (s *search) scoredLength(l *layout) float64 {
+	if s.req.Kind == Match {
+		return l.track
+	}
+	return l.env
+}
+
 // finish computes the score and applies the checks common to every kind.
 // It returns false, with the layout only counted as solved, when the score
 // alone keeps the layout out of the results: the checks would change
@@ -90,9 +105,9 @@ func (s *search) finish(l *layout) bool {
 	a := &s.c[l.a]
 	if l.pair() {
 		b := &s.c[l.b]
-		l.score = s.sc.pair(l.err, l.env, pairAway(a, b), pairPrice(a, b))
+		l.score = s.sc.pair(l.err, s.scoredLength(l), pairAway(a, b), pairPrice(a, b))
 	} else {
-		l.score = s.sc.singlet(a, l.err, l.env)
+		l.score = s.sc.singlet(a, l.err, s.scoredLength(l))
 	}
 	if b := s.bound(); l.score > b+margin(b) {
 		s.solved++

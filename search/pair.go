@@ -16,6 +16,8 @@ func (s *search) pair(i, j int32) {
 		s.pairImage(i, j)
 	case Expand:
 		s.pairExpand(i, j)
+	case Match:
+		s.pairMatch(i, j)
 	}
 }
 

@@ -99,6 +99,8 @@ func (s *search) open(a *cand, n *node) (bool, float64) {
 		ok, gLo = s.openFocus(a, n, f2, gMin, gMax)
 	case Expand:
 		ok, gLo, miss = s.openExpand(a, n, f2, gMin, gMax)
+	case Match:
+		ok, gLo = s.openMatch(a, n, gMin, gMax)
 	default:
 		ok, gLo = s.openImage(a, n, gMin, gMax)
 	}
@@ -125,6 +127,16 @@ func (s *search) openFocus(a *cand, n *node, f2 iv, gMin, gMax float64) (bool, f
 	}
 	bc := iv{n.ppMin, n.ppMax}.add(f2.mul(pt(1 - f0/a.f)))
 	return bc.hi+margin(bc.hi) >= s.lim.bfdMin, g.lo - margin(g.lo)
+}
+
+// openMatch: a mode-matching pair has a real input and output waist, so
+// on a fixed track the gap leaves room for a positive working distance
+// and back clearance at their minimums; the score bound does the rest.
+func (s *search) openMatch(a *cand, n *node, gMin, gMax float64) (bool, float64) {
+	if T := s.req.Track; T > 0 {
+		gMax = math.Min(gMax, T-math.Max(0, s.lim.wdMin)-math.Max(0, s.lim.bfdMin)-a.L-n.lMin)
+	}
+	return gMax >= gMin-margin(gMin), gMin
 }
 
 // openExpand: afocal, so the principal points are f1 + f2 apart and the

@@ -122,7 +122,15 @@ func (q ImageQuality) ColourBlur(wavelengthNm float64) float64 {
 // approximation of common practice for independent blurs). 0 means a
 // perfect image; each doubling of the blur adds 1.
 func (q ImageQuality) Sharpness(wavelengthNm float64) float64 {
-	a, c := q.AiryRadius, q.ColourBlur(wavelengthNm)
+	return q.SharpnessAgainst(q.AiryRadius, wavelengthNm)
+}
+
+// SharpnessAgainst is Sharpness with a reference blur a (um) in place of
+// the Airy radius: for a laser, the RMS radius of the Gaussian waist
+// (laser.go), so that a laser spot is judged against the waist it can
+// reach rather than the Airy disc of a uniformly filled pupil.
+func (q ImageQuality) SharpnessAgainst(a, wavelengthNm float64) float64 {
+	c := q.ColourBlur(wavelengthNm)
 	spots := []float64{q.RMSSpot}
 	if q.RMSSpotEdge != nil {
 		spots = append(spots, *q.RMSSpotEdge)
@@ -152,7 +160,7 @@ func (q ImageQuality) Figures() map[string]float64 {
 // requirement with a beam or an image requirement with an NA. An expander
 // is afocal and is ranked on first order only.
 func (r Requirement) TracesRays() bool {
-	return r.Kind != Expand && (r.Beam > 0 || r.NA > 0)
+	return (r.Kind == Focus || r.Kind == Image) && (r.BeamDiameter() > 0 || r.NA > 0)
 }
 
 // survivors is how many layouts the first-order search keeps: the top N
@@ -162,7 +170,7 @@ func survivors(r Requirement) int {
 	if r.Prefer == PreferRobust && !r.TracesRays() {
 		return min(max(3*r.Shown(), 30), MaxShown) // the build study reorders them (find.go)
 	}
-	if !r.TracesRays() {
+	if !r.TracesRays() && !r.collimates() {
 		return r.Shown()
 	}
 	return min(max(3*r.Shown(), 30), MaxShown)
@@ -178,7 +186,7 @@ func (r Requirement) Conditions(wd, bc float64) optics.Conditions {
 	c := optics.Conditions{Reference: r.Lambda(), Band: r.Band, ImageZ: bc, FixedImage: true}
 	switch r.Kind {
 	case Focus:
-		c.Object = optics.Object{Z: math.Inf(-1), Aperture: optics.Aperture{Beam: r.Beam}}
+		c.Object = optics.Object{Z: math.Inf(-1), Aperture: optics.Aperture{Beam: r.BeamDiameter()}}
 		c.Field = r.FieldAngle
 	case Image:
 		c.Object = optics.Object{Z: -wd, Aperture: optics.Aperture{NA: r.NA}}
@@ -190,7 +198,8 @@ func (r Requirement) Conditions(wd, bc float64) optics.Conditions {
 // judgement is the real-ray verdict on one layout.
 type judgement struct {
 	q        *ImageQuality // nil when the layout was not traced or could not be
-	term     float64       // Sharpness
+	term     float64       // Sharpness (against the Gaussian waist for a laser)
+	ref      string        // what the spot is judged against: "Airy" or "waist"
 	warnings []string
 	err      error // why the rays could not be traced
 }
@@ -256,7 +265,11 @@ func (s *search) assess(p *prepared, l *layout) judgement {
 		return judgement{err: err}
 	}
 	iq := NewImageQuality(q, c.Field != 0, c.Band)
-	return judgement{q: &iq, term: iq.Sharpness(c.Reference), warnings: q.Warnings}
+	if s.req.Gaussian() && s.req.Kind == Focus {
+		ref := gaussianRMS(s.focusFigures(l).WaistRadius)
+		return judgement{q: &iq, term: iq.SharpnessAgainst(ref, c.Reference), ref: "waist", warnings: q.Warnings}
+	}
+	return judgement{q: &iq, term: iq.Sharpness(c.Reference), ref: "Airy", warnings: q.Warnings}
 }
 
 // system is the layout as one optical system in air.
@@ -296,6 +309,8 @@ func (j judgement) apply(r *Result, w Weights) {
 	switch worst := worstSpot(j.q); {
 	case j.q.DiffractionLimited:
 		r.Reason += ", diffraction limited"
+	case j.ref == "waist":
+		r.Reason += ", aberration dominates the waist"
 	default:
 		r.Reason += fmt.Sprintf(", spot %.2gx Airy, not diffraction limited (%s)", worst/j.q.AiryRadius, strings.TrimPrefix(j.q.DiffractionLimitedWhy, "no: "))
 	}
@@ -314,13 +329,20 @@ func worstSpot(q *ImageQuality) float64 {
 // result's ray losses and failures by rank.
 func qualityNotes(req Requirement, traced, met int, js []judgement) []string {
 	switch {
+	case req.collimates():
+		return []string{fmt.Sprintf("laser expanders: the gap collimates the Gaussian beam (output waist %s mm beyond the last part); real rays at that gap give the wavefront error, and the ranking weighs the estimated divergence against the diffraction limit of the output beam", formatG(req.WaistOutAt))}
 	case req.Kind == Expand:
 		return []string{"expanders are ranked on first order only: real rays are not traced through afocal systems"}
+	case req.Kind == Match:
+		return nil
 	case !req.TracesRays():
 		return []string{"image quality not judged: give --beam (focus) or --na (image) to trace real rays"}
 	}
 	n := []string{fmt.Sprintf("real rays traced at %s nm through the %d best first-order %s; ranked by image quality too",
 		formatG(req.Lambda()), traced, plural(traced, "layout", "layouts"))}
+	if req.Gaussian() {
+		n[0] += " (for a laser, the RMS spot against the RMS radius of the Gaussian waist, w/sqrt 2)"
+	}
 	if traced < met {
 		n = append(n, fmt.Sprintf("the next %d layouts that meet were not traced (at most %d are): they rank after the traced ones, on first order only", met-traced, maxTraced))
 	}

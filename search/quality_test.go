@@ -411,6 +411,8 @@ func TestLaser(t *testing.T) {
 		{"infrared", Requirement{Kind: Focus, Wavelength: 1064}, true},
 		{"ultraviolet", Requirement{Kind: Image, Wavelength: 355}, true},
 		{"d line by default", Requirement{Kind: Image}, false},
+		{"input waist", Requirement{Kind: Focus, WaistIn: 0.4, Wavelength: 632.8}, true},
+		{"mode matching", Requirement{Kind: Match, Wavelength: 632.8}, true},
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {

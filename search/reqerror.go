@@ -126,6 +126,13 @@ func Ranges() []Range {
 		{"efl_tol", 0, far, "mm or %"},
 		{"mag_tol", 0, 1e4, "or %"},
 		{"expand_tol", 0, 1e3, "or %"},
+		{"waist_in_mm", 0, 1000, "mm"},
+		{"waist_in_at_mm", 0, far, "mm (either sign)"},
+		{"m2", 1, 1000, ""},
+		{"waist_out_at_mm", 0, far, "mm"},
+		{"laser_exit_mm", 0, far, "mm"},
+		{"waist_out_mm", 0, 1000, "mm"},
+		{"coupling_min", 0, 1, ""},
 	}
 }
 

@@ -12,11 +12,12 @@ import (
 // Kind is what a requirement asks of the optics.
 type Kind string
 
-// The three requirement kinds (see DESIGN.md, "Requirement kinds").
+// The requirement kinds (see DESIGN.md, "Requirement kinds").
 const (
 	Focus  Kind = "focus"  // infinite conjugate: an EFL, focusing a collimated beam
 	Image  Kind = "image"  // finite conjugate: a track and a magnification
 	Expand Kind = "expand" // afocal: a beam-expansion ratio
+	Match  Kind = "match"  // mode matching: one Gaussian waist into another (match.go)
 )
 
 // Form is the kind of afocal pair a beam expander may be.
@@ -95,6 +96,19 @@ type Requirement struct {
 
 	// Build says how every ranked result is simulated as built (build.go).
 	Build BuildSettings `json:"build,omitzero"`
+
+	// Laser beams (laser.go): a laser requirement (IsLaser) treats the
+	// input as a Gaussian beam.
+	WaistIn    float64 `json:"waist_in_mm,omitempty"`     // input waist, 1/e^2 radius; 0: Beam/2 at the first vertex
+	WaistInAt  float64 `json:"waist_in_at_mm,omitempty"`  // input waist before the first vertex (negative: after it)
+	M2         float64 `json:"m2,omitempty"`              // beam quality M^2; 0 means 1
+	WaistOutAt float64 `json:"waist_out_at_mm,omitempty"` // expand: output waist beyond the last vertex
+	LaserExit  float64 `json:"laser_exit_mm,omitempty"`   // the laser's exit aperture before the first vertex; 0 unknown
+
+	// Match: the output waist radius and the least power coupling into
+	// it; Track (optional) is the distance between the two waist planes.
+	WaistOut    float64 `json:"waist_out_mm,omitempty"`
+	CouplingMin float64 `json:"coupling_min,omitempty"` // 0 means DefaultCouplingMin
 }
 
 // formerKeys are the spec and saved-search keys of earlier versions, read
@@ -187,17 +201,17 @@ func (r Requirement) MaxElements() int {
 // ChecksAperture tells whether ray heights are checked: only when a beam, an
 // NA or an object height is given.
 func (r Requirement) ChecksAperture() bool {
-	return r.Beam > 0 || r.NA > 0 || r.ObjectHeight > 0
+	return r.BeamDiameter() > 0 || r.NA > 0 || r.ObjectHeight > 0 || r.Kind == Match
 }
 
 // IsLaser tells whether the requirement names a laser: the laser switch, a
-// power given, or a wavelength outside the visible 400-700 nm (common
-// practice). A laser is one wavelength: plots, spots and the
-// diffraction-limited verdict use the requirement's wavelength alone
-// unless a band is given.
+// power given, a wavelength outside the visible 400-700 nm (common
+// practice), an input waist, or a mode-matching kind. A laser is one
+// wavelength: plots, spots and the diffraction-limited verdict use the
+// requirement's wavelength alone unless a band is given.
 func (r Requirement) IsLaser() bool {
 	l := r.Lambda()
-	return r.Laser || r.Power > 0 || l < 400 || l > 700
+	return r.Laser || r.Power > 0 || l < 400 || l > 700 || r.WaistIn > 0 || r.Kind == Match
 }
 
 // Validate rejects impossible or contradictory requirements before any
@@ -209,13 +223,13 @@ func (r Requirement) Validate() error {
 	for _, f := range r.numbers() {
 		rg := rangeOf(f.key)
 		v := f.v
-		if f.key == "magnification" {
+		if f.key == "magnification" || f.key == "waist_in_at_mm" {
 			v = math.Abs(v)
 		}
 		switch {
 		case math.IsNaN(f.v) || math.IsInf(f.v, 0):
 			ps.add("{%s} must be a finite number (%s)", f.key, rg)
-		case f.v < 0 && f.key != "magnification":
+		case f.v < 0 && f.key != "magnification" && f.key != "waist_in_at_mm":
 			ps.add("{%s} is negative (%g); give %s", f.key, f.v, rg)
 		case f.v != 0 && (v < rg.Min || v > rg.Max):
 			ps.add("{%s} %g is outside %s", f.key, f.v, rg)
@@ -231,12 +245,15 @@ func (r Requirement) Validate() error {
 		r.validateImage(&ps)
 	case Expand:
 		r.validateExpand(&ps)
+	case Match:
+		r.validateMatch(&ps)
 	case "":
-		ps.add("say what to find: an EFL ({efl_mm}), a track and magnification ({track_mm}, {magnification}), or a beam expansion ({expansion})")
+		ps.add("say what to find: an EFL ({efl_mm}), a track and magnification ({track_mm}, {magnification}), a beam expansion ({expansion}) or an output waist ({waist_out_mm})")
 	default:
-		ps.add("unknown {kind} %q: use focus, image or expand", r.Kind)
+		ps.add("unknown {kind} %q: use focus, image, expand or match", r.Kind)
 	}
 	r.validateCommon(&ps)
+	r.validateLaser(&ps)
 	return ps.err()
 }
 
@@ -252,7 +269,9 @@ func (r Requirement) numbers() []named {
 		{"expansion", r.Expansion}, {"expand_tol", r.ExpandTol.Value}, {"beam_mm", r.Beam},
 		{"back_clearance_min_mm", r.BFDMin}, {"envelope_max_mm", r.LengthMax},
 		{"diameter_max_mm", r.DiameterMax}, {"gap_min_mm", r.GapMin}, {"wavelength_nm", r.Wavelength},
-		{"field_angle_deg", r.FieldAngle}, {"power_w", r.Power}, {"top", float64(r.Top)}}
+		{"field_angle_deg", r.FieldAngle}, {"power_w", r.Power}, {"top", float64(r.Top)},
+		{"waist_in_mm", r.WaistIn}, {"waist_in_at_mm", r.WaistInAt}, {"m2", r.M2}, {"waist_out_at_mm", r.WaistOutAt},
+		{"laser_exit_mm", r.LaserExit}, {"waist_out_mm", r.WaistOut}, {"coupling_min", r.CouplingMin}}
 	for _, b := range r.Band {
 		ns = append(ns, named{"band_nm", b})
 	}

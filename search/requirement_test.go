@@ -58,7 +58,7 @@ func TestRequirementValidate(t *testing.T) {
 		{"band out of range", focus(func(r *Requirement) { r.Band = []float64{100, 600} }), `"band_nm" 100 is outside`},
 		{"negative power", focus(func(r *Requirement) { r.Power = -1 }), `"power_w" is negative`},
 		{"power on an image", image(func(r *Requirement) { r.Power = 0.01 }), ""},
-		{"unknown kind", focus(func(r *Requirement) { r.Kind = "banana" }), `unknown "kind" "banana": use focus, image or expand`},
+		{"unknown kind", focus(func(r *Requirement) { r.Kind = "banana" }), `unknown "kind" "banana": use focus, image, expand or match`},
 		{"EFL far too short", focus(func(r *Requirement) { r.EFL = 1e-200 }), `"efl_mm" 1e-200 is outside 0.1 to 100000 mm`},
 		{"EFL far too long", focus(func(r *Requirement) { r.EFL = 1e308 }), `"efl_mm" 1e+308 is outside`},
 		{"infinite track", image(func(r *Requirement) { r.Track = math.Inf(1) }), `"track_mm" must be a finite number`},

@@ -66,6 +66,9 @@ type Result struct {
 	*ImageQuality
 	// Build sums up the simulated builds (study.go); nil when not studied.
 	Build *BuildFigures `json:"build,omitempty"`
+	// Gaussian holds the Gaussian-beam figures and the worst ghost of a
+	// laser requirement (laser.go); nil otherwise.
+	Gaussian *LaserFigures `json:"gaussian,omitempty"`
 	// Quality is the same figures by JSON key, for pages that list them;
 	// filled with ImageQuality, also when a result is read back from JSON.
 	Quality map[string]float64 `json:"-"`
@@ -210,11 +213,16 @@ func (s *search) checks(l *layout) []Check {
 		if r.Form != AnyForm {
 			add(failForm, "form", "%s, asked %s", l.form, r.Form)
 		}
+		if r.collimates() {
+			add(failCollimate, "collimation", "output waist %g mm beyond the last part", r.WaistOutAt)
+		}
+	case Match:
+		add(failCoupling, "coupling", "%.4f, minimum %g", l.value, r.MinCoupling())
 	}
 	if !math.IsNaN(l.bc) {
 		add(failBack, "back_clearance", "%.2f mm, minimum %g mm", l.bc, r.BFDMin)
 	}
-	if r.Kind == Image {
+	if r.Kind == Image || r.Kind == Match {
 		add(failWD, "working_distance", "%.2f mm, minimum %g mm", l.wd, r.WDMin)
 	}
 	if l.pair() {

@@ -90,6 +90,10 @@ func refLength(r Requirement) float64 {
 		return r.EFL
 	case Image:
 		return r.Track
+	case Match:
+		if r.Track > 0 {
+			return r.Track
+		}
 	}
 	return 100
 }
@@ -203,6 +207,8 @@ func firstOrderTol(r Requirement) float64 {
 		return r.EFLTol.Abs(r.EFL)
 	case Image:
 		return r.MagTol.Abs(r.Mag)
+	case Match:
+		return 1 - r.MinCoupling()
 	}
 	return r.ExpandTol.Abs(r.Expansion)
 }

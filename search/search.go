@@ -43,6 +43,8 @@ func target(r Requirement) float64 {
 		return r.EFL
 	case Image:
 		return r.Mag
+	case Match:
+		return 1 // full coupling
 	}
 	return r.Expansion
 }
@@ -111,7 +113,7 @@ func (s *search) merge(w *search) {
 func (s *search) emit(l *layout) {
 	s.solved++
 	if !l.meets() {
-		for bit := uint16(1); bit != 0 && bit <= failDrawer; bit <<= 1 {
+		for bit := uint16(1); bit != 0 && bit <= failLast; bit <<= 1 {
 			if l.fails&bit != 0 {
 				s.failed[bit]++
 			}

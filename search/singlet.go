@@ -9,6 +9,8 @@ func (s *search) singlet(i int32) {
 		s.singletFocus(i)
 	case Image:
 		s.singletImage(i)
+	case Match:
+		s.singletMatch(i)
 	}
 }
 

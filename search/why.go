@@ -3,6 +3,8 @@ package search
 import (
 	"fmt"
 	"math"
+
+	"cardinal/optics"
 )
 
 // failText says what each check's failure means, in bit order.
@@ -15,6 +17,8 @@ var failText = []string{
 	"longer than the envelope maximum (or the 10 m sanity limit)",
 	"vignette: a ray height exceeds a clear aperture",
 	"need more pieces than the drawer holds",
+	"no gap collimates the laser beam with its waist where asked",
+	"couple less than the coupling minimum",
 }
 
 // why explains in words an outcome with no result.
@@ -55,6 +59,16 @@ func (s *search) whyUnsolved() []string {
 			form = string(r.Form) + " pair"
 		}
 		w = append(w, fmt.Sprintf("no %s of parts has a focal-length ratio within %.3g of %g and fits the gap and length limits", form, s.tol, r.Expansion))
+	case Match:
+		f0 := optics.ModeMatchFocal(r.WaistIn, r.WaistOut, r.Lambda())
+		if r.Track > 0 {
+			w = append(w, fmt.Sprintf("no single part couples %g or more on the %g mm track", r.MinCoupling(), r.Track))
+		} else {
+			w = append(w, fmt.Sprintf("no single part of focal length at least f0 = %.1f mm (pi w1 w2 / lambda) places both waists with positive working distance and back clearance", f0))
+		}
+		if pairs {
+			w = append(w, "no pair matches the waists within the gap, length, working-distance and back-clearance limits")
+		}
 	}
 	if s.unverified > 0 {
 		w = append(w, fmt.Sprintf("%d pair solutions failed the matrix check and were dropped", s.unverified))

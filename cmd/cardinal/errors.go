@@ -166,7 +166,10 @@ var flagKeys = map[string]string{
 	"diameter_max_mm": "--diameter-max", "gap_min_mm": "--gap-min", "elements": "--elements",
 	"wavelength_nm": "--wavelength", "supplier": "--supplier", "in_drawer": "--in-drawer",
 	"top": "--top", "prefer": "--prefer", "field_angle_deg": "--field-angle", "band_nm": "--band",
-	"power_w": "--power", "kind": "a kind (--efl, --track with --mag, or --expand)",
+	"power_w": "--power", "kind": "a kind (--efl, --track with --mag, --expand or --waist-out)",
+	"laser": "--laser", "waist_in_mm": "--waist-in", "waist_in_at_mm": "--waist-in-at", "m2": "--m2",
+	"waist_out_at_mm": "--waist-out-at", "laser_exit_mm": "--laser-exit", "waist_out_mm": "--waist-out",
+	"coupling_min": "--coupling-min",
 }
 
 // flagName names a requirement key by its flag.

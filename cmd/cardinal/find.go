@@ -35,6 +35,9 @@ type findOptions struct {
 	DrawerOnly, Laser              bool
 	FieldAngle, Power              float64
 	Band                           []float64
+	WaistIn, WaistInAt, M2         float64
+	WaistOutAt, LaserExit          float64
+	WaistOut, CouplingMin          float64
 
 	out outputFlags
 
@@ -46,13 +49,15 @@ func newFindCmd(e *env, run func(*findOptions) error) *cobra.Command {
 	cmd := &cobra.Command{
 		Use:   "find",
 		Short: "Find stock singlets and pairs that meet first-order requirements",
-		Long: `Find single parts and pairs of parts from the catalog that meet one of three
-first-order requirements, using each part's thick-lens cardinal points at the
+		Long: `Find single parts and pairs of parts from the catalog that meet one of four
+requirements, using each part's thick-lens cardinal points at the
 wavelength, in both orientations:
 
   focus   --efl: focus a collimated beam (EFL, back clearance)
   image   --track and --mag: image an object plane onto an image plane
   expand  --expand: an afocal pair that expands (or reduces) a beam
+  match   --waist-out: couple a laser's waist (--waist-in) into another
+          waist (a fibre's mode, a cavity's), over --track if given
 
 Pairs are solved at the target (the gap absorbs the difference); a single
 part or an expander is admitted within the tolerance and its error shown.
@@ -75,15 +80,31 @@ focal shift over --band. Each row shows the spot, the Airy radius and whether
 the image is diffraction limited (0.07 waves RMS, Marechal) at every field
 point and every wavelength judged, on one image plane shared by all (the one
 that makes the worst least): yes, or which fails first: "no: on axis", "no:
-field edge" or "no: colour". Expanders are ranked on first order only.
+field edge" or "no: colour". Expanders are ranked on first order only,
+except for a laser.
 
 A laser (--laser, --power, or a wavelength outside 400-700 nm) is one
 wavelength: the verdict, and the spots and plots of draw and report, use it
-alone unless --band asks for more.`,
+alone unless --band asks for more. It is also a Gaussian beam: --beam is its
+1/e^2 diameter at the first part (waist there), or give --waist-in (1/e^2
+radius) and --waist-in-at (before the first vertex); --m2 scales it. Focus
+results then show the focused waist, where it lies against the paraxial
+focus, its Rayleigh range and whether aberration or the waist limits the
+spot, and rank the spot against the waist. Laser expanders are set at the gap
+that collimates the beam (output waist at the last part, or --waist-out-at
+beyond it), with the output waist, the divergence and the wavefront error
+from real rays, ranked by divergence against its diffraction limit. Mode
+matching ranks by the power coupling into the target mode (--coupling-min,
+default 0.95) and shows how far the gap may move before the coupling drops
+1 %. Every laser result names its most concentrated ghost focus (light
+reflected at lens surfaces); see inspect --ghosts. These are estimates: they
+do not replace a safety assessment.`,
 		Example: `  cardinal find --efl 75 --efl-tol 1% --beam 6 --back-clearance-min 40 --wavelength 1064
   cardinal find --track 300 --mag -0.36 --mag-tol 2% --object-height 5 --na 0.02 --working-distance-min 60 --back-clearance-min 15
   cardinal find --expand 5 --expand-tol 2% --beam 2 --galilean --envelope-max 150
   cardinal find --efl 100 --beam 10 --field-angle 1 --band 486.1,587.6,656.3 --prefer sharp
+  cardinal find --efl 50 --beam 2 --wavelength 1064 --power 0.5 --laser-exit 300
+  cardinal find --waist-in 0.35 --waist-out 0.0026 --wavelength 1064 --track 120
   cardinal find --spec relay.json --top 3 --format json`,
 		Args: cobra.NoArgs,
 		RunE: func(c *cobra.Command, _ []string) error {
@@ -98,7 +119,7 @@ alone unless --band asks for more.`,
 	f := cmd.Flags()
 	f.Float64Var(&opts.EFL, "efl", 0, "focus: effective focal length to reach, mm")
 	f.StringVar(&opts.EFLTol, "efl-tol", "1%", "EFL tolerance: percent (1%) or mm (0.5mm)")
-	f.Float64Var(&opts.Beam, "beam", 0, "collimated input beam diameter, mm (checks ray heights)")
+	f.Float64Var(&opts.Beam, "beam", 0, "collimated input beam diameter, mm (checks ray heights); for a laser its 1/e^2 diameter")
 	f.Float64Var(&opts.BFDMin, "back-clearance-min", 0, "least back clearance, last vertex to the focal or image plane, mm")
 	f.Float64Var(&opts.Wavelength, "wavelength", 587.5618, "wavelength, nm")
 	f.Float64Var(&opts.Power, "power", 0, "laser power, W (brings the laser cautions)")
@@ -115,6 +136,13 @@ alone unless --band asks for more.`,
 	f.StringVar(&opts.ExpandTol, "expand-tol", "1%", "expansion tolerance: percent (2%) or absolute (0.05)")
 	f.BoolVar(&opts.Galilean, "galilean", false, "expand: negative and positive part, no internal focus")
 	f.BoolVar(&opts.Keplerian, "keplerian", false, "expand: two positive parts, an internal focus")
+	f.Float64Var(&opts.WaistIn, "waist-in", 0, "laser: input waist, 1/e^2 radius, mm (instead of --beam)")
+	f.Float64Var(&opts.WaistInAt, "waist-in-at", 0, "laser: input waist's distance before the first vertex, mm (negative: after it)")
+	f.Float64Var(&opts.M2, "m2", 0, "laser: beam quality M^2 (default 1)")
+	f.Float64Var(&opts.WaistOutAt, "waist-out-at", 0, "laser expand: output waist's distance beyond the last vertex, mm")
+	f.Float64Var(&opts.LaserExit, "laser-exit", 0, "laser: exit aperture's distance before the first vertex, mm (flags ghosts near it)")
+	f.Float64Var(&opts.WaistOut, "waist-out", 0, "match: target waist, 1/e^2 radius, mm; --track is then waist plane to waist plane")
+	f.Float64Var(&opts.CouplingMin, "coupling-min", 0, "match: least power coupling into the target mode (default 0.95)")
 	f.Float64Var(&opts.LengthMax, "envelope-max", 0, "longest envelope, first to last vertex, mm (0: no limit)")
 	f.Float64Var(&opts.DiameterMax, "diameter-max", 0, "largest part diameter, mm (0: no limit)")
 	f.Float64Var(&opts.GapMin, "gap-min", search.DefaultGapMin, "least edge clearance between facing parts, mm")
@@ -184,12 +212,16 @@ func (o *findOptions) apply(req *search.Requirement) error {
 		"wavelength": &req.Wavelength, "track": &req.Track, "mag": &req.Mag,
 		"object-height": &req.ObjectHeight, "na": &req.NA, "working-distance-min": &req.WDMin, "expand": &req.Expansion,
 		"envelope-max": &req.LengthMax, "diameter-max": &req.DiameterMax, "gap-min": &req.GapMin,
-		"power": &req.Power, "field-angle": &req.FieldAngle}
+		"power": &req.Power, "field-angle": &req.FieldAngle, "waist-in": &req.WaistIn, "waist-in-at": &req.WaistInAt,
+		"m2": &req.M2, "waist-out-at": &req.WaistOutAt, "laser-exit": &req.LaserExit, "waist-out": &req.WaistOut,
+		"coupling-min": &req.CouplingMin}
 	values := map[string]float64{"efl": o.EFL, "beam": o.Beam, "back-clearance-min": o.BFDMin,
 		"wavelength": o.Wavelength, "track": o.Track, "mag": o.Mag,
 		"object-height": o.ObjectHeight, "na": o.NA, "working-distance-min": o.WDMin, "expand": o.Expand,
 		"envelope-max": o.LengthMax, "diameter-max": o.DiameterMax, "gap-min": o.GapMin,
-		"power": o.Power, "field-angle": o.FieldAngle}
+		"power": o.Power, "field-angle": o.FieldAngle, "waist-in": o.WaistIn, "waist-in-at": o.WaistInAt,
+		"m2": o.M2, "waist-out-at": o.WaistOutAt, "laser-exit": o.LaserExit, "waist-out": o.WaistOut,
+		"coupling-min": o.CouplingMin}
 	for name, p := range floats {
 		if set(name) {
 			*p = values[name]
@@ -218,7 +250,9 @@ func (o *findOptions) applyKind(req *search.Requirement, set func(string) bool) 
 	if set("efl") {
 		kinds = append(kinds, search.Focus)
 	}
-	if set("track") || set("mag") {
+	if set("waist-out") {
+		kinds = append(kinds, search.Match)
+	} else if set("track") || set("mag") {
 		kinds = append(kinds, search.Image)
 	}
 	if set("expand") {
@@ -226,7 +260,7 @@ func (o *findOptions) applyKind(req *search.Requirement, set func(string) bool) 
 	}
 	switch {
 	case len(kinds) > 1:
-		return usageErrorf("give one requirement: --efl (focus), --track and --mag (image) or --expand, not several")
+		return usageErrorf("give one requirement: --efl (focus), --track and --mag (image), --expand or --waist-out (mode matching), not several")
 	case len(kinds) == 1 && req.Kind != "" && req.Kind != kinds[0]:
 		return usageErrorf("the spec file %s asks for %s; its target flags cannot turn it into %s", o.Spec, req.Kind, kinds[0])
 	case len(kinds) == 1:

@@ -100,6 +100,22 @@ func TestFindFlags(t *testing.T) {
 		{"field angle on an image", []string{"--track", "300", "--mag", "-1", "--field-angle", "2"}, nil, "give --object-height"},
 		{"field angle of 90", []string{"--efl", "50", "--field-angle", "90"}, nil, "--field-angle 90 is outside 0 to 89.9 degrees"},
 		{"negative power", []string{"--efl", "50", "--power", "-1"}, nil, "power is negative"},
+		{"laser focus from a waist", []string{"--efl", "50", "--laser", "--wavelength", "532", "--waist-in", "0.4", "--waist-in-at", "250", "--m2", "1.2", "--laser-exit", "300"},
+			func(r search.Requirement) bool {
+				return r.Laser && r.WaistIn == 0.4 && r.WaistInAt == 250 && r.M2 == 1.2 && r.LaserExit == 300 && r.Gaussian() && r.TracesRays()
+			}, ""},
+		{"laser expander waist beyond", []string{"--expand", "4", "--beam", "1", "--power", "0.1", "--waist-out-at", "500"},
+			func(r search.Requirement) bool { return r.Kind == search.Expand && r.WaistOutAt == 500 && r.Gaussian() }, ""},
+		{"mode matching on a track", []string{"--waist-in", "0.35", "--waist-out", "0.003", "--track", "120", "--wavelength", "1064", "--coupling-min", "0.9"},
+			func(r search.Requirement) bool {
+				return r.Kind == search.Match && r.Track == 120 && r.WaistOut == 0.003 && r.CouplingMin == 0.9 && r.IsLaser()
+			}, ""},
+		{"mode matching with a magnification", []string{"--waist-in", "0.35", "--waist-out", "0.1", "--mag", "-1"}, nil, "--mag does not apply"},
+		{"M^2 below 1", []string{"--efl", "50", "--beam", "2", "--laser", "--m2", "0.5"}, nil, "outside 1 to 1000"},
+		{"beam and waist both", []string{"--efl", "50", "--beam", "2", "--waist-in", "0.5"}, nil, "give the input beam once"},
+		{"waist position alone", []string{"--efl", "50", "--beam", "2", "--waist-in-at", "100"}, nil, "give its radius with --waist-in"},
+		{"output waist position on a focus", []string{"--efl", "50", "--beam", "2", "--waist-out-at", "10"}, nil, "applies to an expand requirement only"},
+		{"mode matching of a multimode beam", []string{"--waist-in", "0.35", "--waist-out", "0.1", "--m2", "1.5"}, nil, "M^2 must be 1"},
 		{"band on an expander", []string{"--expand", "3", "--band", "500,600"}, nil, "first order only"},
 		{"unknown format", []string{"--efl", "50", "--format", "xml"}, nil, `unknown --format "xml"`},
 	}

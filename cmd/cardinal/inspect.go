@@ -41,6 +41,8 @@ type inspectOptions struct {
 	// Rays are the real-ray settings (inspect_quality.go); zero traces
 	// nothing.
 	Rays rayOptions
+	// Ghosts are the ghost-focus settings (inspect_ghosts.go).
+	Ghosts ghostOptions
 }
 
 func newInspectCmd(e *env, run func(*inspectOptions) error) *cobra.Command {
@@ -67,13 +69,24 @@ is diffraction limited (0.07 waves RMS, Marechal), focal shift over --band,
 and the best focus from the paraxial image. With --na the object sits
 --object-distance mm in front of the first vertex; without it, where the
 part images it at -1x (twice the focal length before the front principal
-point), the symmetric finite conjugate, which needs no further choice.`,
+point), the symmetric finite conjugate, which needs no further choice.
+
+With --ghosts each part is judged for a laser beam instead (--beam, its 1/e^2
+diameter with the waist at the first vertex, or --waist-in and --waist-in-at):
+every ghost focus of light reflected once (back toward the laser) or twice (on
+toward the image), where it lies from the first vertex, its radius, the
+reflectance (Fresnel, from the indices) and its concentration against the beam
+at the part, flagged inside the part, within 1 mm of a surface, or at the
+laser's exit (--laser-exit); with --power, the peak irradiance. These are
+paraxial estimates: they do not replace a safety assessment; ask your laser
+safety officer and follow local rules.`,
 		Example: `  cardinal inspect
   cardinal inspect DEMO:PCX-50 --reverse
   cardinal inspect --file lenses.csv --part DEMO:PCX-50 --reverse --wavelength 632.8 --format json
   cardinal inspect --file lenses.csv --medium-in water
   cardinal inspect DEMO:PCX-50 --beam 10 --field-angle 1 --band 486.1,587.6,656.3
-  cardinal inspect DEMO:PCX-50 --na 0.05 --object-distance 120 --format json`,
+  cardinal inspect DEMO:PCX-50 --na 0.05 --object-distance 120 --format json
+  cardinal inspect DEMO:PCX-50 --ghosts --beam 3 --wavelength 1064 --power 2 --laser-exit 250`,
 		Args: cobra.ArbitraryArgs,
 		RunE: func(c *cobra.Command, args []string) error {
 			opts.CatalogParts, opts.db = args, dbFlag(c)
@@ -92,6 +105,7 @@ point), the symmetric finite conjugate, which needs no further choice.`,
 	f.StringVar(&opts.MediumOut, "medium-out", "air", "medium of image space")
 	f.StringVar(&opts.Format, "format", "table", "output format: table, json, csv or md")
 	opts.Rays.flags(f)
+	opts.Ghosts.flags(f)
 	return cmd
 }
 
@@ -104,6 +118,12 @@ func (o *inspectOptions) validate() error {
 	}
 	if !(o.Wavelength > 0) || math.IsInf(o.Wavelength, 0) {
 		return usageErrorf("--wavelength %g: give a wavelength in nm, such as 587.5618 (the d line) or 632.8", o.Wavelength)
+	}
+	if o.Ghosts.Ghosts {
+		return o.Ghosts.validate(o.Rays)
+	}
+	if err := o.Ghosts.validate(o.Rays); err != nil {
+		return err
 	}
 	return o.Rays.validate()
 }
@@ -124,6 +144,9 @@ func runInspect(o *inspectOptions) error {
 	}
 	if entries, err = selectParts(entries, o.Parts); err != nil {
 		return err
+	}
+	if o.Ghosts.Ghosts {
+		return writeGhosts(o, entries, in, out)
 	}
 	results := make([]inspection, len(entries))
 	for i, e := range entries {

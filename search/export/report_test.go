@@ -71,7 +71,8 @@ func TestReportIsSelfContained(t *testing.T) {
 	if n := strings.Count(page, `<svg xmlns="http://www.w3.org/2000/svg" class="cardinal-layout"`); n != 2 {
 		t.Errorf("%d inline drawings, want 2", n)
 	}
-	for _, want := range []string{"Requirement", "Ranked results", `class="picked"`, "Purchase request", "TEST:PCX-50", "Cautions",
+	_, results := testReportOf(t, req)
+	for _, want := range []string{"Requirement", "Ranked results", `class="picked"`, "Purchase request", results[0].Parts[0].ID(), "Cautions",
 		"Will it build?", `id="buildstudy-1"`, "of builds meet the target", "focal length of part 1"} {
 		if !strings.Contains(page, want) {
 			t.Errorf("the report lacks %q", want)

@@ -154,7 +154,7 @@ func TestSolutionVerify(t *testing.T) {
 	es := entryMap(testEntries(t))
 	id := s.Result.Parts[0].ID()
 	e := es[id]
-	e.Part.Thickness = []float64{e.Part.Thickness[0] + 1}
+	e.Part.Thickness = append([]float64{e.Part.Thickness[0] + 1}, e.Part.Thickness[1:]...)
 	es[id] = e
 	changed, err := NewSolution(req, s.Result, es)
 	if err != nil {

@@ -4,6 +4,7 @@ import (
 	"html"
 	"math"
 	"slices"
+	"strconv"
 	"strings"
 
 	"cardinal/search"
@@ -45,17 +46,18 @@ func resultColumns(req search.Requirement, rs []search.Result, qs search.Quality
 		anyOff = anyOff || Signed(r.ErrorPct) != "0"
 	}
 	focus, image, expand := req.Kind == search.Focus, req.Kind == search.Image, req.Kind == search.Expand
+	match := req.Kind == search.Match
 	cols := []resultColumn{
 		{Column{Key: "rank", Keep: 9, Label: "#"}, func(r search.Result) Cell { return Int(r.Rank) }},
 		{Column{Key: "parts", Keep: 9, Label: "parts"}, func(r search.Result) Cell { return partsCell(r.Parts) }},
-		{Column{Key: "working_distance_mm", Keep: 6, Label: "wd", Unit: "mm", Optional: !image},
+		{Column{Key: "working_distance_mm", Keep: 6, Label: "wd", Unit: "mm", Optional: !image && !match},
 			func(r search.Result) Cell { return OptNum(r.WorkingDistance, 2) }},
 		{Column{Key: "gap_mm", Keep: 6, Label: "gap", Unit: "mm"}, func(r search.Result) Cell { return OptNum(r.Gap, 2) }},
 		{Column{Key: "back_clearance_mm", Keep: 6, Label: "back", Unit: "mm", Optional: expand},
 			func(r search.Result) Cell { return OptNum(r.BackClearance, 2) }},
 		{Column{Key: "envelope_mm", Keep: 5, Label: "envelope", Unit: "mm", Optional: !expand},
 			func(r search.Result) Cell { return Num(r.Envelope, 2) }},
-		{Column{Key: "track_mm", Keep: 6, Label: "track", Unit: "mm", Optional: !image},
+		{Column{Key: "track_mm", Keep: 6, Label: "track", Unit: "mm", Optional: !image && !match},
 			func(r search.Result) Cell { return OptNum(r.Track, 2) }},
 		{Column{Key: "efl_mm", Keep: 8, Label: "EFL", Unit: "mm", Optional: !focus}, func(r search.Result) Cell { return OptNum(r.EFL, 3) }},
 		{Column{Key: "magnification", Keep: 8, Label: "mag", Optional: !image},
@@ -71,6 +73,7 @@ func resultColumns(req search.Requirement, rs []search.Result, qs search.Quality
 		build = build[1:]
 	}
 	cols = append(cols, qualityColumns(qs)...)
+	cols = append(cols, laserColumns(req, rs)...)
 	cols = append(cols, build...)
 	cols = append(cols,
 		resultColumn{Column{Key: "failed_checks", Keep: 7, Label: "checks", Optional: !anyFails}, checksCell},
@@ -130,6 +133,95 @@ func Limited(q *search.ImageQuality) Cell {
 	}
 	return c
 }
+
+// laserColumns are the Gaussian-beam figures of a laser requirement and
+// its worst ghost focus: none when no result carries them.
+func laserColumns(req search.Requirement, rs []search.Result) []resultColumn {
+	some := false
+	for _, r := range rs {
+		some = some || r.Gaussian != nil
+	}
+	if !some {
+		return nil
+	}
+	g := func(f func(*search.LaserFigures) Cell) func(search.Result) Cell {
+		return func(r search.Result) Cell {
+			if r.Gaussian == nil {
+				return Cell{Text: Missing}
+			}
+			return f(r.Gaussian)
+		}
+	}
+	waist := resultColumn{Column{Key: "waist_radius_um", Label: "waist", Unit: "µm"},
+		g(func(f *search.LaserFigures) Cell { return Num(f.WaistRadius, 1) })}
+	at := resultColumn{Column{Key: "waist_at_mm", Label: "waist at", Unit: "mm", Optional: true},
+		g(func(f *search.LaserFigures) Cell { return Num(f.WaistAt, 2) })}
+	zr := resultColumn{Column{Key: "rayleigh_range_mm", Label: "Rayleigh range", Unit: "mm", Optional: true},
+		g(func(f *search.LaserFigures) Cell { return Num(f.RayleighRange, 3) })}
+	var cols []resultColumn
+	switch req.Kind {
+	case search.Focus:
+		cols = []resultColumn{waist, at,
+			{Column{Key: "waist_shift_mm", Label: "waist shift", Unit: "mm", Optional: true},
+				g(func(f *search.LaserFigures) Cell { return OptNum(f.WaistShift, 2) })},
+			zr,
+			{Column{Key: "spot_limited_by", Label: "limited by", Optional: true}, g(func(f *search.LaserFigures) Cell { return Text(f.SpotLimit) })}}
+	case search.Expand:
+		cols = []resultColumn{waist, at, zr,
+			{Column{Key: "divergence_mrad", Label: "divergence", Unit: "mrad"},
+				g(func(f *search.LaserFigures) Cell { return OptNum(f.Divergence, 4) })},
+			{Column{Key: "divergence_ratio", Label: "x limit"},
+				g(func(f *search.LaserFigures) Cell { return OptNum(f.DivergenceRatio, 3) })},
+			{Column{Key: "laser_wavefront_rms_waves", Label: "wavefront", Unit: "waves", Optional: true},
+				g(func(f *search.LaserFigures) Cell { return OptNum(f.WavefrontRMS, 4) })},
+			{Column{Key: "afocal_gap_mm", Label: "afocal gap", Unit: "mm", Optional: true},
+				g(func(f *search.LaserFigures) Cell { return OptNum(f.AfocalGap, 2) })}}
+	case search.Match:
+		cols = []resultColumn{
+			{Column{Key: "coupling", Label: "coupling"}, g(func(f *search.LaserFigures) Cell { return OptNum(f.Coupling, 4) })},
+			{Column{Key: "coupling_tol_mm", Label: "coupling tol", Unit: "mm"},
+				g(func(f *search.LaserFigures) Cell { return OptNum(f.CouplingTol, 3) })},
+			waist, at, zr}
+	}
+	return append(cols,
+		resultColumn{Column{Key: "worst_ghost", Label: "worst ghost", TextOnly: true, Note: true}, g(ghostCell)},
+		resultColumn{Column{Key: "worst_ghost_concentration", Label: "ghost x", Optional: true},
+			g(func(f *search.LaserFigures) Cell {
+				if f.Ghost == nil {
+					return Cell{Text: Missing}
+				}
+				return Num(f.Ghost.Concentration, 3)
+			})},
+		resultColumn{Column{Key: "worst_ghost_z_mm", Label: "ghost at", Unit: "mm", Optional: true},
+			g(func(f *search.LaserFigures) Cell {
+				if f.Ghost == nil {
+					return Cell{Text: Missing}
+				}
+				return Num(f.Ghost.Z, 2)
+			})},
+		resultColumn{Column{Key: "ghosts_flagged", Label: "ghosts flagged", Optional: true},
+			g(func(f *search.LaserFigures) Cell { return Int(f.GhostsFlagged) })})
+}
+
+// GhostText says where the most concentrated ghost focus lies: its
+// concentration against the beam at the first part, its position from the
+// first vertex and its flags, then how many ghosts are flagged in all.
+func GhostText(f *search.LaserFigures) string {
+	g := f.Ghost
+	if g == nil {
+		return "none real"
+	}
+	s := "x" + Fixed(g.Concentration, 0) + " at " + Fixed(g.Z, 1) + " mm"
+	if len(g.Flags) > 0 {
+		s += " (" + strings.Join(g.Flags, ", ") + ")"
+	}
+	if f.GhostsFlagged > 0 {
+		s += "; " + strconv.Itoa(f.GhostsFlagged) + " flagged"
+	}
+	return s
+}
+
+func ghostCell(f *search.LaserFigures) Cell { return Cell{Text: GhostText(f)} }
 
 // PartsText names the parts in light order, "(reversed)" after a part
 // that is turned around.
