@@ -174,13 +174,15 @@ type row struct {
 
 func (t *table) row(rec record) *row { return &row{t: t, rec: rec} }
 
-// text is the trimmed cell of a column; "" when the column or cell is absent.
+// text is the trimmed cell of a column, "" when the column or cell is
+// absent, with the quote the spreadsheet-safe writer puts before a formula
+// character taken away (Unneutralise).
 func (r *row) text(col string) string {
 	i, ok := r.t.columns[col]
 	if !ok || i >= len(r.rec.cells) {
 		return ""
 	}
-	return strings.TrimSpace(r.rec.cells[i])
+	return Unneutralise(strings.TrimSpace(r.rec.cells[i]))
 }
 
 func (r *row) fail(col, format string, a ...any) {

@@ -1,7 +1,6 @@
 package importers
 
 import (
-	"encoding/csv"
 	"fmt"
 	"io"
 	"strconv"
@@ -85,7 +84,7 @@ func parseDrawerRow(r *row) DrawerItem {
 // WriteDrawer writes items as a drawer CSV that ReadDrawer reads back field
 // for field (the source line aside).
 func WriteDrawer(w io.Writer, items []DrawerItem) error {
-	cw := csv.NewWriter(w)
+	cw := NewSafeCSV(w) // cells a spreadsheet would run as formulas get a quote; the readers take it away
 	cw.Write([]string{"supplier", "part", "quantity", "location"})
 	for _, d := range items {
 		if strings.HasPrefix(d.Supplier, "#") {
@@ -93,6 +92,5 @@ func WriteDrawer(w io.Writer, items []DrawerItem) error {
 		}
 		cw.Write([]string{d.Supplier, d.Part, strconv.Itoa(d.Quantity), d.Location})
 	}
-	cw.Flush()
-	return cw.Error()
+	return cw.Flush()
 }

@@ -1,7 +1,6 @@
 package importers
 
 import (
-	"encoding/csv"
 	"fmt"
 	"io"
 	"math"
@@ -237,7 +236,7 @@ func parseGlassRow(r *row) Glass {
 // WriteGlasses writes glasses as a glass CSV that ReadGlasses reads back
 // field for field (the source line aside).
 func WriteGlasses(w io.Writer, glasses []Glass) error {
-	cw := csv.NewWriter(w)
+	cw := NewSafeCSV(w) // cells a spreadsheet would run as formulas get a quote; the readers take it away
 	cw.Write([]string{"name", "formula", "coefficients", "min_nm", "max_nm", "source"})
 	for _, g := range glasses {
 		if strings.HasPrefix(g.Name, "#") {
@@ -249,6 +248,5 @@ func WriteGlasses(w io.Writer, glasses []Glass) error {
 		}
 		cw.Write([]string{g.Name, g.Formula, strings.Join(c, " "), optionalFloat(g.MinNm), optionalFloat(g.MaxNm), g.Source})
 	}
-	cw.Flush()
-	return cw.Error()
+	return cw.Flush()
 }

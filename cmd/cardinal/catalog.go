@@ -425,7 +425,11 @@ func newCatalogExportCmd(e *env, run func(*catalogExportOptions) error) *cobra.C
 		Short: "Write the catalog's prescriptions as a CSV that imports back unchanged",
 		Long: `Write every part (or those of --supplier) to standard output as a neutral
 prescription CSV. Numbers are written in full precision, so importing the file
-again reproduces every field and changes nothing.`,
+again reproduces every field and changes nothing.
+
+It is a lossless backup, written as stored: do not open it in a spreadsheet,
+which may run a cell that begins with = + - or @ as a formula. For a
+spreadsheet use 'catalog list --format csv', whose cells are made safe.`,
 		Example: `  cardinal catalog export > back.csv
   cardinal catalog export --supplier DEMO > demo.csv`,
 		Args: cobra.NoArgs,

@@ -1,6 +1,8 @@
 package export
 
 import (
+	"cardinal/importers"
+
 	"fmt"
 	"io"
 	"strconv"
@@ -103,11 +105,11 @@ func (r Request) Notes() [][2]string {
 }
 
 // WriteCSV writes the request as CSV a spreadsheet can open safely (see
-// present.SafeCell): the header, the rows, an empty row, then the notes as
+// importers.SafeCell): the header, the rows, an empty row, then the notes as
 // name,text rows; every row has the header's number of cells, so that a
 // strict CSV reader takes it.
 func (r Request) WriteCSV(w io.Writer) error {
-	c := present.NewSafeCSV(w)
+	c := importers.NewSafeCSV(w)
 	rows := append([][]string{RequestHeader()}, r.Rows()...)
 	rows = append(rows, nil)
 	for _, n := range r.Notes() {

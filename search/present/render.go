@@ -1,6 +1,8 @@
 package present
 
 import (
+	"cardinal/importers"
+
 	"bytes"
 	"encoding/json"
 	"fmt"
@@ -15,7 +17,7 @@ import (
 // false, empty where a value does not apply), every cell through the
 // injection-safe writer.
 func WriteCSV(w io.Writer, t Table) error {
-	c := NewSafeCSV(w)
+	c := importers.NewSafeCSV(w)
 	if err := c.Write(t.Keys()); err != nil {
 		return err
 	}

@@ -1,4 +1,4 @@
-package present
+package importers
 
 import (
 	"encoding/csv"
@@ -55,4 +55,18 @@ func (c *SafeCSV) Write(record []string) error {
 func (c *SafeCSV) Flush() error {
 	c.w.Flush()
 	return c.w.Error()
+}
+
+// Unneutralise reads back a cell SafeCell wrote: a single quote before a
+// character that starts a formula is taken away, so that the drawer and
+// glass files the program writes for spreadsheets import back unchanged.
+// A text that really begins with a quote and such a character loses the
+// quote; no stored name or note does in practice.
+func Unneutralise(s string) string {
+	if len(s) > 1 && s[0] == '\'' {
+		if t := strings.TrimLeft(s[1:], " "); t != "" && strings.ContainsRune(formulaStart, rune(t[0])) {
+			return s[1:]
+		}
+	}
+	return s
 }

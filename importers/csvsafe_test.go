@@ -1,4 +1,4 @@
-package present
+package importers
 
 import (
 	"bytes"
@@ -65,5 +65,44 @@ func TestSafeCSVRoundTrip(t *testing.T) {
 				t.Errorf("cell %d,%d = %q, want %q", i, j, got[i][j], want[i][j])
 			}
 		}
+	}
+}
+
+// The drawer and glass files the program writes are safe to open in a
+// spreadsheet and still import back unchanged: a cell that would start a
+// formula gets a quote (OWASP, "CSV Injection") and the reader takes it
+// away.
+func TestNeutralisedFilesReadBack(t *testing.T) {
+	items := []DrawerItem{{Supplier: "=1+1", Part: "-2+3", Quantity: 2, Location: "@SUM(A1)"},
+		{Supplier: "LAB", Part: "PCX-50", Quantity: 1, Location: "B2"}}
+	var b bytes.Buffer
+	if err := WriteDrawer(&b, items); err != nil {
+		t.Fatal(err)
+	}
+	for _, bad := range []string{"\n=1+1", ",-2+3", ",@SUM"} {
+		if bytes.Contains(b.Bytes(), []byte(bad)) {
+			t.Errorf("a formula cell written raw (%q):\n%s", bad, b.String())
+		}
+	}
+	back, err := ReadDrawer(&b, "drawer.csv")
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i := range items {
+		if back[i].Supplier != items[i].Supplier || back[i].Part != items[i].Part || back[i].Location != items[i].Location || back[i].Quantity != items[i].Quantity {
+			t.Errorf("item %d read back as %+v, want %+v", i, back[i], items[i])
+		}
+	}
+	glasses := []Glass{{Name: "=CROWN", Formula: "abbe", Coefficients: []float64{1.517, 64.2}, Source: "-2+3 from memory"}}
+	b.Reset()
+	if err := WriteGlasses(&b, glasses); err != nil {
+		t.Fatal(err)
+	}
+	gb, err := ReadGlasses(&b, "glasses.csv")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if gb[0].Name != "=CROWN" || gb[0].Source != "-2+3 from memory" {
+		t.Errorf("glass read back as %+v", gb[0])
 	}
 }
