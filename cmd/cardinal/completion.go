@@ -25,7 +25,7 @@ import (
 var (
 	searchArgs     = map[string]bool{"request": true, "draw": true, "report": true, "searches show": true, "searches note": true, "searches remove": false}
 	partArgs       = map[string]bool{"inspect": false, "catalog remove": true, "drawer set": true}
-	preferValues   = []search.Prefer{search.PreferDraw, search.PreferShort, search.PreferCheap, search.PreferSharp}
+	preferValues   = []search.Prefer{search.PreferDraw, search.PreferShort, search.PreferCheap, search.PreferSharp, search.PreferRobust}
 	completeNoFile = cobra.ShellCompDirectiveNoFileComp
 )
 

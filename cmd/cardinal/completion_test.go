@@ -45,7 +45,7 @@ func TestCompletion(t *testing.T) {
 		{"one search only", []string{"draw", "1", ""}, nil, nil},
 		{"ranks of a search", []string{"report", "1", "--pick", ""}, []string{"1", "2", "3"}, nil},
 		{"format", []string{"find", "--format", ""}, []string{"table", "json", "csv", "md"}, nil},
-		{"prefer", []string{"find", "--prefer", ""}, []string{"drawer", "short", "cheap", "sharp"}, nil},
+		{"prefer", []string{"find", "--prefer", ""}, []string{"drawer", "short", "cheap", "sharp", "robust"}, nil},
 		{"kind", []string{"catalog", "list", "--kind", ""}, []string{"positive", "negative", "singlet", "cemented", "air-spaced"}, nil},
 		{"part names", []string{"inspect", "DEMO:PCX"}, nil, []string{"DEMO:PCX-50", "DEMO:PCX-100"}},
 		{"part names for the drawer", []string{"drawer", "set", ""}, nil, []string{"DEMO:ACH-100"}},

@@ -150,7 +150,7 @@ do not replace a safety assessment.`,
 	f.StringVar(&opts.Supplier, "supplier", "", "only parts of this supplier")
 	f.BoolVar(&opts.DrawerOnly, "in-drawer", false, "only parts in the drawer")
 	f.IntVar(&opts.Top, "top", search.DefaultTop, "results to show (0: all that meet the requirement)")
-	f.StringVar(&opts.Prefer, "prefer", "", "rank weight to raise: drawer, short, cheap or sharp (image quality)")
+	f.StringVar(&opts.Prefer, "prefer", "", "rank weight to raise: drawer, short, cheap, sharp (image quality) or robust (yield of real builds)")
 	f.StringVar(&opts.Spec, "spec", "", "JSON requirement file; flags given override it")
 	addOutputFlags(f, &opts.out, true)
 	return cmd
