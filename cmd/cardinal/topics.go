@@ -24,6 +24,7 @@ var topics = []struct{ name, short string }{
 	{"building", "Will it build? Stock tolerances, adjustment range, yield"},
 	{"quality", "The real-ray figures, the diffraction-limited verdict, the sharpness term"},
 	{"outputs", "Requests, build sheets, drawings, plots and reports"},
+	{"lasers", "Laser beams: Gaussian focus and collimation, mode matching, ghost foci"},
 	{"saved", "Saved searches, demo:N references, shell completion"},
 }
 

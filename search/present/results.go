@@ -152,7 +152,7 @@ func laserColumns(req search.Requirement, rs []search.Result) []resultColumn {
 			return f(r.Gaussian)
 		}
 	}
-	waist := resultColumn{Column{Key: "waist_radius_um", Label: "waist", Unit: "µm"},
+	waist := resultColumn{Column{Key: "waist_radius_um", Keep: 6, Label: "waist", Unit: "µm"},
 		g(func(f *search.LaserFigures) Cell { return Num(f.WaistRadius, 1) })}
 	at := resultColumn{Column{Key: "waist_at_mm", Label: "waist at", Unit: "mm", Optional: true},
 		g(func(f *search.LaserFigures) Cell { return Num(f.WaistAt, 2) })}
@@ -168,7 +168,7 @@ func laserColumns(req search.Requirement, rs []search.Result) []resultColumn {
 			{Column{Key: "spot_limited_by", Label: "limited by", Optional: true}, g(func(f *search.LaserFigures) Cell { return Text(f.SpotLimit) })}}
 	case search.Expand:
 		cols = []resultColumn{waist, at, zr,
-			{Column{Key: "divergence_mrad", Label: "divergence", Unit: "mrad"},
+			{Column{Key: "divergence_mrad", Keep: 6, Label: "divergence", Unit: "mrad"},
 				g(func(f *search.LaserFigures) Cell { return OptNum(f.Divergence, 4) })},
 			{Column{Key: "divergence_ratio", Label: "x limit"},
 				g(func(f *search.LaserFigures) Cell { return OptNum(f.DivergenceRatio, 3) })},
@@ -178,7 +178,7 @@ func laserColumns(req search.Requirement, rs []search.Result) []resultColumn {
 				g(func(f *search.LaserFigures) Cell { return OptNum(f.AfocalGap, 2) })}}
 	case search.Match:
 		cols = []resultColumn{
-			{Column{Key: "coupling", Label: "coupling"}, g(func(f *search.LaserFigures) Cell { return OptNum(f.Coupling, 4) })},
+			{Column{Key: "coupling", Keep: 8, Label: "coupling"}, g(func(f *search.LaserFigures) Cell { return OptNum(f.Coupling, 4) })},
 			{Column{Key: "coupling_tol_mm", Label: "coupling tol", Unit: "mm"},
 				g(func(f *search.LaserFigures) Cell { return OptNum(f.CouplingTol, 3) })},
 			waist, at, zr}
