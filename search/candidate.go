@@ -75,6 +75,7 @@ type prepared struct {
 type partInfo struct {
 	supplier, name, currency string
 	price                    float64
+	diameter                 float64 // mm, for the twin criterion (group.go)
 }
 
 // prepare filters the items by the requirement's part constraints and
@@ -85,7 +86,7 @@ func prepare(items []Item, req Requirement) *prepared {
 	info := make([]partInfo, len(items))
 	for i, it := range items {
 		e := &it.Entry
-		info[i] = partInfo{supplier: e.Part.Supplier, name: e.Part.Name, currency: e.Currency, price: e.Price}
+		info[i] = partInfo{supplier: e.Part.Supplier, name: e.Part.Name, currency: e.Currency, price: e.Price, diameter: e.Part.Diameter}
 	}
 	p := inChunks(len(items), func(q *prepared, lo, hi int) { prepareChunk(q, items, keys, lo, hi, req) })
 	p.info = info

@@ -29,15 +29,29 @@ func ExampleFind() {
 		fmt.Println(err)
 		return
 	}
-	for _, r := range out.Results {
-		fmt.Printf("%d. %s%s + %s%s: gap %.2f mm, EFL %.2f mm, back clearance %.2f mm\n", r.Rank,
-			r.Parts[0].ID(), rev(r.Parts[0]), r.Parts[1].ID(), rev(r.Parts[1]), *r.Gap, *r.EFL, *r.BackClearance)
+	// One row per set of parts; the other layouts of the same parts
+	// follow under it.
+	for _, row := range out.Results {
+		for _, r := range append([]search.Result{row}, row.Arrangements...) {
+			fmt.Printf("%s. %s%s + %s%s: gap %.2f mm, EFL %.2f mm, back clearance %.2f mm\n", label(r),
+				r.Parts[0].ID(), rev(r.Parts[0]), r.Parts[1].ID(), rev(r.Parts[1]), *r.Gap, *r.EFL, *r.BackClearance)
+		}
 	}
 	fmt.Println(out.Notes[0])
 	// Output:
 	// 1. EXAMPLE:PCX-100 + EXAMPLE:PCX-100 (rev): gap 28.06 mm, EFL 60.00 mm, back clearance 40.00 mm
-	// 2. EXAMPLE:PCX-100 + EXAMPLE:PCX-100: gap 30.70 mm, EFL 60.00 mm, back clearance 37.36 mm
+	// 1.1. EXAMPLE:PCX-100 + EXAMPLE:PCX-100: gap 30.70 mm, EFL 60.00 mm, back clearance 37.36 mm
+	// 1.2. EXAMPLE:PCX-100 (rev) + EXAMPLE:PCX-100 (rev): gap 30.70 mm, EFL 60.00 mm, back clearance 40.00 mm
+	// 1.3. EXAMPLE:PCX-100 (rev) + EXAMPLE:PCX-100: gap 33.33 mm, EFL 60.00 mm, back clearance 37.36 mm
 	// clear apertures not checked: give --beam, --na or --object-height to check ray heights
+}
+
+// label is "3" for row 3, "3.1" for its first other arrangement.
+func label(r search.Result) string {
+	if r.Arrangement > 0 {
+		return fmt.Sprintf("%d.%d", r.Rank, r.Arrangement)
+	}
+	return fmt.Sprint(r.Rank)
 }
 
 func rev(u search.PartUse) string {

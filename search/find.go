@@ -52,15 +52,10 @@ func run(items []Item, req Requirement, prune bool) (Outcome, error) {
 
 // runPrepared searches the prepared candidates.
 func runPrepared(p *prepared, req Requirement, prune bool) (Outcome, error) {
-	s := newSearch(p, req, limitsOf(req), survivors(req))
-	if prune {
-		s.pruned()
-	} else {
-		s.exhaustive()
-	}
+	class := twinClasses(p, p.cands)
+	s, ls := firstOrderGroups(p, req, prune, class)
 	out := Outcome{Requirement: req, Candidates: len(p.cands), Evaluated: s.evaluated, Solved: s.solved,
 		Met: s.met, MetExact: !s.full()}
-	ls := s.sorted()
 	met, traced := len(ls), 0
 	var js []judgement
 	if req.TracesRays() || req.Gaussian() {
@@ -79,22 +74,42 @@ func runPrepared(p *prepared, req Requirement, prune bool) (Outcome, error) {
 	case req.collimates():
 		ls, cs = s.collimate(p, ls)
 	}
-	for k := range ls {
-		r := s.result(p, &ls[k], k+1)
+	gs := s.groups(class, ls)
+	if req.Arrangements {
+		gs = make([][]int, len(ls))
+		for i := range ls {
+			gs[i] = []int{i}
+		}
+	}
+	// Every row kept goes to the build study, which orders the first
+	// maxStudied again and then keeps the top N (studyBuilds).
+	rows := make([]layout, len(gs))
+	var rowJ []judgement
+	for k, g := range gs {
+		rows[k] = ls[g[0]]
+		r := s.result(p, &ls[g[0]], k+1)
 		if js != nil {
-			js[k].apply(&r, s.sc.w)
+			js[g[0]].apply(&r, s.sc.w)
+			rowJ = append(rowJ, js[g[0]])
 		}
-		if req.Gaussian() {
-			var c *collimation
-			if cs != nil {
-				c = &cs[k]
+		s.laserOf(p, ls, cs, g[0], &r)
+		others := make([]layout, 0, len(g)-1)
+		for n, i := range g[1:] {
+			a := s.result(p, &ls[i], k+1)
+			a.Arrangement = n + 1
+			if js != nil {
+				js[i].apply(&a, s.sc.w)
 			}
-			s.laserResult(p, &ls[k], &r, c)
+			s.laserOf(p, ls, cs, i, &a)
+			r.Arrangements = append(r.Arrangements, a)
+			others = append(others, ls[i])
 		}
+		r.Alternatives = s.alternatives(p, class, &ls[g[0]], others)
 		out.Results = append(out.Results, r)
 	}
+	js = rowJ
 	var err error
-	if out.Results, err = s.studyBuilds(p, ls, out.Results); err != nil {
+	if out.Results, err = s.studyBuilds(p, rows, out.Results); err != nil {
 		return Outcome{}, err
 	}
 	out.Notes = notes(p, req)
@@ -115,6 +130,75 @@ func runPrepared(p *prepared, req Requirement, prune bool) (Outcome, error) {
 		out.Results = []Result{}
 	}
 	return out, nil
+}
+
+// laserOf adds the Gaussian-beam figures of layout k to r when the
+// requirement treats the input as a laser beam.
+func (s *search) laserOf(p *prepared, ls []layout, cs []collimation, k int, r *Result) {
+	if !s.req.Gaussian() {
+		return
+	}
+	var c *collimation
+	if cs != nil {
+		c = &cs[k]
+	}
+	s.laserResult(p, &ls[k], r, c)
+}
+
+// firstOrderGroups runs the first-order search until it keeps layouts of
+// at least survivors(req) distinct part sets (twins as one; group.go), or
+// all that meet, widening the number kept fourfold at a time (up to 256
+// times); it returns the search and the kept layouts of the first
+// survivors(req) part sets, best first.
+func firstOrderGroups(p *prepared, req Requirement, prune bool, class []int32) (*search, []layout) {
+	want := survivors(req)
+	if !req.TracesRays() {
+		// The build study reorders the first maxStudied rows whatever N
+		// is, so --top N keeps that many rows for it: its N rows are then
+		// the first N of the full list (group_test.go).
+		want = max(want, min(maxStudied, MaxShown))
+	}
+	keep := want
+	if req.Arrangements {
+		s := newSearch(p, req, limitsOf(req), keep)
+		if prune {
+			s.pruned()
+		} else {
+			s.exhaustive()
+		}
+		return s, s.sorted()
+	}
+	for {
+		s := newSearch(p, req, limitsOf(req), keep)
+		if prune {
+			s.pruned()
+		} else {
+			s.exhaustive()
+		}
+		ls := s.sorted()
+		if keep == 0 || len(ls) < keep || keep >= 256*want || s.countGroups(class, ls) >= want {
+			if want > 0 {
+				var kept []layout
+				for i, g := range s.groups(class, ls) {
+					if i == want {
+						break
+					}
+					for _, k := range g {
+						kept = append(kept, ls[k])
+					}
+				}
+				sortLayouts(s, kept)
+				ls = kept
+			}
+			return s, ls
+		}
+		keep *= 4
+	}
+}
+
+// sortLayouts puts layouts in the ranking order.
+func sortLayouts(s *search, ls []layout) {
+	sort.Slice(ls, func(i, j int) bool { return s.better(&ls[i], &ls[j]) })
 }
 
 // nearMisses runs the search again with looser limits and returns its best
@@ -206,6 +290,9 @@ func (s *search) studyBuilds(p *prepared, ls []layout, rs []Result) ([]Result, e
 	}
 	for k := range rs {
 		rs[k].Rank = k + 1
+		for i := range rs[k].Arrangements {
+			rs[k].Arrangements[i].Rank = k + 1
+		}
 	}
 	return rs, nil
 }

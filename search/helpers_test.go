@@ -87,8 +87,11 @@ func expandReq(e float64) Requirement {
 	return r
 }
 
+// mustFind finds every layout as its own row (Requirement.Arrangements):
+// the solver's tests look at layouts; group_test.go at the grouping.
 func mustFind(t *testing.T, its []Item, req Requirement) Outcome {
 	t.Helper()
+	req.Arrangements = true
 	out, err := Find(its, req)
 	if err != nil {
 		t.Fatal(err)

@@ -43,7 +43,7 @@ func prepareIndex(ctx context.Context, ix *catalog.Index, req Requirement) *prep
 	p.info = make([]partInfo, len(ix.Parts))
 	for i := range ix.Parts {
 		q := &ix.Parts[i]
-		p.info[i] = partInfo{supplier: q.Supplier, name: q.Name, currency: q.Currency, price: q.Price}
+		p.info[i] = partInfo{supplier: q.Supplier, name: q.Name, currency: q.Currency, price: q.Price, diameter: q.Diameter}
 	}
 	full := map[int32]optics.Part{}
 	tols := map[int32]optics.Tolerances{}

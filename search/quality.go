@@ -212,8 +212,8 @@ const maxTraced = 1000
 
 // judge traces the layouts, best first-order first and at most maxTraced
 // (in parallel, each result in its own slot so the outcome does not depend
-// on timing), orders them by the full score and keeps the requirement's
-// top N. Layouts not traced come last, by their first-order order. It
+// on timing) and orders them by the full score; grouping then keeps the
+// requirement's top N rows. Layouts not traced come last, by their first-order order. It
 // returns how many were traced.
 func (s *search) judge(p *prepared, ls []layout) ([]layout, []judgement, int) {
 	js := make([]judgement, len(ls))
@@ -235,9 +235,6 @@ func (s *search) judge(p *prepared, ls []layout) ([]layout, []judgement, int) {
 		idx[i] = i
 	}
 	sort.SliceStable(idx, func(a, b int) bool { return s.judgedBefore(&ls[idx[a]], &ls[idx[b]], &js[idx[a]], &js[idx[b]]) })
-	if len(idx) > s.req.Shown() {
-		idx = idx[:s.req.Shown()]
-	}
 	outL, outJ := make([]layout, len(idx)), make([]judgement, len(idx))
 	for k, i := range idx {
 		outL[k], outJ[k] = ls[i], js[i]

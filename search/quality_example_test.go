@@ -26,12 +26,14 @@ func ExampleFind_imageQuality() {
 		fmt.Println(err)
 		return
 	}
-	for _, r := range out.Results {
-		q := r.ImageQuality
-		fmt.Printf("%d. %s%s: RMS spot %.1f um, Airy radius %.1f um, %.3f waves RMS, diffraction limited %v, sharpness %.3f\n",
-			r.Rank, r.Parts[0].ID(), rev(r.Parts[0]), q.RMSSpot, q.AiryRadius, q.WavefrontRMS, q.DiffractionLimited, q.Sharpness(req.Lambda()))
+	for _, row := range out.Results {
+		for _, r := range append([]search.Result{row}, row.Arrangements...) {
+			q := r.ImageQuality
+			fmt.Printf("%s. %s%s: RMS spot %.1f um, Airy radius %.1f um, %.3f waves RMS, diffraction limited %v, sharpness %.3f\n",
+				label(r), r.Parts[0].ID(), rev(r.Parts[0]), q.RMSSpot, q.AiryRadius, q.WavefrontRMS, q.DiffractionLimited, q.Sharpness(req.Lambda()))
+		}
 	}
 	// Output:
 	// 1. EXAMPLE:PCX-100: RMS spot 2.3 um, Airy radius 7.1 um, 0.022 waves RMS, diffraction limited true, sharpness 0.070
-	// 2. EXAMPLE:PCX-100 (rev): RMS spot 9.1 um, Airy radius 7.1 um, 0.086 waves RMS, diffraction limited false, sharpness 0.694
+	// 1.1. EXAMPLE:PCX-100 (rev): RMS spot 9.1 um, Airy radius 7.1 um, 0.086 waves RMS, diffraction limited false, sharpness 0.694
 }

@@ -93,6 +93,10 @@ type Requirement struct {
 	// (see IsLaser): one wavelength in plots, spots and verdicts unless a
 	// band is given, and the laser cautions.
 	Laser bool `json:"laser,omitempty"`
+	// Arrangements lists every layout that meets as its own row, ranked on
+	// its own (--top counts layouts); by default the layouts of one set of
+	// parts, twins taken as one, are one row (group.go).
+	Arrangements bool `json:"arrangements,omitempty"`
 
 	// Build says how every ranked result is simulated as built (build.go).
 	Build BuildSettings `json:"build,omitzero"`

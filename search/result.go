@@ -59,8 +59,16 @@ type Result struct {
 	ToOrder     int      `json:"pieces_to_order"`
 	OrderPrices []Amount `json:"order_prices"`
 	InDrawer    bool     `json:"in_drawer"`
-	Score       float64  `json:"score"`
-	Reason      string   `json:"reason"`
+	// Arrangement is 0 for a row, k for the row's k-th other arrangement.
+	Arrangement int `json:"arrangement,omitempty"`
+	// Arrangements are the row's other layouts that meet, best first: the
+	// same parts in another order, orientation or root, or with a part
+	// optically the same in its place (see group.go); Alternatives names
+	// those parts.
+	Arrangements []Result      `json:"arrangements,omitempty"`
+	Alternatives []Alternative `json:"alternatives,omitempty"`
+	Score        float64       `json:"score"`
+	Reason       string        `json:"reason"`
 	// ImageQuality holds the real-ray figures (quality.go), its keys
 	// inline in the JSON; nil when real rays were not traced.
 	*ImageQuality

@@ -33,6 +33,7 @@ type findOptions struct {
 	Elements, Top                  int
 	Supplier, Prefer, Spec         string
 	DrawerOnly, Laser              bool
+	Arrangements                   bool
 	FieldAngle, Power              float64
 	Band                           []float64
 	WaistIn, WaistInAt, M2         float64
@@ -71,6 +72,13 @@ first unless a purchase is clearly better. A price counts against the median
 price of the parts in its own currency; amounts in different currencies are
 never added (the price column shows each currency's amount). Every run is
 saved; its id is printed on stderr.
+
+One row per set of parts: the other arrangements of the same parts (order,
+orientation, the other root) that meet fold into the best of them ("+" column,
+e.g. +3; JSON keeps them under the row as arrangements), and parts optically
+the same (EFL, front and back focal distances within 0.5 % of the EFL,
+diameter within 0.01 mm) count as one part, named under "also". --top counts
+rows; --arrangements lists every arrangement as its own row.
 
 With an aperture (--beam for focus, --na for image) the best first-order
 layouts (3 x --top, at least 30) are traced with real rays at the wavelength
@@ -149,7 +157,8 @@ do not replace a safety assessment.`,
 	f.IntVar(&opts.Elements, "elements", 2, "1: single parts only; 2: single parts and pairs")
 	f.StringVar(&opts.Supplier, "supplier", "", "only parts of this supplier")
 	f.BoolVar(&opts.DrawerOnly, "in-drawer", false, "only parts in the drawer")
-	f.IntVar(&opts.Top, "top", search.DefaultTop, "results to show (0: all that meet the requirement)")
+	f.IntVar(&opts.Top, "top", search.DefaultTop, "rows to show, one per set of parts (0: all that meet the requirement)")
+	f.BoolVar(&opts.Arrangements, "arrangements", false, "list every arrangement of a set of parts as its own row (default: the best, '+N' for the others)")
 	f.StringVar(&opts.Prefer, "prefer", "", "rank weight to raise: drawer, short, cheap, sharp (image quality) or robust (yield of real builds)")
 	f.StringVar(&opts.Spec, "spec", "", "JSON requirement file; flags given override it")
 	addOutputFlags(f, &opts.out, true)
@@ -275,6 +284,9 @@ func (o *findOptions) applyRest(req *search.Requirement, set func(string) bool) 
 	}
 	if set("top") {
 		req.Top = o.Top
+	}
+	if set("arrangements") {
+		req.Arrangements = o.Arrangements
 	}
 	if set("supplier") {
 		req.Supplier = o.Supplier

@@ -40,16 +40,20 @@ type resultColumn struct {
 func resultColumns(req search.Requirement, rs []search.Result, qs search.QualityShown) []resultColumn {
 	// The checks column only where some layout fails one, the error only
 	// where some layout is off target.
-	anyFails, anyOff := false, false
+	anyFails, anyOff, anyOther, anyAlt := false, false, false, false
 	for _, r := range rs {
 		anyFails = anyFails || !r.Meets
 		anyOff = anyOff || Signed(r.ErrorPct) != "0"
+		anyOther = anyOther || len(r.Arrangements) > 0
+		anyAlt = anyAlt || len(r.Alternatives) > 0
 	}
 	focus, image, expand := req.Kind == search.Focus, req.Kind == search.Image, req.Kind == search.Expand
 	match := req.Kind == search.Match
 	cols := []resultColumn{
 		{Column{Key: "rank", Keep: 9, Label: "#"}, func(r search.Result) Cell { return Int(r.Rank) }},
 		{Column{Key: "parts", Keep: 9, Label: "parts"}, func(r search.Result) Cell { return partsCell(r.Parts) }},
+		{Column{Key: "other_arrangements", Keep: 6, Label: "+", Optional: !anyOther},
+			func(r search.Result) Cell { return ArrangementsCell(len(r.Arrangements)) }},
 		{Column{Key: "working_distance_mm", Keep: 6, Label: "wd", Unit: "mm", Optional: !image && !match},
 			func(r search.Result) Cell { return OptNum(r.WorkingDistance, 2) }},
 		{Column{Key: "gap_mm", Keep: 6, Label: "gap", Unit: "mm"}, func(r search.Result) Cell { return OptNum(r.Gap, 2) }},
@@ -85,7 +89,28 @@ func resultColumns(req search.Requirement, rs []search.Result, qs search.Quality
 		resultColumn{Column{Key: "in_drawer", Keep: 7, Label: "drawer"}, func(r search.Result) Cell { return Bool(r.InDrawer) }},
 		resultColumn{Column{Key: "score", Label: "score", Optional: true}, func(r search.Result) Cell { return Num(r.Score, 3) }},
 		resultColumn{Column{Key: "reason", Label: "why", Note: true}, func(r search.Result) Cell { return Text(r.Reason) }},
+		resultColumn{Column{Key: "alternatives", Label: "alternatives", TextOnly: true, Note: true, Optional: !anyAlt},
+			func(r search.Result) Cell { return Cell{Text: AlternativesText(r.Alternatives)} }},
 	)
+}
+
+// ArrangementsCell is "+3" for a row with three other arrangements that
+// meet (search/group.go), empty for none; the count is the raw value.
+func ArrangementsCell(n int) Cell {
+	if n == 0 {
+		return Cell{Raw: 0}
+	}
+	return Cell{Text: "+" + strconv.Itoa(n), Raw: n}
+}
+
+// AlternativesText names the parts optically the same as the row's that
+// its arrangements use: "also TARNWICK:KC-12-125, 15.90 XTS; also ...".
+func AlternativesText(as []search.Alternative) string {
+	ts := make([]string, len(as))
+	for i, a := range as {
+		ts[i] = a.Text()
+	}
+	return strings.Join(ts, "; ")
 }
 
 // qualityColumns are the real-ray figures: none when no result was traced.
