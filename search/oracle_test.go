@@ -413,6 +413,7 @@ func searchLayouts(rs []Result) []oracleLayout {
 func compareOracle(t *testing.T, its []Item, req Requirement, samples int) int {
 	t.Helper()
 	req.Top = 0
+	req.Arrangements = true // every layout its own row, as the oracle lists them
 	out, err := Find(its, req)
 	if err != nil {
 		t.Fatal(err)
