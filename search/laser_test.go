@@ -254,6 +254,7 @@ func TestMatchPairsAgainstScan(t *testing.T) {
 			}
 			req := matchReq(tc.w1, tc.w2, tc.track)
 			req.GapMin = 0
+			req.Arrangements = true // every layout its own row, as the scan finds them
 			out, err := FindExhaustive(items(a, b), req)
 			if err != nil {
 				t.Fatal(err)
