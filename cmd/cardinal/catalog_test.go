@@ -18,6 +18,7 @@ import (
 // parseWith runs a command built with a capturing run function on args
 // and returns the run's error (nil when the flags parsed and validated).
 func parseWith(cmd *cobra.Command, args ...string) error {
+	cmd.PersistentPreRunE = checkNumbers // as the root runs it before every command
 	cmd.SetArgs(args)
 	cmd.SilenceErrors, cmd.SilenceUsage = true, true
 	cmd.SetOut(new(strings.Builder))

@@ -89,7 +89,7 @@ func (o *drawOptions) validate() error {
 	if len(o.Band) > 0 && !o.Spot {
 		return usageErrorf("--band applies to --spot plots only")
 	}
-	return checkBand(o.Band)
+	return nil
 }
 
 func runDraw(o *drawOptions) error {

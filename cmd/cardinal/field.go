@@ -40,13 +40,3 @@ func (o fieldFlags) value(req search.Requirement) (float64, error) {
 	}
 	return o.Former, nil
 }
-
-// checkBand checks wavelengths given with --band.
-func checkBand(band []float64) error {
-	for _, v := range band {
-		if !(v >= 150 && v <= 20000) {
-			return usageErrorf("--band %g: give wavelengths in nm between 150 and 20000, separated by commas", v)
-		}
-	}
-	return nil
-}

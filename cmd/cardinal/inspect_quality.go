@@ -45,11 +45,6 @@ func (ro rayOptions) validate() error {
 			return usageErrorf("%s %g: give a positive number", name, v)
 		}
 	}
-	for _, b := range ro.Band {
-		if !(b >= 150 && b <= 20000) {
-			return usageErrorf("--band: %g nm is outside 150-20000 nm", b)
-		}
-	}
 	switch {
 	case ro.Beam > 0 && ro.NA > 0:
 		return usageErrorf("give --beam (object at infinity) or --na (finite object), not both")

@@ -60,10 +60,7 @@ func (o *reportOptions) validate() error {
 	if o.Qty < 1 {
 		return usageErrorf("--systems %d: give the number of systems, 1 or more", o.Qty)
 	}
-	if err := checkPicks(o.Picks, false); err != nil {
-		return err
-	}
-	return checkBand(o.Band)
+	return checkPicks(o.Picks, false)
 }
 
 func runReport(o *reportOptions) error {
