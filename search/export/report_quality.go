@@ -11,13 +11,6 @@ import (
 	"cardinal/search/present"
 )
 
-func yesNo(b bool) string {
-	if b {
-		return "yes"
-	}
-	return "no"
-}
-
 // rankingNote says what the ranking used, as search.Weights and the
 // real-ray stage (search/score.go, search/quality.go) do it: a first-order
 // score, then for a requirement with an aperture the image quality of the
