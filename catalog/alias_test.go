@@ -5,6 +5,7 @@ import (
 	"reflect"
 	"testing"
 
+	"cardinal/catalog/record"
 	"cardinal/importers"
 	"cardinal/optics"
 )
@@ -62,7 +63,7 @@ func TestGlassAliases(t *testing.T) {
 	// A part imported through an alias stores the target.
 	e := lens(t, "DEMO", "A", 50, -50, 4, 25, "517642")
 	e.Part.Media[0] = mustLookup(t, table, "Melt Seven")
-	if _, err := s.Import(ctx, []importers.Entry{e}, false); err != nil {
+	if _, err := s.Import(ctx, []record.Entry{e}, false); err != nil {
 		t.Fatal(err)
 	}
 	stored, _ := s.Entries(ctx, Filter{})

@@ -5,6 +5,7 @@ import (
 	"math/rand/v2"
 	"testing"
 
+	"cardinal/catalog/record"
 	"cardinal/importers"
 	"cardinal/optics"
 )
@@ -15,8 +16,8 @@ func constantGlass(name string, n float64) importers.Glass {
 }
 
 // singletOf builds a singlet entry in a medium of the glass table.
-func singletOf(supplier, name string, r1, r2, thick, diameter float64, m optics.Medium) importers.Entry {
-	return importers.Entry{Part: optics.Part{Supplier: supplier, Name: name, Diameter: diameter,
+func singletOf(supplier, name string, r1, r2, thick, diameter float64, m optics.Medium) record.Entry {
+	return record.Entry{Part: optics.Part{Supplier: supplier, Name: name, Diameter: diameter,
 		Surfaces: []optics.Surface{{Radius: r1}, {Radius: r2}}, Thickness: []float64{thick}, Media: []optics.Medium{m}}}
 }
 
@@ -39,7 +40,7 @@ func TestComputedColumnsMatchThickLens(t *testing.T) {
 	m, _ := table.Lookup("test-crown")
 	rng := rand.New(rand.NewPCG(1, 2))
 	type lensArgs struct{ r1, r2, d float64 }
-	var es []importers.Entry
+	var es []record.Entry
 	var args []lensArgs
 	for i := 0; i < 60; i++ {
 		r := func() float64 { return math.Copysign(15+300*rng.Float64(), rng.Float64()-0.5) }
@@ -141,7 +142,7 @@ func TestAfocalPart(t *testing.T) {
 	m, _ := table.Lookup("517642")
 	n, d, r1 := m.Index(optics.LineD), 10.0, 50.0
 	e := singletOf("TEST", "AFOCAL", r1, r1-(n-1)*d/n, d, 20, m)
-	mustImport(t, s, []importers.Entry{e})
+	mustImport(t, s, []record.Entry{e})
 	rows, _ := s.Computed(ctx, Filter{})
 	if !rows[0].Forward.Afocal || rows[0].Forward.EFL != 0 || rows[0].Forward.Power != 0 {
 		t.Errorf("afocal part stored as %+v", rows[0].Forward)

@@ -8,12 +8,12 @@ import (
 	"sync/atomic"
 	"testing"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 )
 
 // versioned builds n plano-convex parts whose descriptions carry a version.
-func versioned(t *testing.T, n int, version string) []importers.Entry {
-	es := make([]importers.Entry, n)
+func versioned(t *testing.T, n int, version string) []record.Entry {
+	es := make([]record.Entry, n)
 	for i := range es {
 		es[i] = lens(t, "TEST", fmt.Sprintf("P%03d", i), 20+float64(i), math.Inf(1), 3, 12.7, "517642")
 		es[i].Part.Description = version

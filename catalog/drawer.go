@@ -6,21 +6,18 @@ import (
 	"errors"
 	"fmt"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 )
-
-// A DrawerItem is how many of a catalog part the user holds, and where.
-type DrawerItem = importers.DrawerItem
 
 // Drawer returns the parts with at least one piece in the drawer, keyed by
 // SUPPLIER:PART.
-func (s *Store) Drawer(ctx context.Context) (_ map[string]DrawerItem, err error) {
+func (s *Store) Drawer(ctx context.Context) (_ map[string]record.DrawerItem, err error) {
 	defer s.classify(&err)
 	items, err := s.DrawerItems(ctx)
 	if err != nil {
 		return nil, err
 	}
-	out := make(map[string]DrawerItem, len(items))
+	out := make(map[string]record.DrawerItem, len(items))
 	for _, it := range items {
 		if it.Quantity > 0 {
 			out[it.ID()] = it
@@ -31,7 +28,7 @@ func (s *Store) Drawer(ctx context.Context) (_ map[string]DrawerItem, err error)
 
 // DrawerItems returns every drawer row, those with none left included,
 // ordered by supplier and part.
-func (s *Store) DrawerItems(ctx context.Context) (_ []DrawerItem, err error) {
+func (s *Store) DrawerItems(ctx context.Context) (_ []record.DrawerItem, err error) {
 	defer s.classify(&err)
 	rows, err := s.db.QueryContext(ctx, `SELECT p.supplier, p.part, d.quantity, d.location
 		FROM drawer d JOIN parts p ON p.id = d.part_id ORDER BY p.supplier, p.part`)
@@ -39,9 +36,9 @@ func (s *Store) DrawerItems(ctx context.Context) (_ []DrawerItem, err error) {
 		return nil, err
 	}
 	defer rows.Close()
-	var out []DrawerItem
+	var out []record.DrawerItem
 	for rows.Next() {
-		var it DrawerItem
+		var it record.DrawerItem
 		if err := rows.Scan(&it.Supplier, &it.Part, &it.Quantity, &it.Location); err != nil {
 			return nil, err
 		}
@@ -61,7 +58,7 @@ type DrawerReport struct {
 // close names), a negative quantity or a part given twice changes nothing,
 // and the *ImportError lists every problem with its line. Parts not in the
 // list keep their drawer rows.
-func (s *Store) ImportDrawer(ctx context.Context, items []DrawerItem, dryRun bool) (_ DrawerReport, err error) {
+func (s *Store) ImportDrawer(ctx context.Context, items []record.DrawerItem, dryRun bool) (_ DrawerReport, err error) {
 	defer s.classify(&err)
 	rep := DrawerReport{DryRun: dryRun}
 	tx, err := s.db.BeginTx(ctx, nil)
@@ -97,7 +94,7 @@ func (s *Store) ImportDrawer(ctx context.Context, items []DrawerItem, dryRun boo
 }
 
 // resolveItems finds the part id of every item and lists every problem.
-func resolveItems(ctx context.Context, tx *sql.Tx, items []DrawerItem) ([]int64, []RowError, error) {
+func resolveItems(ctx context.Context, tx *sql.Tx, items []record.DrawerItem) ([]int64, []RowError, error) {
 	var bad []RowError
 	ids := make([]int64, len(items))
 	seen := map[string]int{}
@@ -125,32 +122,32 @@ func resolveItems(ctx context.Context, tx *sql.Tx, items []DrawerItem) ([]int64,
 // SetDrawer sets how many of the part named SUPPLIER:PART are in the drawer
 // and where; keepLocation leaves a stored location as it is. A part not in
 // the catalog gives a *NotFoundError that suggests close names.
-func (s *Store) SetDrawer(ctx context.Context, id string, quantity int, location string, keepLocation bool) (_ DrawerItem, err error) {
+func (s *Store) SetDrawer(ctx context.Context, id string, quantity int, location string, keepLocation bool) (_ record.DrawerItem, err error) {
 	defer s.classify(&err)
 	if quantity < 0 {
-		return DrawerItem{}, fmt.Errorf("quantity %d is negative", quantity)
+		return record.DrawerItem{}, fmt.Errorf("quantity %d is negative", quantity)
 	}
 	tx, err := s.db.BeginTx(ctx, nil)
 	if err != nil {
-		return DrawerItem{}, s.wrapWriteError(err)
+		return record.DrawerItem{}, s.wrapWriteError(err)
 	}
 	defer tx.Rollback()
 	pid, err := lookupPart(ctx, tx, id)
 	if err != nil {
-		return DrawerItem{}, err
+		return record.DrawerItem{}, err
 	}
 	if keepLocation {
 		err := tx.QueryRowContext(ctx, "SELECT location FROM drawer WHERE part_id = ?", pid).Scan(&location)
 		if err != nil && !errors.Is(err, sql.ErrNoRows) {
-			return DrawerItem{}, err
+			return record.DrawerItem{}, err
 		}
 	}
 	if _, err := setDrawer(ctx, tx, pid, quantity, location); err != nil {
-		return DrawerItem{}, s.wrapWriteError(err)
+		return record.DrawerItem{}, s.wrapWriteError(err)
 	}
-	it := DrawerItem{Quantity: quantity, Location: location}
+	it := record.DrawerItem{Quantity: quantity, Location: location}
 	if err := tx.QueryRowContext(ctx, "SELECT supplier, part FROM parts WHERE id = ?", pid).Scan(&it.Supplier, &it.Part); err != nil {
-		return DrawerItem{}, err
+		return record.DrawerItem{}, err
 	}
 	return it, s.wrapWriteError(tx.Commit())
 }

@@ -5,12 +5,14 @@ import (
 	"reflect"
 	"strings"
 	"testing"
+
+	"cardinal/catalog/record"
 )
 
 func TestImportDrawer(t *testing.T) {
 	s := newStore(t)
 	mustImport(t, s, sampleEntries(t))
-	items := []DrawerItem{
+	items := []record.DrawerItem{
 		{Supplier: "TEST", Part: "PCX-50", Quantity: 2, Location: "A1", Line: 2},
 		{Supplier: "OTHER", Part: "ACH-100", Quantity: 0, Location: "A2", Line: 3},
 	}
@@ -37,7 +39,7 @@ func TestImportDrawerAllOrNothing(t *testing.T) {
 	s := newStore(t)
 	mustImport(t, s, sampleEntries(t))
 	before := checksum(t, s)
-	items := []DrawerItem{
+	items := []record.DrawerItem{
 		{Supplier: "TEST", Part: "PCX-50", Quantity: 2, Line: 2},
 		{Supplier: "TEST", Part: "PCX-55", Quantity: 1, Line: 3},
 		{Supplier: "TEST", Part: "PCV-50", Quantity: -1, Line: 4},

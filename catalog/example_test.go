@@ -6,7 +6,7 @@ import (
 	"math"
 
 	"cardinal/catalog"
-	"cardinal/importers"
+	"cardinal/catalog/record"
 	"cardinal/optics"
 )
 
@@ -21,11 +21,11 @@ func ExampleStore_Import() {
 	}
 	defer s.Close()
 	glass, _ := optics.GlassCode("517642")
-	pcx := importers.Entry{Part: optics.Part{Supplier: "EXAMPLE", Name: "PCX-50", Diameter: 25.4,
+	pcx := record.Entry{Part: optics.Part{Supplier: "EXAMPLE", Name: "PCX-50", Diameter: 25.4,
 		Surfaces:  []optics.Surface{{Radius: 25.84}, {Radius: math.Inf(1)}},
 		Thickness: []float64{5.3},
 		Media:     []optics.Medium{glass}}}
-	rep, _ := s.Import(ctx, []importers.Entry{pcx}, false)
+	rep, _ := s.Import(ctx, []record.Entry{pcx}, false)
 	fmt.Println("added", rep.Added)
 	rows, _ := s.Computed(ctx, catalog.Filter{EFL: catalog.Range{Min: 45, Max: 55}, Kinds: []string{catalog.Positive}})
 	for _, r := range rows {

@@ -5,12 +5,14 @@ import (
 	"reflect"
 	"strings"
 	"testing"
+
+	"cardinal/catalog/record"
 )
 
 func TestFilter(t *testing.T) {
 	s := newStore(t)
 	mustImport(t, s, sampleEntries(t))
-	if _, err := s.ImportDrawer(ctx, []DrawerItem{
+	if _, err := s.ImportDrawer(ctx, []record.DrawerItem{
 		{Supplier: "TEST", Part: "PCX-50", Quantity: 2, Location: "A1"},
 		{Supplier: "OTHER", Part: "FS-200", Quantity: 0, Location: "A2"},
 	}, false); err != nil {

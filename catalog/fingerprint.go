@@ -7,7 +7,7 @@ import (
 	"strconv"
 	"strings"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 	"cardinal/optics"
 )
 
@@ -16,7 +16,7 @@ import (
 // Floats are written in the shortest form that reads back exactly. The
 // warnings that the prescription itself gives are left out: they follow
 // from the other fields.
-func fingerprint(e importers.Entry, otherWarnings []string) string {
+func fingerprint(e record.Entry, otherWarnings []string) string {
 	var b strings.Builder
 	str := func(s string) { b.WriteString(strconv.Quote(s)); b.WriteByte(',') }
 	num := func(v float64) {

@@ -7,6 +7,7 @@ import (
 	"strings"
 	"testing"
 
+	"cardinal/catalog/record"
 	"cardinal/importers"
 	"cardinal/optics"
 )
@@ -54,7 +55,7 @@ func TestImportGlassesAllOrNothing(t *testing.T) {
 	}
 	table, _ := s.Glasses(ctx)
 	m, _ := table.Lookup("test-crown")
-	mustImport(t, s, []importers.Entry{singletOf("TEST", "L1", 30, -30, 4, 20, m)})
+	mustImport(t, s, []record.Entry{singletOf("TEST", "L1", 30, -30, 4, 20, m)})
 	before := checksum(t, s)
 	for _, tc := range []struct {
 		name  string
@@ -99,7 +100,7 @@ func TestGlassChangeRecomputesWarnings(t *testing.T) {
 	e := singletOf("TEST", "PCX", 50, math.Inf(1), 4, 20, m)
 	e.StatedEFL = 100
 	e.Warnings = []string{"note from the supplier file"}
-	rep := mustImport(t, s, []importers.Entry{e})
+	rep := mustImport(t, s, []record.Entry{e})
 	if len(rep.Warnings) != 1 {
 		t.Fatalf("warnings %v, want only the file's own", rep.Warnings)
 	}

@@ -9,7 +9,7 @@ import (
 	"slices"
 	"strings"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 	"cardinal/optics"
 )
 
@@ -28,7 +28,7 @@ type ImportReport struct {
 // nothing the second time. Media must be known to the catalog's glass table
 // (built-in glasses, six-digit codes, air, or the user's glasses). With
 // dryRun every check runs and nothing is kept.
-func (s *Store) Import(ctx context.Context, entries []importers.Entry, dryRun bool) (_ ImportReport, err error) {
+func (s *Store) Import(ctx context.Context, entries []record.Entry, dryRun bool) (_ ImportReport, err error) {
 	defer s.classify(&err)
 	rep := ImportReport{DryRun: dryRun}
 	tx, err := s.db.BeginTx(ctx, nil)
@@ -98,7 +98,7 @@ type storedPart struct {
 // storedParts finds the entries' parts already in the catalog, by
 // SUPPLIER:PART: one query per entry for a few entries, one scan of the
 // parts for many.
-func storedParts(ctx context.Context, w *txWriter, entries []importers.Entry) (map[string]storedPart, error) {
+func storedParts(ctx context.Context, w *txWriter, entries []record.Entry) (map[string]storedPart, error) {
 	out := map[string]storedPart{}
 	if len(entries) < 64 {
 		for _, e := range entries {
@@ -142,7 +142,7 @@ const (
 // checkEntries lists every problem in the entries: an invalid prescription,
 // a medium the glass table does not know (or knows otherwise), a number that
 // is not finite, a part given twice.
-func checkEntries(entries []importers.Entry, glasses optics.GlassTable) []RowError {
+func checkEntries(entries []record.Entry, glasses optics.GlassTable) []RowError {
 	var bad []RowError
 	seen := make(map[string]int, len(entries))
 	problems := parallel(len(entries), func(i int) optics.Problems { return checkEntry(entries[i], glasses) })
@@ -163,7 +163,7 @@ func checkEntries(entries []importers.Entry, glasses optics.GlassTable) []RowErr
 }
 
 // checkEntry returns the problems of one entry, keyed by CSV column name.
-func checkEntry(e importers.Entry, glasses optics.GlassTable) optics.Problems {
+func checkEntry(e record.Entry, glasses optics.GlassTable) optics.Problems {
 	p := e.Part
 	n := len(p.Surfaces)
 	if n < 2 || len(p.Thickness) != n-1 || len(p.Media) != n-1 {

@@ -7,7 +7,7 @@ import (
 	"strings"
 	"testing"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 	"cardinal/optics"
 )
 
@@ -36,7 +36,7 @@ func TestImportUpdateRecomputes(t *testing.T) {
 	changed := es[0]
 	changed.Part.Surfaces = []optics.Surface{{Radius: 30}, {Radius: math.Inf(1)}}
 	changed.Part.Description = "re-measured"
-	rep := mustImport(t, s, []importers.Entry{changed})
+	rep := mustImport(t, s, []record.Entry{changed})
 	if !reflect.DeepEqual(rep.Updated, []string{"TEST:PCX-50"}) {
 		t.Fatalf("updated %v, want [TEST:PCX-50]", rep.Updated)
 	}
@@ -62,8 +62,8 @@ func TestImportUpdateRecomputes(t *testing.T) {
 
 func TestImportAllOrNothing(t *testing.T) {
 	inf := math.Inf(1)
-	bad := func(mod func(*importers.Entry)) func(t *testing.T) importers.Entry {
-		return func(t *testing.T) importers.Entry {
+	bad := func(mod func(*record.Entry)) func(t *testing.T) record.Entry {
+		return func(t *testing.T) record.Entry {
 			e := lens(t, "TEST", "BAD-1", 20, inf, 3, 12.7, "517642")
 			mod(&e)
 			return e
@@ -71,22 +71,22 @@ func TestImportAllOrNothing(t *testing.T) {
 	}
 	tests := []struct {
 		name  string
-		entry func(t *testing.T) importers.Entry
+		entry func(t *testing.T) record.Entry
 		field string
 	}{
-		{"negative thickness", bad(func(e *importers.Entry) { e.Part.Thickness[0] = -1 }), "t1"},
-		{"radius smaller than the semi-diameter", bad(func(e *importers.Entry) { e.Part.Surfaces[0].Radius = 5 }), "r1"},
-		{"unknown glass", bad(func(e *importers.Entry) {
+		{"negative thickness", bad(func(e *record.Entry) { e.Part.Thickness[0] = -1 }), "t1"},
+		{"radius smaller than the semi-diameter", bad(func(e *record.Entry) { e.Part.Surfaces[0].Radius = 5 }), "r1"},
+		{"unknown glass", bad(func(e *record.Entry) {
 			e.Part.Media[0] = optics.Constant{Label: "mystery-glass", N: 1.6}
 		}), "glass1"},
-		{"glass that differs from the table", bad(func(e *importers.Entry) {
+		{"glass that differs from the table", bad(func(e *record.Entry) {
 			e.Part.Media[0] = optics.Constant{Label: "fused-silica", N: 1.7}
 		}), "glass1"},
-		{"one surface", bad(func(e *importers.Entry) {
+		{"one surface", bad(func(e *record.Entry) {
 			e.Part.Surfaces, e.Part.Thickness, e.Part.Media = e.Part.Surfaces[:1], nil, nil
 		}), "r2"},
-		{"not a number", bad(func(e *importers.Entry) { e.StatedEFL = math.NaN() }), "efl"},
-		{"given twice", func(t *testing.T) importers.Entry { return sampleEntries(t)[1] }, "part"},
+		{"not a number", bad(func(e *record.Entry) { e.StatedEFL = math.NaN() }), "efl"},
+		{"given twice", func(t *testing.T) record.Entry { return sampleEntries(t)[1] }, "part"},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
@@ -98,7 +98,7 @@ func TestImportAllOrNothing(t *testing.T) {
 			es[0].Notes = "changed"
 			b := tc.entry(t)
 			b.Line = 50
-			es = append(es[:3], append([]importers.Entry{b}, es[3:]...)...)
+			es = append(es[:3], append([]record.Entry{b}, es[3:]...)...)
 			for _, dry := range []bool{false, true} {
 				_, err := s.Import(ctx, es, dry)
 				var ie *ImportError

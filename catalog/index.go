@@ -6,7 +6,7 @@ import (
 	"fmt"
 	"math"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 	"cardinal/optics"
 )
 
@@ -116,7 +116,7 @@ type indexRecord struct {
 // newIndexRecord builds the record of a part whose media are those the
 // catalog's glass table gives (so that the stored matrix is the one a
 // search on the full prescription computes).
-func newIndexRecord(id int64, e importers.Entry) indexRecord {
+func newIndexRecord(id int64, e record.Entry) indexRecord {
 	p := e.Part
 	r := indexRecord{IndexPart: IndexPart{ID: id, Supplier: p.Supplier, Name: p.Name,
 		Diameter: p.Diameter, Aperture: p.Aperture(), Price: e.Price, Currency: e.Currency,

@@ -9,6 +9,7 @@ import (
 	"reflect"
 	"testing"
 
+	"cardinal/catalog/record"
 	"cardinal/catalog/synth"
 	"cardinal/importers"
 	"cardinal/optics"
@@ -92,7 +93,7 @@ func TestIndexKeptInStep(t *testing.T) {
 	}
 	changed := es[1]
 	changed.Price = 99
-	mustImport(t, s, []importers.Entry{changed})
+	mustImport(t, s, []record.Entry{changed})
 	sameAsRebuilt(t, s, "part updated")
 	if _, err := s.SetDrawer(ctx, "TEST:DCX-20", 3, "A1", false); err != nil {
 		t.Fatal(err)

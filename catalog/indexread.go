@@ -5,7 +5,7 @@ import (
 	"database/sql"
 	"fmt"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 	"cardinal/optics"
 )
 
@@ -151,11 +151,11 @@ func readQuantities(ctx context.Context, q querier) (map[int64]int, error) {
 
 // Entries reads the full prescriptions of the parts with these ids, from
 // the snapshot the index was read from, keyed by id.
-func (ix *Index) Entries(ctx context.Context, ids []int64) (map[int64]importers.Entry, error) {
+func (ix *Index) Entries(ctx context.Context, ids []int64) (map[int64]record.Entry, error) {
 	if ix.tx == nil {
 		panic("catalog: Index.Entries after Close")
 	}
-	out := make(map[int64]importers.Entry, len(ids))
+	out := make(map[int64]record.Entry, len(ids))
 	if len(ids) == 0 {
 		return out, nil
 	}

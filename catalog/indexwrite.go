@@ -4,7 +4,7 @@ import (
 	"context"
 	"database/sql"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 	"cardinal/optics"
 )
 
@@ -18,7 +18,7 @@ const indexRowSQL = "INSERT OR REPLACE INTO search_index (id_key, part_id, recor
 
 // writeIndexRow stores the record of part id, whose media must be those
 // of the catalog's glass table (catalogMedia).
-func writeIndexRow(ctx context.Context, tx *txWriter, id int64, e importers.Entry) error {
+func writeIndexRow(ctx context.Context, tx *txWriter, id int64, e record.Entry) error {
 	r := newIndexRecord(id, e)
 	_, err := tx.exec(ctx, indexRowSQL, e.Part.ID(), id, r.encode(nil))
 	return err

@@ -7,30 +7,30 @@ import (
 	"sort"
 	"strings"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 )
 
 // Part returns the full prescription of the part named SUPPLIER:PART (or
 // PART alone, when one supplier only has a part of that name). A name the
 // catalog does not hold gives a *NotFoundError that suggests close names.
-func (s *Store) Part(ctx context.Context, id string) (_ importers.Entry, err error) {
+func (s *Store) Part(ctx context.Context, id string) (_ record.Entry, err error) {
 	defer s.classify(&err)
 	tx, err := s.db.BeginTx(ctx, &sql.TxOptions{ReadOnly: true})
 	if err != nil {
-		return importers.Entry{}, err
+		return record.Entry{}, err
 	}
 	defer tx.Rollback()
 	pid, err := lookupPart(ctx, tx, id)
 	if err != nil {
-		return importers.Entry{}, err
+		return record.Entry{}, err
 	}
 	glasses, err := readGlassTable(ctx, tx)
 	if err != nil {
-		return importers.Entry{}, err
+		return record.Entry{}, err
 	}
 	entries, _, err := readEntries(ctx, tx, "p.id = ?", []any{pid}, glasses)
 	if err != nil {
-		return importers.Entry{}, err
+		return record.Entry{}, err
 	}
 	return entries[0], nil
 }

@@ -6,7 +6,7 @@ import (
 	"slices"
 	"testing"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 )
 
 func TestEditDistance(t *testing.T) {
@@ -62,7 +62,7 @@ func TestSuggest(t *testing.T) {
 func TestPart(t *testing.T) {
 	s := newStore(t)
 	mustImport(t, s, sampleEntries(t))
-	mustImport(t, s, []importers.Entry{lens(t, "OTHER", "PCX-50", 25.84, math.Inf(1), 5.3, 25.4, "517642")})
+	mustImport(t, s, []record.Entry{lens(t, "OTHER", "PCX-50", 25.84, math.Inf(1), 5.3, 25.4, "517642")})
 	for _, tc := range []struct {
 		name, id, want string
 		notFound       bool

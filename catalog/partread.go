@@ -7,7 +7,7 @@ import (
 	"math"
 	"sort"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 	"cardinal/optics"
 )
 
@@ -21,7 +21,7 @@ type querier interface {
 // ordered by supplier and part, with their media resolved in the catalog's
 // glass table and their stored warnings. All of it is read from one
 // snapshot of the catalog.
-func (s *Store) Entries(ctx context.Context, f Filter) (_ []importers.Entry, err error) {
+func (s *Store) Entries(ctx context.Context, f Filter) (_ []record.Entry, err error) {
 	defer s.classify(&err)
 	tx, err := s.db.BeginTx(ctx, &sql.TxOptions{ReadOnly: true})
 	if err != nil {
@@ -42,7 +42,7 @@ func (s *Store) Entries(ctx context.Context, f Filter) (_ []importers.Entry, err
 
 // readEntries reads the parts matching where (over p, c and d), their
 // surfaces and their warnings. ids[i] is the id of entries[i].
-func readEntries(ctx context.Context, q querier, where string, args []any, glasses optics.GlassTable) (entries []importers.Entry, ids []int64, err error) {
+func readEntries(ctx context.Context, q querier, where string, args []any, glasses optics.GlassTable) (entries []record.Entry, ids []int64, err error) {
 	entries, ids, err = readPartRows(ctx, q, where, args)
 	if err != nil {
 		return nil, nil, err
@@ -71,7 +71,7 @@ func readEntries(ctx context.Context, q querier, where string, args []any, glass
 
 // sortByID orders entries (and their ids with them) by supplier and part:
 // sorting here is cheaper than reading the parts in index order.
-func sortByID(entries []importers.Entry, ids []int64) {
+func sortByID(entries []record.Entry, ids []int64) {
 	order := make([]int, len(entries))
 	for i := range order {
 		order[i] = i
@@ -83,7 +83,7 @@ func sortByID(entries []importers.Entry, ids []int64) {
 		}
 		return pa.Name < pb.Name
 	})
-	e2 := make([]importers.Entry, len(entries))
+	e2 := make([]record.Entry, len(entries))
 	i2 := make([]int64, len(ids))
 	for i, o := range order {
 		e2[i], i2[i] = entries[o], ids[o]
@@ -92,7 +92,7 @@ func sortByID(entries []importers.Entry, ids []int64) {
 	copy(ids, i2)
 }
 
-func readPartRows(ctx context.Context, q querier, where string, args []any) ([]importers.Entry, []int64, error) {
+func readPartRows(ctx context.Context, q querier, where string, args []any) ([]record.Entry, []int64, error) {
 	// A migration before the tolerance columns existed (0005) may read
 	// parts too (the search index rebuild of 0002): they read as not stated.
 	var hasTols int
@@ -110,10 +110,10 @@ func readPartRows(ctx context.Context, q querier, where string, args []any) ([]i
 		return nil, nil, err
 	}
 	defer rows.Close()
-	var entries []importers.Entry
+	var entries []record.Entry
 	var ids []int64
 	for rows.Next() {
-		var e importers.Entry
+		var e record.Entry
 		var id int64
 		var efl, bfd, edge, wl, price, tEFL, tThick, tIndex, tRadius sql.NullFloat64
 		p := &e.Part
@@ -131,7 +131,7 @@ func readPartRows(ctx context.Context, q querier, where string, args []any) ([]i
 
 // readSurfaces fills in the surfaces, thicknesses and media of the parts
 // whose ids the subquery sub selects.
-func readSurfaces(ctx context.Context, q querier, sub string, args []any, entries []importers.Entry, index map[int64]int, glasses optics.GlassTable) error {
+func readSurfaces(ctx context.Context, q querier, sub string, args []any, entries []record.Entry, index map[int64]int, glasses optics.GlassTable) error {
 	rows, err := q.QueryContext(ctx, `SELECT part_id, idx, radius_mm, conic, a4, a6, a8, a10, a12, a14, a16,
 		thickness_mm, glass FROM surfaces WHERE part_id IN (`+sub+`) ORDER BY part_id, idx`, args...)
 	if err != nil {

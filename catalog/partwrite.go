@@ -4,6 +4,7 @@ import (
 	"context"
 	"math"
 
+	"cardinal/catalog/record"
 	"cardinal/importers"
 	"cardinal/optics"
 )
@@ -12,12 +13,12 @@ import (
 // into those the prescription gives (importers.ComputedWarnings, worked out
 // again when a glass changes) and the others, and its fingerprint.
 type storedEntry struct {
-	importers.Entry
+	record.Entry
 	other, computed []string
 	fingerprint     string
 }
 
-func newStoredEntry(e importers.Entry) storedEntry {
+func newStoredEntry(e record.Entry) storedEntry {
 	s := storedEntry{Entry: e, computed: importers.ComputedWarnings(e)}
 	s.other = otherWarnings(e.Warnings, s.computed)
 	s.fingerprint = fingerprint(e, s.other)

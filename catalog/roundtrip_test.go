@@ -5,6 +5,7 @@ import (
 	"math"
 	"testing"
 
+	"cardinal/catalog/record"
 	"cardinal/importers"
 	"cardinal/optics"
 )
@@ -12,7 +13,7 @@ import (
 // richEntries covers every stored field: aspheres, conics, stated values,
 // a user glass, a clear aperture, an air-spaced part, text with commas and
 // quotes. Invented test data.
-func richEntries(t *testing.T, table optics.GlassTable) []importers.Entry {
+func richEntries(t *testing.T, table optics.GlassTable) []record.Entry {
 	es := sampleEntries(t)
 	asph := lens(t, "TEST", "ASP-20", 11.66, math.Inf(1), 5, 15, "583594")
 	asph.Part.ClearAperture = 13.5
@@ -67,7 +68,7 @@ func TestExportImportRoundTrip(t *testing.T) {
 	}
 	mustImport(t, s2, back)
 	second, _ := s2.Entries(ctx, Filter{})
-	byID := map[string]importers.Entry{}
+	byID := map[string]record.Entry{}
 	for _, e := range orig {
 		byID[e.Part.ID()] = e
 	}
@@ -83,7 +84,7 @@ func TestExportImportRoundTrip(t *testing.T) {
 
 // entryDiff names the first stored field that differs, comparing media by
 // name and index.
-func entryDiff(a, b importers.Entry) string {
+func entryDiff(a, b record.Entry) string {
 	pa, pb := a.Part, b.Part
 	switch {
 	case pa.Supplier != pb.Supplier || pa.Name != pb.Name || pa.Description != pb.Description:

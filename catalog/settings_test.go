@@ -4,7 +4,7 @@ import (
 	"context"
 	"testing"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 	"cardinal/optics"
 )
 
@@ -38,7 +38,7 @@ func TestPartTolerancesStored(t *testing.T) {
 	s := newStore(t)
 	e := lens(t, "DEMO", "T1", 100, -100, 5, 25, "517642")
 	e.Tolerances = optics.Tolerances{EFLPct: 2, Index: 0.0005}
-	if _, err := s.Import(ctx, []importers.Entry{e}, false); err != nil {
+	if _, err := s.Import(ctx, []record.Entry{e}, false); err != nil {
 		t.Fatal(err)
 	}
 	back, err := s.Part(ctx, "DEMO:T1")
@@ -49,7 +49,7 @@ func TestPartTolerancesStored(t *testing.T) {
 		t.Errorf("read back %+v, want %+v", back.Tolerances, e.Tolerances)
 	}
 	e.Tolerances.EFLPct = 3
-	rep, err := s.Import(ctx, []importers.Entry{e}, false)
+	rep, err := s.Import(ctx, []record.Entry{e}, false)
 	if err != nil {
 		t.Fatal(err)
 	}

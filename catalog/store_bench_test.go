@@ -8,15 +8,15 @@ import (
 	"path/filepath"
 	"testing"
 
+	"cardinal/catalog/record"
 	"cardinal/catalog/synth"
-	"cardinal/importers"
 )
 
 // benchEntries draws n plano-convex and plano-concave parts with focal
 // lengths spread over 10 to 1000 mm (invented test data).
-func benchEntries(b *testing.B, n int) []importers.Entry {
+func benchEntries(b *testing.B, n int) []record.Entry {
 	rng := rand.New(rand.NewPCG(1, 2))
-	es := make([]importers.Entry, n)
+	es := make([]record.Entry, n)
 	for i := range es {
 		f := 10 * math.Pow(100, rng.Float64())
 		r := f * 0.517
@@ -24,7 +24,7 @@ func benchEntries(b *testing.B, n int) []importers.Entry {
 			r = -r
 		}
 		d := math.Min(50.8, 0.8*math.Abs(r)) // sag at the edge about 0.1 d
-		es[i] = importers.Entry{Part: lens(&testing.T{}, "BENCH", fmt.Sprintf("P-%06d", i), r, math.Inf(1), 1.5+0.15*d, d, "517642").Part}
+		es[i] = record.Entry{Part: lens(&testing.T{}, "BENCH", fmt.Sprintf("P-%06d", i), r, math.Inf(1), 1.5+0.15*d, d, "517642").Part}
 	}
 	return es
 }

@@ -9,7 +9,7 @@ import (
 	"strings"
 	"testing"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 	"cardinal/optics"
 )
 
@@ -34,20 +34,20 @@ func near(got, want, abs, rel float64) bool {
 
 // lens builds an entry for a singlet of the given glass (a name the
 // built-in glass table knows) in air.
-func lens(t *testing.T, supplier, name string, r1, r2, thick, diameter float64, glass string) importers.Entry {
+func lens(t *testing.T, supplier, name string, r1, r2, thick, diameter float64, glass string) record.Entry {
 	t.Helper()
 	m, err := optics.BuiltinGlasses().Lookup(glass)
 	if err != nil {
 		t.Fatal(err)
 	}
-	return importers.Entry{Part: optics.Part{Supplier: supplier, Name: name, Diameter: diameter,
+	return record.Entry{Part: optics.Part{Supplier: supplier, Name: name, Diameter: diameter,
 		Surfaces:  []optics.Surface{{Radius: r1}, {Radius: r2}},
 		Thickness: []float64{thick},
 		Media:     []optics.Medium{m}}}
 }
 
 // doublet builds a cemented doublet entry.
-func doublet(t *testing.T, supplier, name string, r1, r2, r3, t1, t2, diameter float64, g1, g2 string) importers.Entry {
+func doublet(t *testing.T, supplier, name string, r1, r2, r3, t1, t2, diameter float64, g1, g2 string) record.Entry {
 	t.Helper()
 	e := lens(t, supplier, name, r1, r2, t1, diameter, g1)
 	m, err := optics.BuiltinGlasses().Lookup(g2)
@@ -62,9 +62,9 @@ func doublet(t *testing.T, supplier, name string, r1, r2, r3, t1, t2, diameter f
 
 // sampleEntries is a small mixed catalog: positive and negative singlets,
 // a cemented doublet, two suppliers. Prescriptions are invented test data.
-func sampleEntries(t *testing.T) []importers.Entry {
+func sampleEntries(t *testing.T) []record.Entry {
 	inf := math.Inf(1)
-	es := []importers.Entry{
+	es := []record.Entry{
 		lens(t, "TEST", "PCX-50", 25.84, inf, 5.3, 25.4, "517642"),
 		lens(t, "TEST", "PCX-100", 51.68, inf, 3.6, 25.4, "517642"),
 		lens(t, "TEST", "DCX-20", 20.5, -20.5, 4, 12.7, "517642"),
@@ -81,7 +81,7 @@ func sampleEntries(t *testing.T) []importers.Entry {
 }
 
 // mustImport imports entries and fails the test on error.
-func mustImport(t *testing.T, s *Store, es []importers.Entry) ImportReport {
+func mustImport(t *testing.T, s *Store, es []record.Entry) ImportReport {
 	t.Helper()
 	rep, err := s.Import(ctx, es, false)
 	if err != nil {

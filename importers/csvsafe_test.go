@@ -4,6 +4,8 @@ import (
 	"bytes"
 	"encoding/csv"
 	"testing"
+
+	"cardinal/catalog/record"
 )
 
 // The cases follow OWASP, "CSV Injection": cells beginning with = + - @,
@@ -73,7 +75,7 @@ func TestSafeCSVRoundTrip(t *testing.T) {
 // formula gets a quote (OWASP, "CSV Injection") and the reader takes it
 // away.
 func TestNeutralisedFilesReadBack(t *testing.T) {
-	items := []DrawerItem{{Supplier: "=1+1", Part: "-2+3", Quantity: 2, Location: "@SUM(A1)"},
+	items := []record.DrawerItem{{Supplier: "=1+1", Part: "-2+3", Quantity: 2, Location: "@SUM(A1)"},
 		{Supplier: "LAB", Part: "PCX-50", Quantity: 1, Location: "B2"}}
 	var b bytes.Buffer
 	if err := WriteDrawer(&b, items); err != nil {

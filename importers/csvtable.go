@@ -21,13 +21,13 @@ type table struct {
 	// headerOK is false when the header is missing or wrong; the rows are
 	// then checked for syntax and encoding only.
 	headerOK bool
-	rows     []record
+	rows     []rawRow
 	errs     FileErrors
 	warnings []LineError
 }
 
-// A record is one row of cells and the line it starts on.
-type record struct {
+// A rawRow is one row of cells and the line it starts on.
+type rawRow struct {
 	line  int
 	cells []string
 }
@@ -161,18 +161,18 @@ func (t *table) addRow(line int, cells []string) {
 			break
 		}
 	}
-	t.rows = append(t.rows, record{line: line, cells: cells})
+	t.rows = append(t.rows, rawRow{line: line, cells: cells})
 }
 
 // A row reads the cells of one record by column name and collects what is
 // wrong with them.
 type row struct {
 	t    *table
-	rec  record
+	rec  rawRow
 	errs FileErrors
 }
 
-func (t *table) row(rec record) *row { return &row{t: t, rec: rec} }
+func (t *table) row(rec rawRow) *row { return &row{t: t, rec: rec} }
 
 // text is the trimmed cell of a column, "" when the column or cell is
 // absent, with the quote the spreadsheet-safe writer puts before a formula

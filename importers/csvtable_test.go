@@ -4,6 +4,8 @@ import (
 	"errors"
 	"strings"
 	"testing"
+
+	"cardinal/catalog/record"
 )
 
 // The CSV rules shared by every format (RFC 4180 via encoding/csv; DESIGN.md
@@ -12,27 +14,27 @@ func TestTableRules(t *testing.T) {
 	tests := []struct {
 		name     string
 		in       string
-		want     []DrawerItem
+		want     []record.DrawerItem
 		errs     []string
 		warnings []string
 	}{
 		{name: "comments, blank lines and free column order",
 			in:   "# my drawer\n\nquantity,part,supplier\n# a comment row\n3,PCX-50,DEMO\n\n",
-			want: []DrawerItem{{Supplier: "DEMO", Part: "PCX-50", Quantity: 3, Line: 5}}},
+			want: []record.DrawerItem{{Supplier: "DEMO", Part: "PCX-50", Quantity: 3, Line: 5}}},
 		{name: "byte-order mark and header case",
 			in:   "\uFEFFSupplier, PART ,Quantity\nDEMO,PCX-50,1\n",
-			want: []DrawerItem{{Supplier: "DEMO", Part: "PCX-50", Quantity: 1, Line: 2}}},
+			want: []record.DrawerItem{{Supplier: "DEMO", Part: "PCX-50", Quantity: 1, Line: 2}}},
 		{name: "quoted cells with commas, quotes and a line break",
 			in: "supplier,part,quantity,location\nDEMO,PCX-50,2,\"drawer \"\"B\"\",\nback row\"\nDEMO,PCX-25,1,A1\n",
-			want: []DrawerItem{{Supplier: "DEMO", Part: "PCX-50", Quantity: 2, Location: "drawer \"B\",\nback row", Line: 2},
+			want: []record.DrawerItem{{Supplier: "DEMO", Part: "PCX-50", Quantity: 2, Location: "drawer \"B\",\nback row", Line: 2},
 				{Supplier: "DEMO", Part: "PCX-25", Quantity: 1, Location: "A1", Line: 4}}},
 		{name: "unknown column warned and ignored",
 			in:       "supplier,part,quantity,colour\nDEMO,PCX-50,1,blue\n",
-			want:     []DrawerItem{{Supplier: "DEMO", Part: "PCX-50", Quantity: 1, Line: 2}},
+			want:     []record.DrawerItem{{Supplier: "DEMO", Part: "PCX-50", Quantity: 1, Line: 2}},
 			warnings: []string{"d.csv:1: colour: unknown column, ignored"}},
 		{name: "row of empty cells skipped",
 			in:   "supplier,part,quantity\n,,\nDEMO,PCX-50,1\n",
-			want: []DrawerItem{{Supplier: "DEMO", Part: "PCX-50", Quantity: 1, Line: 3}}},
+			want: []record.DrawerItem{{Supplier: "DEMO", Part: "PCX-50", Quantity: 1, Line: 3}}},
 		{name: "empty file", in: "",
 			errs: []string{"d.csv: no header line: the first line that is not a # comment must name the columns"}},
 		{name: "only comments", in: "# nothing\n",
@@ -87,7 +89,7 @@ func checkErrors(t *testing.T, err error, want []string) {
 	}
 }
 
-func equalDrawer(a, b []DrawerItem) bool {
+func equalDrawer(a, b []record.DrawerItem) bool {
 	if len(a) != len(b) {
 		return false
 	}

@@ -5,19 +5,9 @@ import (
 	"io"
 	"strconv"
 	"strings"
+
+	"cardinal/catalog/record"
 )
-
-// A DrawerItem is one row of a drawer CSV: how many of a part the user holds
-// and where.
-type DrawerItem struct {
-	Supplier, Part string
-	Quantity       int
-	Location       string // free text, such as "B2" or "cabinet 3, tray 1"
-	Line           int    // source line, 0 if none
-}
-
-// ID returns SUPPLIER:PART.
-func (d DrawerItem) ID() string { return d.Supplier + ":" + d.Part }
 
 var drawerSchema = schema{
 	known: func(name string) bool {
@@ -34,16 +24,16 @@ var drawerSchema = schema{
 // the rules of the prescription CSV for comments, quoting and header). A
 // quantity is a whole number >= 0. The error, when not nil, is a FileErrors
 // and the items are then nil.
-func ReadDrawer(r io.Reader, file string) ([]DrawerItem, error) {
+func ReadDrawer(r io.Reader, file string) ([]record.DrawerItem, error) {
 	f, err := ReadDrawerFile(r, file)
 	return f.Rows, err
 }
 
 // ReadDrawerFile is ReadDrawer with the file's own warnings.
-func ReadDrawerFile(r io.Reader, file string) (File[DrawerItem], error) {
+func ReadDrawerFile(r io.Reader, file string) (File[record.DrawerItem], error) {
 	t := readTable(r, file, drawerSchema)
 	errs := t.errs
-	var out []DrawerItem
+	var out []record.DrawerItem
 	seen := map[string]int{}
 	for _, rec := range t.rows {
 		if !t.headerOK {
@@ -61,13 +51,13 @@ func ReadDrawerFile(r io.Reader, file string) (File[DrawerItem], error) {
 	}
 	if len(errs) > 0 {
 		sortErrors(errs)
-		return File[DrawerItem]{Warnings: t.warnings}, errs
+		return File[record.DrawerItem]{Warnings: t.warnings}, errs
 	}
-	return File[DrawerItem]{Rows: out, Warnings: t.warnings}, nil
+	return File[record.DrawerItem]{Rows: out, Warnings: t.warnings}, nil
 }
 
-func parseDrawerRow(r *row) DrawerItem {
-	d := DrawerItem{Line: r.rec.line, Supplier: r.required("supplier"), Part: r.required("part"), Location: r.text("location")}
+func parseDrawerRow(r *row) record.DrawerItem {
+	d := record.DrawerItem{Line: r.rec.line, Supplier: r.required("supplier"), Part: r.required("part"), Location: r.text("location")}
 	if strings.HasPrefix(d.Supplier, "#") || strings.ContainsRune(d.Supplier, ':') {
 		r.fail("supplier", "%q may not start with # or hold a colon", d.Supplier)
 	}
@@ -83,7 +73,7 @@ func parseDrawerRow(r *row) DrawerItem {
 
 // WriteDrawer writes items as a drawer CSV that ReadDrawer reads back field
 // for field (the source line aside).
-func WriteDrawer(w io.Writer, items []DrawerItem) error {
+func WriteDrawer(w io.Writer, items []record.DrawerItem) error {
 	cw := NewSafeCSV(w) // cells a spreadsheet would run as formulas get a quote; the readers take it away
 	cw.Write([]string{"supplier", "part", "quantity", "location"})
 	for _, d := range items {

@@ -4,6 +4,8 @@ import (
 	"bytes"
 	"strings"
 	"testing"
+
+	"cardinal/catalog/record"
 )
 
 func TestReadDrawerErrors(t *testing.T) {
@@ -32,7 +34,7 @@ func TestReadDrawerErrors(t *testing.T) {
 }
 
 func TestDrawerRoundTrip(t *testing.T) {
-	want := []DrawerItem{
+	want := []record.DrawerItem{
 		{Supplier: "DEMO", Part: "PCX-50", Quantity: 3, Location: "B2"},
 		{Supplier: "FICTA", Part: "ASP-20", Quantity: 0, Location: "cabinet 3, tray \"1\""},
 	}

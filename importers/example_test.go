@@ -6,6 +6,7 @@ import (
 	"os"
 	"strings"
 
+	"cardinal/catalog/record"
 	"cardinal/importers"
 	"cardinal/optics"
 )
@@ -31,7 +32,7 @@ func ExampleWritePrescriptions() {
 		Surfaces:  []optics.Surface{optics.Sphere(25.84), optics.Sphere(math.Inf(1))},
 		Thickness: []float64{5.3},
 		Media:     []optics.Medium{glass}}
-	importers.WritePrescriptions(os.Stdout, []importers.Entry{{Part: pcx, StatedEFL: 49.98}})
+	importers.WritePrescriptions(os.Stdout, []record.Entry{{Part: pcx, StatedEFL: 49.98}})
 	// Output:
 	// supplier,part,description,diameter,clear_aperture,r1,r2,t1,glass1,efl,bfd,edge_thickness,stated_wavelength,price,currency,url,notes
 	// DEMO,PCX-50,,25.4,,25.84,inf,5.3,517642,49.98,,,,,,,

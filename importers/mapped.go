@@ -8,6 +8,7 @@ import (
 	"strconv"
 	"strings"
 
+	"cardinal/catalog/record"
 	"cardinal/optics"
 )
 
@@ -69,7 +70,7 @@ func (se SheetErrors) Error() string {
 // a preview only: a wrong sign convention makes some parts invalid and
 // others merely wrong, and the preview shows the second kind.
 type MappedFile struct {
-	Rows     []Entry
+	Rows     []record.Entry
 	Sheet    string
 	Warnings SheetErrors
 	// Sources maps a catalog field to the source column that fed it, or to
@@ -121,7 +122,7 @@ type mappedReader struct {
 	warnings  SheetErrors
 	unknown   map[string][]int // glass name as written -> rows
 	seen      map[string]int   // SUPPLIER:PART -> first row
-	entries   []Entry
+	entries   []record.Entry
 }
 
 func (rd *mappedReader) fail(row int, field, cell, format string, a ...any) {
@@ -333,7 +334,7 @@ func (rd *mappedReader) readRow(r srcRow) {
 		values[f] = mappedCell{srcCell: r.cell(i), field: f}
 	}
 	rc.convert(values, cells)
-	row := rd.table.row(record{line: r.n, cells: cells})
+	row := rd.table.row(rawRow{line: r.n, cells: cells})
 	e := parseEntry(row, rd.opt.Glasses)
 	if first, dup := rd.seen[e.Part.ID()]; dup && e.Part.Supplier != "" && e.Part.Name != "" {
 		row.fail("part", "%s is already in row %d; supplier and part together must be unique", e.Part.ID(), first)

@@ -10,6 +10,7 @@ import (
 
 	"github.com/xuri/excelize/v2"
 
+	"cardinal/catalog/record"
 	"cardinal/optics"
 )
 
@@ -59,7 +60,7 @@ var inventedGlass = map[string]string{
 }
 
 // demoEntries reads the demo catalog's neutral CSV.
-func demoEntries(t testing.TB) []Entry {
+func demoEntries(t testing.TB) []record.Entry {
 	t.Helper()
 	data, err := os.ReadFile("../testdata/demo/catalog.csv")
 	if err != nil {
@@ -114,7 +115,7 @@ func shapeOf(p optics.Part) string {
 // row merged across the top, an empty row, the header in row 3, lengths in
 // inches, radii as magnitudes with a shape column, flats as 0 or "Plano",
 // glasses by invented names.
-func demoSheetRows(entries []Entry) [][]any {
+func demoSheetRows(entries []record.Entry) [][]any {
 	rows := [][]any{{"Stock lenses (invented demo data)"}, {},
 		{"Maker", "Item No.", "Description", "Dia. (in)", "CA (in)", "R1 (in)", "R2 (in)", "R3 (in)", "CT 1 (in)", "CT 2 (in)",
 			"Material 1", "Material 2", "Shape", "EFL (in)", "BFL (in)", "ET (in)", "Price", "Link", "Remarks"}}
@@ -239,7 +240,7 @@ func TestReadMappedRoundTrip(t *testing.T) {
 // equal, lengths equal to a relative 1e-12 (an inch value times 25.4 may
 // differ from the mm value in the last bit), cardinal points both ways to
 // 1e-9 mm.
-func compareEntries(t *testing.T, g, w Entry) {
+func compareEntries(t *testing.T, g, w record.Entry) {
 	t.Helper()
 	id := w.Part.ID()
 	near := func(what string, a, b float64) {

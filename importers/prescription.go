@@ -10,6 +10,7 @@ import (
 	"strconv"
 	"strings"
 
+	"cardinal/catalog/record"
 	"cardinal/optics"
 )
 
@@ -61,16 +62,16 @@ func indexed(name, prefix string) (int, bool) {
 // entries are then nil. Each entry's Warnings hold ComputedWarnings;
 // warnings about the file as a whole (unknown columns) are dropped here and
 // returned by ReadPrescriptionFile.
-func ReadPrescriptions(r io.Reader, file string, glasses optics.GlassTable) ([]Entry, error) {
+func ReadPrescriptions(r io.Reader, file string, glasses optics.GlassTable) ([]record.Entry, error) {
 	f, err := ReadPrescriptionFile(r, file, glasses)
 	return f.Rows, err
 }
 
 // ReadPrescriptionFile is ReadPrescriptions with the file's own warnings.
-func ReadPrescriptionFile(r io.Reader, file string, glasses optics.GlassTable) (File[Entry], error) {
+func ReadPrescriptionFile(r io.Reader, file string, glasses optics.GlassTable) (File[record.Entry], error) {
 	t := readTable(r, file, prescriptionSchema)
 	errs := t.errs
-	var entries []Entry
+	var entries []record.Entry
 	seen := map[string]int{}
 	for _, rec := range t.rows {
 		if !t.headerOK {
@@ -92,15 +93,15 @@ func ReadPrescriptionFile(r io.Reader, file string, glasses optics.GlassTable) (
 	}
 	if len(errs) > 0 {
 		sortErrors(errs)
-		return File[Entry]{Warnings: t.warnings}, errs
+		return File[record.Entry]{Warnings: t.warnings}, errs
 	}
-	return File[Entry]{Rows: entries, Warnings: t.warnings}, nil
+	return File[record.Entry]{Rows: entries, Warnings: t.warnings}, nil
 }
 
 // parseEntry reads one row; the row collects what is wrong. The part is
 // validated (optics.Part.Validate) only when every cell parsed.
-func parseEntry(r *row, glasses optics.GlassTable) Entry {
-	e := Entry{Line: r.rec.line}
+func parseEntry(r *row, glasses optics.GlassTable) record.Entry {
+	e := record.Entry{Line: r.rec.line}
 	p := &e.Part
 	p.Supplier = r.required("supplier")
 	if strings.ContainsRune(p.Supplier, ':') {
@@ -243,7 +244,7 @@ func parseGlass(r *row, c string, n int, glasses optics.GlassTable) optics.Mediu
 }
 
 // parseStated reads the supplier's stated values and the purchase fields.
-func parseStated(r *row, e *Entry) {
+func parseStated(r *row, e *record.Entry) {
 	if v, ok := r.number("efl"); ok && v == 0 {
 		r.fail("efl", "0 is not a focal length; leave the cell empty when not stated")
 	} else {
@@ -267,7 +268,7 @@ func parseStated(r *row, e *Entry) {
 // cells are not stated): efl_tolerance and radius_tolerance in percent (a
 // trailing % allowed), thickness_tolerance in mm, index_tolerance a plain
 // number.
-func parseTolerances(r *row, e *Entry) {
+func parseTolerances(r *row, e *record.Entry) {
 	pct := func(col string) float64 {
 		s := strings.TrimSpace(strings.TrimSuffix(r.text(col), "%"))
 		if s == "" {

@@ -6,12 +6,13 @@ import (
 	"strings"
 	"testing"
 
+	"cardinal/catalog/record"
 	"cardinal/optics"
 )
 
 const header = "supplier,part,diameter,r1,r2,t1,glass1"
 
-func read(t *testing.T, csv string) ([]Entry, error) {
+func read(t *testing.T, csv string) ([]record.Entry, error) {
 	t.Helper()
 	return ReadPrescriptions(strings.NewReader(csv), "lenses.csv", optics.BuiltinGlasses())
 }

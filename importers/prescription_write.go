@@ -6,6 +6,7 @@ import (
 	"io"
 	"strings"
 
+	"cardinal/catalog/record"
 	"cardinal/optics"
 )
 
@@ -17,7 +18,7 @@ import (
 // that uses them, tolerance columns only when some entry states one.
 // Glasses are written by name, so the reader's glass table
 // must know every glass the entries use.
-func WritePrescriptions(w io.Writer, entries []Entry) error {
+func WritePrescriptions(w io.Writer, entries []record.Entry) error {
 	n, nConic, nAsph := 2, 0, 0
 	for _, e := range entries {
 		if err := checkShape(e.Part); err != nil {
@@ -94,7 +95,7 @@ func prescriptionHeader(n, nConic, nAsph int) []string {
 	return append(h, "efl", "bfd", "edge_thickness", "stated_wavelength", "price", "currency", "url", "notes")
 }
 
-func prescriptionRow(e Entry, n, nConic, nAsph int) []string {
+func prescriptionRow(e record.Entry, n, nConic, nAsph int) []string {
 	p := e.Part
 	row := []string{p.Supplier, p.Name, p.Description, formatFloat(p.Diameter), optionalFloat(p.ClearAperture)}
 	surface := func(i int) (optics.Surface, bool) {

@@ -9,11 +9,12 @@ import (
 	"strings"
 	"testing"
 
+	"cardinal/catalog/record"
 	"cardinal/optics"
 )
 
 // roundTrip writes entries and reads them back.
-func roundTrip(t *testing.T, entries []Entry) []Entry {
+func roundTrip(t *testing.T, entries []record.Entry) []record.Entry {
 	t.Helper()
 	var buf bytes.Buffer
 	if err := WritePrescriptions(&buf, entries); err != nil {
@@ -27,7 +28,7 @@ func roundTrip(t *testing.T, entries []Entry) []Entry {
 }
 
 // sameEntries compares field for field, except the source line.
-func sameEntries(t *testing.T, got, want []Entry) {
+func sameEntries(t *testing.T, got, want []record.Entry) {
 	t.Helper()
 	if len(got) != len(want) {
 		t.Fatalf("got %d entries, want %d", len(got), len(want))
@@ -60,7 +61,7 @@ func TestRoundTripRandom(t *testing.T) {
 	glasses := []string{"517642", "620364", "fused-silica", "caf2", "sapphire"}
 	texts := []string{"", "plain", "comma, inside", `quote " inside`, "two\nlines", "µm and ° signs", "# not a comment"}
 	table := optics.BuiltinGlasses()
-	var entries []Entry
+	var entries []record.Entry
 	for i := range 200 {
 		n := 2 + rng.IntN(MaxSurfaces-1)
 		p := optics.Part{Supplier: "S" + formatFloat(float64(i%7)), Name: "P" + formatFloat(float64(i)),
@@ -88,7 +89,7 @@ func TestRoundTripRandom(t *testing.T) {
 		if err := p.Validate(); err != nil {
 			continue // a random shape too thin at the edge
 		}
-		e := Entry{Part: p, Price: math.Round(1000*rng.Float64()) / 100, Currency: "XTS",
+		e := record.Entry{Part: p, Price: math.Round(1000*rng.Float64()) / 100, Currency: "XTS",
 			URL: "https://demo.example.com/" + p.Name, Notes: texts[rng.IntN(len(texts))]}
 		if rng.IntN(3) == 0 {
 			e.StatedWavelength = 400 + 300*rng.Float64()
@@ -125,7 +126,7 @@ func TestWritePrescriptionsRefuses(t *testing.T) {
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
-			err := WritePrescriptions(&bytes.Buffer{}, []Entry{{Part: tc.part}})
+			err := WritePrescriptions(&bytes.Buffer{}, []record.Entry{{Part: tc.part}})
 			if err == nil || err.Error() != tc.want {
 				t.Errorf("got %v, want %q", err, tc.want)
 			}

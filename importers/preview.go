@@ -1,12 +1,16 @@
 package importers
 
-import "math"
+import (
+	"math"
+
+	"cardinal/catalog/record"
+)
 
 // A PreviewRow is one entry as it will be stored, with its computed EFL
 // beside the stated one: how a wrong sign convention or unit in a mapping
 // shows itself before anything is written.
 type PreviewRow struct {
-	Entry Entry
+	Entry record.Entry
 	// Computed is the EFL in mm at the stated wavelength (587.6 nm when
 	// none is stated); Afocal is true when the prescription has no focus.
 	Computed float64
@@ -20,7 +24,7 @@ type PreviewRow struct {
 
 // Preview works out the computed EFL of each entry and compares it with the
 // stated one. Each entry's part must be valid.
-func Preview(entries []Entry) []PreviewRow {
+func Preview(entries []record.Entry) []PreviewRow {
 	out := make([]PreviewRow, len(entries))
 	for i, e := range entries {
 		wl := e.StatedWavelength

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 
+	"cardinal/catalog/record"
 	"cardinal/optics"
 )
 
@@ -21,7 +22,7 @@ const (
 // warns when a glass is used outside the range of its dispersion formula.
 // The catalog calls it again after a glass changes. e.Part must be valid
 // (optics.Part.Validate returns nil).
-func ComputedWarnings(e Entry) []string {
+func ComputedWarnings(e record.Entry) []string {
 	var w []string
 	wl := e.StatedWavelength
 	if wl == 0 {
@@ -49,7 +50,7 @@ func ComputedWarnings(e Entry) []string {
 // larger of itself and the EFL: a stated BFD near zero would otherwise be
 // judged to micrometres, while a 1 % error in focal length moves the focal
 // point by 1 % of the EFL.
-func focalWarnings(e Entry, c optics.Cardinal, wl float64) []string {
+func focalWarnings(e record.Entry, c optics.Cardinal, wl float64) []string {
 	var w []string
 	if c.Afocal {
 		if e.StatedEFL != 0 || e.StatedBFD != 0 {

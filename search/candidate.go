@@ -10,14 +10,14 @@ import (
 	"strings"
 	"sync"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 	"cardinal/optics"
 )
 
 // An Item is one catalog entry offered to the search, with the number of
 // pieces of it in the user's drawer.
 type Item struct {
-	Entry  importers.Entry
+	Entry  record.Entry
 	Drawer int
 }
 

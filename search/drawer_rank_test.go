@@ -4,7 +4,7 @@ import (
 	"strings"
 	"testing"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 	"cardinal/optics"
 )
 
@@ -14,7 +14,7 @@ import (
 // Hecht, Optics, 5th ed., eq. 6.2, every term a length).
 func scaled(name string, f float64, price float64, currency string, drawer int) Item {
 	p := lens(name, f, -f, 0.06*f, 1.5, 0.4*f)
-	return Item{Entry: importers.Entry{Part: p, Price: price, Currency: currency}, Drawer: drawer}
+	return Item{Entry: record.Entry{Part: p, Price: price, Currency: currency}, Drawer: drawer}
 }
 
 func partSet(r Result) string {

@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"math"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 	"cardinal/optics"
 	"cardinal/search"
 )
@@ -16,7 +16,7 @@ import (
 func ExampleFind() {
 	glass, _ := optics.GlassCode("517642")
 	pcx := func(name string) search.Item {
-		return search.Item{Entry: importers.Entry{Part: optics.Part{
+		return search.Item{Entry: record.Entry{Part: optics.Part{
 			Supplier: "EXAMPLE", Name: name, Diameter: 25.4,
 			Surfaces:  []optics.Surface{optics.Sphere(51.7), optics.Sphere(math.Inf(1))},
 			Thickness: []float64{4},

@@ -5,7 +5,7 @@ import (
 	"strings"
 	"testing"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 )
 
 // The same part twice needs two pieces: with --drawer-only and one piece
@@ -16,7 +16,7 @@ func TestDrawerOnlySamePartTwice(t *testing.T) {
 		pieces int
 		meets  bool
 	}{{1, false}, {2, true}} {
-		its := []Item{{Entry: importers.Entry{Part: pcx}, Drawer: tt.pieces}}
+		its := []Item{{Entry: record.Entry{Part: pcx}, Drawer: tt.pieces}}
 		req := focusReq(60)
 		req.DrawerOnly = true
 		out := mustFind(t, its, req)
@@ -42,7 +42,7 @@ func TestPartFilters(t *testing.T) {
 	b := lens("B", 51.7, -51.7, 4, 1.5168, 12.7)
 	c := lens("C", 51.7, -51.7, 4, 1.5168, 12.7)
 	c.Supplier = "OTHER"
-	its := []Item{{Entry: importers.Entry{Part: a}}, {Entry: importers.Entry{Part: b}}, {Entry: importers.Entry{Part: c}}}
+	its := []Item{{Entry: record.Entry{Part: a}}, {Entry: record.Entry{Part: b}}, {Entry: record.Entry{Part: c}}}
 	req := focusReq(50)
 	req.EFLTol = Tolerance{Value: 5, Percent: true}
 	req.Supplier, req.DiameterMax, req.Elements = "test", 20, 1

@@ -9,7 +9,6 @@ import (
 	"testing"
 
 	"cardinal/catalog/synth"
-	"cardinal/importers"
 )
 
 // findGrouped runs the search as the command line does: one row per set
@@ -147,5 +146,3 @@ func TestTwinsAreOneRow(t *testing.T) {
 		t.Errorf("no row names the twin: %+v", out.Results)
 	}
 }
-
-var _ = importers.Entry{}

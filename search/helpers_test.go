@@ -5,7 +5,7 @@ import (
 	"math"
 	"testing"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 	"cardinal/optics"
 )
 
@@ -41,7 +41,7 @@ func equiconvex(name string, f, t, diameter float64) optics.Part {
 func items(parts ...optics.Part) []Item {
 	out := make([]Item, len(parts))
 	for i, p := range parts {
-		out[i] = Item{Entry: importers.Entry{Part: p}}
+		out[i] = Item{Entry: record.Entry{Part: p}}
 	}
 	return out
 }

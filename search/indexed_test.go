@@ -8,8 +8,8 @@ import (
 	"testing"
 
 	"cardinal/catalog"
+	"cardinal/catalog/record"
 	"cardinal/catalog/synth"
-	"cardinal/importers"
 )
 
 // sameIndexed runs the pruned search on the catalog's search index and the
@@ -91,10 +91,10 @@ func TestIndexedEqualsExhaustiveRandom(t *testing.T) {
 		if _, err := st.Import(ctx, entries, false); err != nil {
 			t.Fatal(err)
 		}
-		var drawer []importers.DrawerItem
+		var drawer []record.DrawerItem
 		for _, e := range entries {
 			if q := []int{0, 0, 0, 1, 2}[rng.IntN(5)]; q > 0 {
-				drawer = append(drawer, importers.DrawerItem{Supplier: e.Part.Supplier, Part: e.Part.Name, Quantity: q})
+				drawer = append(drawer, record.DrawerItem{Supplier: e.Part.Supplier, Part: e.Part.Name, Quantity: q})
 			}
 		}
 		if _, err := st.ImportDrawer(ctx, drawer, false); err != nil {

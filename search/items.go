@@ -1,10 +1,12 @@
 package search
 
-import "cardinal/importers"
+import (
+	"cardinal/catalog/record"
+)
 
 // Items pairs catalog entries with their drawer quantities (keyed by
 // SUPPLIER:PART, as the catalog's Drawer returns them).
-func Items(entries []importers.Entry, drawer map[string]importers.DrawerItem) []Item {
+func Items(entries []record.Entry, drawer map[string]record.DrawerItem) []Item {
 	out := make([]Item, len(entries))
 	for i, e := range entries {
 		out[i] = Item{Entry: e, Drawer: drawer[e.Part.ID()].Quantity}

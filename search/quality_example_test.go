@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"math"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 	"cardinal/optics"
 	"cardinal/search"
 )
@@ -14,7 +14,7 @@ import (
 // rays rank the curved side toward the beam first.
 func ExampleFind_imageQuality() {
 	glass, _ := optics.GlassCode("517642")
-	pcx := search.Item{Entry: importers.Entry{Part: optics.Part{
+	pcx := search.Item{Entry: record.Entry{Part: optics.Part{
 		Supplier: "EXAMPLE", Name: "PCX-100", Diameter: 25.4,
 		Surfaces:  []optics.Surface{optics.Sphere(51.7), optics.Sphere(math.Inf(1))},
 		Thickness: []float64{4},

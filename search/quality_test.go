@@ -9,7 +9,7 @@ import (
 	"strings"
 	"testing"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 	"cardinal/optics"
 )
 
@@ -17,7 +17,7 @@ import (
 // (lensmaker's equation: 1/f = (n - 1)/R), plano side first as stored, so
 // that the curved side faces the beam only when it is reversed.
 func planoConvex() Item {
-	return Item{Entry: importers.Entry{Part: lens("PCX", math.Inf(1), -50, 4, 1.5, 25.4)}}
+	return Item{Entry: record.Entry{Part: lens("PCX", math.Inf(1), -50, 4, 1.5, 25.4)}}
 }
 
 // thinLensSpherical is the thin-lens third-order spherical aberration
@@ -80,7 +80,7 @@ func TestBestFormFromRealRays(t *testing.T) {
 		// Lensmaker's thin-lens form: c1 - c2 = 1/((n-1) f), B = (c1+c2)/(c1-c2).
 		dc := 1 / ((n - 1) * f)
 		c1, c2 := dc*(b+1)/2, dc*(b-1)/2
-		its = append(its, Item{Entry: importers.Entry{Part: lens(fmt.Sprintf("B%d", i), 1/c1, 1/c2, 2, n, 25.4)}})
+		its = append(its, Item{Entry: record.Entry{Part: lens(fmt.Sprintf("B%d", i), 1/c1, 1/c2, 2, n, 25.4)}})
 	}
 	req := focusReq(f)
 	req.EFLTol, req.Elements, req.Beam, req.Wavelength = Tolerance{Value: 3, Percent: true}, 1, 10, optics.LineD
@@ -147,7 +147,7 @@ func TestResultFigures(t *testing.T) {
 			}
 			p := lens("BK", 51.7, math.Inf(1), 4, 1.5, 25.4)
 			p.Media = []optics.Medium{glass}
-			out := mustFind(t, []Item{{Entry: importers.Entry{Part: p}}}, req)
+			out := mustFind(t, []Item{{Entry: record.Entry{Part: p}}}, req)
 			if len(out.Results) != 2 {
 				t.Fatalf("%d results", len(out.Results))
 			}
@@ -215,7 +215,7 @@ func TestFocalShiftIsAxialColour(t *testing.T) {
 	p.Media = []optics.Medium{glass}
 	req := focusReq(100)
 	req.EFLTol, req.Elements, req.Beam, req.Band = Tolerance{Value: 2, Percent: true}, 1, 10, []float64{optics.LineF, optics.LineD, optics.LineC}
-	out := mustFind(t, []Item{{Entry: importers.Entry{Part: p}}}, req)
+	out := mustFind(t, []Item{{Entry: record.Entry{Part: p}}}, req)
 	for _, r := range out.Results {
 		q := r.ImageQuality
 		checkNear(t, "focal shift um", *q.FocalShift, 1000*(*r.EFL)/64.2, 0, 0.05) // V = 64.2 from the glass code

@@ -6,13 +6,13 @@ import (
 	"reflect"
 	"testing"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 )
 
 // priced builds an item: a biconvex lens near 100 mm EFL of the given
 // centre thickness, price and drawer quantity.
 func priced(name string, t, price float64, drawer int) Item {
-	return Item{Entry: importers.Entry{Part: lens(name, 102, -102, t, 1.5, 20), Price: price, Currency: "XTS"}, Drawer: drawer}
+	return Item{Entry: record.Entry{Part: lens(name, 102, -102, t, 1.5, 20), Price: price, Currency: "XTS"}, Drawer: drawer}
 }
 
 // Each preference raises its own term and turns the order of two parts
@@ -54,7 +54,7 @@ func TestPreferShiftsRanking(t *testing.T) {
 // recomputed here from the result's own figures.
 func TestScoreIsDocumentedSum(t *testing.T) {
 	its := []Item{priced("A", 4, 10, 0), priced("B", 6, 30, 2), priced("C", 8, 0, 1)}
-	its = append(its, Item{Entry: importers.Entry{Part: lens("N", -150, 150, 2, 1.5, 20), Price: 20}})
+	its = append(its, Item{Entry: record.Entry{Part: lens("N", -150, 150, 2, 1.5, 20), Price: 20}})
 	req := focusReq(160)
 	req.EFLTol = Tolerance{Value: 40, Percent: true}
 	for _, p := range []Prefer{Balanced, PreferDraw, PreferShort, PreferCheap} {

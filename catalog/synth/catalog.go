@@ -4,7 +4,7 @@ import (
 	"math"
 	"math/rand/v2"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 )
 
 // Catalog returns n invented stock parts, the same for the same seed: a
@@ -13,7 +13,7 @@ import (
 // the demo (DEMO and TARNWICK), with part numbers unique across the catalog.
 // A draw that gives no sensible part is drawn again. The parts come in the
 // order drawn. n < 0 panics.
-func Catalog(seed uint64, n int) []importers.Entry {
+func Catalog(seed uint64, n int) []record.Entry {
 	if n < 0 {
 		panic("synth: Catalog needs n >= 0")
 	}
@@ -21,7 +21,7 @@ func Catalog(seed uint64, n int) []importers.Entry {
 	// is fixed by its algorithm, so catalogs do not change between releases.
 	src := rand.NewPCG(seed, 0x5eed_ca7a_1065)
 	d := drawer{src: src, used: map[string]int{}}
-	out := make([]importers.Entry, 0, n)
+	out := make([]record.Entry, 0, n)
 	for len(out) < n {
 		e, ok := d.next()
 		if ok {
@@ -52,7 +52,7 @@ var (
 )
 
 // next draws one spec; ok is false when it gives no sensible part.
-func (d *drawer) next() (importers.Entry, bool) {
+func (d *drawer) next() (record.Entry, bool) {
 	s := demoSupplier
 	if d.intn(2) == 1 {
 		s = tarnwick
@@ -69,13 +69,13 @@ func (d *drawer) next() (importers.Entry, bool) {
 		sp.Glass = singletGlasses[d.intn(len(singletGlasses))]
 	}
 	if !sensible(sp) {
-		return importers.Entry{}, false
+		return record.Entry{}, false
 	}
 	base := s.partName(sp)
 	id := s.name + ":" + base
 	e, err := s.entry(sp, base, d.used[id])
 	if err != nil {
-		return importers.Entry{}, false
+		return record.Entry{}, false
 	}
 	d.used[id]++
 	return e, true

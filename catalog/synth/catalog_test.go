@@ -5,7 +5,7 @@ import (
 	"reflect"
 	"testing"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 	"cardinal/optics"
 )
 
@@ -79,7 +79,7 @@ func kindOf(p optics.Part) string {
 // validates, and the EFL, BFD and edge thickness computed by optics agree
 // with the stated ones within the stock tolerances the reader applies
 // (1 % in focal length, 0.1 mm in edge; common practice).
-func checkEntry(t *testing.T, e importers.Entry) {
+func checkEntry(t *testing.T, e record.Entry) {
 	t.Helper()
 	p := e.Part
 	if err := p.Validate(); err != nil {

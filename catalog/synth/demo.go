@@ -5,7 +5,7 @@ import (
 	"math"
 	"math/rand/v2"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 	"cardinal/optics"
 )
 
@@ -52,8 +52,8 @@ var demoLines = []line{
 // With no keep entries it includes DEMO:PCX-50, the 50 mm plano-convex
 // lens of 25.4 mm in glass 517642 that the documentation uses as its
 // example part; the demo file keeps the DEMO parts of lenses.csv.
-func Demo(keep []importers.Entry) []importers.Entry {
-	out := append([]importers.Entry(nil), keep...)
+func Demo(keep []record.Entry) []record.Entry {
+	out := append([]record.Entry(nil), keep...)
 	for _, l := range demoLines {
 		for _, d := range l.diameters {
 			for _, f := range Series(l.r, l.lo, l.hi) {
@@ -77,7 +77,7 @@ func Demo(keep []importers.Entry) []importers.Entry {
 
 // repeats tells whether e is the same product as one of the kept entries,
 // or has the same part number.
-func repeats(e importers.Entry, keep []importers.Entry) bool {
+func repeats(e record.Entry, keep []record.Entry) bool {
 	for _, k := range keep {
 		if k.Part.ID() == e.Part.ID() || sameProduct(k.Part, e.Part) {
 			return true
@@ -120,13 +120,13 @@ func sign(v float64) int {
 // DemoDrawer returns the demo lab drawer: a few dozen parts of the demo
 // catalog with a quantity and a place ("B2": drawer B, slot 2), picked by a
 // fixed pseudo-random sequence, DEMO:PCX-50 first.
-func DemoDrawer(entries []importers.Entry) []importers.DrawerItem {
+func DemoDrawer(entries []record.Entry) []record.DrawerItem {
 	src := rand.NewPCG(2026, 0xd7a3e7)
-	var items []importers.DrawerItem
+	var items []record.DrawerItem
 	taken := map[string]bool{}
-	add := func(e importers.Entry) {
+	add := func(e record.Entry) {
 		n := len(items)
-		items = append(items, importers.DrawerItem{Supplier: e.Part.Supplier, Part: e.Part.Name,
+		items = append(items, record.DrawerItem{Supplier: e.Part.Supplier, Part: e.Part.Name,
 			Quantity: 1 + int(src.Uint64()%4), Location: fmt.Sprintf("%c%d", 'A'+n/8, 1+n%8)})
 		taken[e.Part.ID()] = true
 	}

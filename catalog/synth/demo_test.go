@@ -9,6 +9,7 @@ import (
 	"strings"
 	"testing"
 
+	"cardinal/catalog/record"
 	"cardinal/importers"
 	"cardinal/optics"
 )
@@ -60,10 +61,10 @@ func demoFiles(t *testing.T) (catalog, drawer, glasses []byte) {
 }
 
 // keptDemoParts reads the DEMO parts of the small demo file lenses.csv.
-func keptDemoParts(t *testing.T) []importers.Entry {
+func keptDemoParts(t *testing.T) []record.Entry {
 	t.Helper()
 	entries := readCatalog(t, "lenses.csv")
-	var keep []importers.Entry
+	var keep []record.Entry
 	for _, e := range entries {
 		if e.Part.Supplier == demoSupplier.name {
 			e.Line, e.Warnings = 0, nil
@@ -73,7 +74,7 @@ func keptDemoParts(t *testing.T) []importers.Entry {
 	return keep
 }
 
-func readCatalog(t *testing.T, name string) []importers.Entry {
+func readCatalog(t *testing.T, name string) []record.Entry {
 	t.Helper()
 	f, err := os.Open(filepath.Join(demoDir, name))
 	if err != nil {
@@ -155,7 +156,7 @@ func TestDemoCatalog(t *testing.T) {
 // TestDemoKeepsExamplePart checks that DEMO:PCX-50, the example part of the
 // documentation, has the same prescription in catalog.csv as in lenses.csv.
 func TestDemoKeepsExamplePart(t *testing.T) {
-	find := func(entries []importers.Entry) importers.Entry {
+	find := func(entries []record.Entry) record.Entry {
 		for _, e := range entries {
 			if e.Part.ID() == "DEMO:PCX-50" {
 				e.Line = 0
@@ -163,7 +164,7 @@ func TestDemoKeepsExamplePart(t *testing.T) {
 			}
 		}
 		t.Fatal("no DEMO:PCX-50")
-		return importers.Entry{}
+		return record.Entry{}
 	}
 	a, b := find(readCatalog(t, "lenses.csv")), find(readCatalog(t, "catalog.csv"))
 	if !reflect.DeepEqual(a, b) {

@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"math"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 	"cardinal/optics"
 )
 
@@ -32,11 +32,11 @@ var kindText = [numKinds]string{"Plano-convex lens", "Biconvex lens", "Best-form
 // plus a variant suffix, and fills in what the supplier states about it.
 // variant 0 is the uncoated part; 1-3 the coated ones; from 4 on the
 // coatings repeat as later revisions with their own part numbers.
-func (s supplier) entry(sp Spec, base string, variant int) (importers.Entry, error) {
+func (s supplier) entry(sp Spec, base string, variant int) (record.Entry, error) {
 	sp.ClearAperture = s.clearAperture(sp.Diameter)
 	p, err := Design(sp)
 	if err != nil {
-		return importers.Entry{}, err
+		return record.Entry{}, err
 	}
 	coat := coatings[variant%len(coatings)]
 	p.Supplier = s.name
@@ -49,9 +49,9 @@ func (s supplier) entry(sp Spec, base string, variant int) (importers.Entry, err
 	c := p.System(nil, nil).Cardinal(optics.LineD)
 	edge, err := p.EdgeThickness()
 	if err != nil {
-		return importers.Entry{}, err
+		return record.Entry{}, err
 	}
-	return importers.Entry{Part: p, StatedEFL: sp.EFL, StatedBFD: stated(c.BFD()),
+	return record.Entry{Part: p, StatedEFL: sp.EFL, StatedBFD: stated(c.BFD()),
 		StatedEdge: roundTo(edge, 0.01), Price: s.price(sp, variant%len(coatings) != 0),
 		Currency: Currency, URL: s.site + p.Name, Notes: Notes}, nil
 }

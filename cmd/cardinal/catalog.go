@@ -1,6 +1,7 @@
 package main
 
 import (
+	"cardinal/catalog/record"
 	"cardinal/search/present"
 
 	"bytes"
@@ -469,7 +470,7 @@ func runCatalogExport(o *catalogExportOptions) error {
 
 // noteUserGlasses reminds, on stderr, that the export names glasses of the
 // user's own, which a catalog must know before it imports the file.
-func noteUserGlasses(e *env, entries []importers.Entry, user []importers.Glass) {
+func noteUserGlasses(e *env, entries []record.Entry, user []importers.Glass) {
 	mine := map[string]bool{}
 	for _, g := range user {
 		mine[strings.ToLower(g.Name)] = true

@@ -13,7 +13,7 @@ import (
 	"github.com/spf13/cobra"
 
 	"cardinal/catalog"
-	"cardinal/importers"
+	"cardinal/catalog/record"
 )
 
 // addDBFlag adds the persistent --db flag every command reads.
@@ -189,13 +189,13 @@ func readInputFile(name string, e *env) ([]byte, error) {
 // catalogEntries reads the named parts (SUPPLIER:PART, or PART alone when
 // one supplier has it) from the catalog opened for reading, in the order
 // given; every name the catalog lacks is reported with close names.
-func catalogEntries(flag string, e *env, ids []string) ([]importers.Entry, error) {
+func catalogEntries(flag string, e *env, ids []string) ([]record.Entry, error) {
 	s, err := openForRead(flag, e)
 	if err != nil {
 		return nil, err
 	}
 	defer s.Close()
-	var out []importers.Entry
+	var out []record.Entry
 	var missing []string
 	for _, id := range ids {
 		en, err := s.Part(context.Background(), id)

@@ -1,6 +1,7 @@
 package main
 
 import (
+	"cardinal/catalog/record"
 	"cardinal/search/present"
 
 	"bytes"
@@ -162,7 +163,7 @@ func runInspect(o *inspectOptions) error {
 
 // loadInspectEntries reads the parts to inspect: the --file, or the
 // built-in demo lenses when there is none.
-func loadInspectEntries(o *inspectOptions, glasses optics.GlassTable) ([]importers.Entry, error) {
+func loadInspectEntries(o *inspectOptions, glasses optics.GlassTable) ([]record.Entry, error) {
 	if len(o.CatalogParts) > 0 {
 		return catalogEntries(o.db, o.env, o.CatalogParts)
 	}
@@ -196,7 +197,7 @@ func loadInspectEntries(o *inspectOptions, glasses optics.GlassTable) ([]importe
 // SUPPLIER:PART exactly, then ignoring case, then PART alone when one
 // supplier has it. Every name that matches nothing is reported, with the
 // closest names in the file.
-func selectParts(entries []importers.Entry, names []string) ([]importers.Entry, error) {
+func selectParts(entries []record.Entry, names []string) ([]record.Entry, error) {
 	if len(names) == 0 {
 		return entries, nil
 	}
@@ -204,7 +205,7 @@ func selectParts(entries []importers.Entry, names []string) ([]importers.Entry, 
 	for i, e := range entries {
 		ids[i] = e.Part.ID()
 	}
-	var picked []importers.Entry
+	var picked []record.Entry
 	var missing []string
 	seen := map[int]bool{}
 	for _, n := range names {
@@ -359,7 +360,7 @@ type inspection struct {
 func (r inspection) id() string { return r.Supplier + ":" + r.Part }
 
 // inspect computes the figures of one entry.
-func inspect(e importers.Entry, reverse bool, wl float64, in, out optics.Medium) inspection {
+func inspect(e record.Entry, reverse bool, wl float64, in, out optics.Medium) inspection {
 	p := e.Part
 	if reverse {
 		p = p.Reversed()

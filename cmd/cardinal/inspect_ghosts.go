@@ -7,7 +7,7 @@ import (
 
 	"github.com/spf13/pflag"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 	"cardinal/optics"
 	"cardinal/search"
 	"cardinal/search/present"
@@ -75,7 +75,7 @@ type partGhosts struct {
 }
 
 // ghostsOf finds the ghost foci of a part in the given media.
-func (g ghostOptions) ghostsOf(e importers.Entry, reverse bool, req search.Requirement, in, out optics.Medium) partGhosts {
+func (g ghostOptions) ghostsOf(e record.Entry, reverse bool, req search.Requirement, in, out optics.Medium) partGhosts {
 	p := e.Part
 	if reverse {
 		p = p.Reversed()
@@ -96,7 +96,7 @@ func (g ghostOptions) ghostsOf(e importers.Entry, reverse bool, req search.Requi
 
 // writeGhosts prints the ghost foci of the parts, the notes that go with
 // them, and the laser cautions.
-func writeGhosts(o *inspectOptions, entries []importers.Entry, in, out optics.Medium) error {
+func writeGhosts(o *inspectOptions, entries []record.Entry, in, out optics.Medium) error {
 	req := o.Ghosts.requirement(o.Rays, o.Wavelength)
 	var all []partGhosts
 	t := ghostTable()

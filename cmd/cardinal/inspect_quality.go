@@ -1,6 +1,7 @@
 package main
 
 import (
+	"cardinal/catalog/record"
 	"cardinal/search/present"
 
 	"fmt"
@@ -9,7 +10,6 @@ import (
 
 	"github.com/spf13/pflag"
 
-	"cardinal/importers"
 	"cardinal/optics"
 	"cardinal/search"
 )
@@ -65,7 +65,7 @@ type rayNote struct{ text string }
 
 // judge traces the part (turned around when reverse) and fills the
 // inspection's figures, or adds a warning saying why it cannot be traced.
-func (ro rayOptions) judge(r *inspection, e importers.Entry, reverse bool, wl float64, in, out optics.Medium) {
+func (ro rayOptions) judge(r *inspection, e record.Entry, reverse bool, wl float64, in, out optics.Medium) {
 	if !ro.traces() {
 		return
 	}

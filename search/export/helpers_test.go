@@ -5,7 +5,7 @@ import (
 	"math"
 	"testing"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 	"cardinal/optics"
 	"cardinal/search"
 )
@@ -15,7 +15,7 @@ import (
 // cemented achromat in two six-digit glasses). They are fixtures, not
 // check values: the checks compare the drawing with the search's own
 // solution and with Snell's and Newton's equations.
-func testEntries(t *testing.T) []importers.Entry {
+func testEntries(t *testing.T) []record.Entry {
 	t.Helper()
 	crown, err := optics.GlassCode("517642")
 	if err != nil {
@@ -26,7 +26,7 @@ func testEntries(t *testing.T) []importers.Entry {
 		t.Fatal(err)
 	}
 	inf := math.Inf(1)
-	part := func(name string, d float64, radii, thick []float64, media ...optics.Medium) importers.Entry {
+	part := func(name string, d float64, radii, thick []float64, media ...optics.Medium) record.Entry {
 		p := optics.Part{Supplier: "TEST", Name: name, Diameter: d, Thickness: thick, Media: media}
 		for _, r := range radii {
 			p.Surfaces = append(p.Surfaces, optics.Sphere(r))
@@ -34,9 +34,9 @@ func testEntries(t *testing.T) []importers.Entry {
 		if err := p.Validate(); err != nil {
 			t.Fatalf("%s: %v", name, err)
 		}
-		return importers.Entry{Part: p, Price: 20, Currency: "XTS"}
+		return record.Entry{Part: p, Price: 20, Currency: "XTS"}
 	}
-	return []importers.Entry{
+	return []record.Entry{
 		part("PCX-100", 25.4, []float64{51.7, inf}, []float64{4}, crown),
 		part("PCX-50", 25.4, []float64{25.84, inf}, []float64{5.3}, crown),
 		part("BCC-50", 12.7, []float64{-51.7, 51.7}, []float64{2}, crown),
@@ -44,8 +44,8 @@ func testEntries(t *testing.T) []importers.Entry {
 	}
 }
 
-func entryMap(es []importers.Entry) map[string]importers.Entry {
-	m := map[string]importers.Entry{}
+func entryMap(es []record.Entry) map[string]record.Entry {
+	m := map[string]record.Entry{}
 	for _, e := range es {
 		m[e.Part.ID()] = e
 	}

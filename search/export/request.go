@@ -4,13 +4,13 @@ import (
 	"fmt"
 	"sort"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 	"cardinal/search"
 )
 
 // Stock is what the catalog and the drawer hold of one part.
 type Stock struct {
-	Entry    importers.Entry
+	Entry    record.Entry
 	InDrawer int    // pieces in the drawer
 	Location string // where they are
 }

@@ -9,7 +9,7 @@ import (
 	"strings"
 	"testing"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 	"cardinal/optics"
 	"cardinal/search"
 )
@@ -17,7 +17,7 @@ import (
 // stockOf makes a catalog entry for the request tests: only the fields a
 // request reads matter here.
 func stockOf(supplier, part, desc string, price float64, currency string, inDrawer int, where string) Stock {
-	return Stock{Entry: importers.Entry{Part: optics.Part{Supplier: supplier, Name: part, Description: desc},
+	return Stock{Entry: record.Entry{Part: optics.Part{Supplier: supplier, Name: part, Description: desc},
 		Price: price, Currency: currency}, InDrawer: inDrawer, Location: where}
 }
 

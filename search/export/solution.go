@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"math"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 	"cardinal/optics"
 	"cardinal/search"
 )
@@ -17,7 +17,7 @@ type Solution struct {
 	Result      search.Result
 	// Entries are the catalog entries of Result.Parts, in the same order,
 	// as stored (not turned around).
-	Entries []importers.Entry
+	Entries []record.Entry
 	// Parts are the parts as used: in light order, reversed where the
 	// result says so.
 	Parts []optics.Part
@@ -34,7 +34,7 @@ type Solution struct {
 // NewSolution rebuilds a result from the catalog entries, keyed by
 // SUPPLIER:PART. A part the catalog no longer holds, or a result that lacks
 // a distance its kind needs, is an error.
-func NewSolution(req search.Requirement, r search.Result, entries map[string]importers.Entry) (Solution, error) {
+func NewSolution(req search.Requirement, r search.Result, entries map[string]record.Entry) (Solution, error) {
 	s := Solution{Requirement: req, Result: r, ObjectZ: math.Inf(-1), ImageZ: math.NaN()}
 	if len(r.Parts) == 0 {
 		return Solution{}, fmt.Errorf("result %d lists no parts", r.Rank)

@@ -6,7 +6,7 @@ import (
 	"slices"
 
 	"cardinal/catalog"
-	"cardinal/importers"
+	"cardinal/catalog/record"
 	"cardinal/search"
 	"cardinal/search/export"
 )
@@ -31,9 +31,9 @@ type Picked struct {
 	Search  *Search
 	Results []search.Result // in the order asked
 	// Entries are the picked parts' prescriptions, by SUPPLIER:PART.
-	Entries map[string]importers.Entry
+	Entries map[string]record.Entry
 	// Drawer is the whole drawer, by SUPPLIER:PART.
-	Drawer map[string]importers.DrawerItem
+	Drawer map[string]record.DrawerItem
 }
 
 // Pick chooses results of the search by rank and reads their parts and the
@@ -44,7 +44,7 @@ func (b *Book) Pick(ctx context.Context, s *Search, ranks []int) (*Picked, error
 	if err != nil {
 		return nil, err
 	}
-	p := &Picked{Search: s, Results: rs, Entries: map[string]importers.Entry{}}
+	p := &Picked{Search: s, Results: rs, Entries: map[string]record.Entry{}}
 	for _, r := range rs {
 		for _, u := range r.Parts {
 			if _, ok := p.Entries[u.ID()]; ok {

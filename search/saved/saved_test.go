@@ -12,7 +12,7 @@ import (
 	"time"
 
 	"cardinal/catalog"
-	"cardinal/importers"
+	"cardinal/catalog/record"
 	"cardinal/optics"
 	"cardinal/search"
 )
@@ -21,20 +21,20 @@ var ctx = context.Background()
 
 // lens is a singlet of a six-digit glass code in air; prescriptions are
 // invented test data.
-func lens(t *testing.T, name string, r1, r2, thick float64) importers.Entry {
+func lens(t *testing.T, name string, r1, r2, thick float64) record.Entry {
 	t.Helper()
 	m, err := optics.BuiltinGlasses().Lookup("517642")
 	if err != nil {
 		t.Fatal(err)
 	}
-	return importers.Entry{Part: optics.Part{Supplier: "TEST", Name: name, Diameter: 25.4,
+	return record.Entry{Part: optics.Part{Supplier: "TEST", Name: name, Diameter: 25.4,
 		Surfaces: []optics.Surface{{Radius: r1}, {Radius: r2}}, Thickness: []float64{thick},
 		Media: []optics.Medium{m}}, Price: 20, Currency: "XTS"}
 }
 
-func testEntries(t *testing.T) []importers.Entry {
+func testEntries(t *testing.T) []record.Entry {
 	inf := math.Inf(1)
-	return []importers.Entry{
+	return []record.Entry{
 		lens(t, "PCX-50", 25.84, inf, 5.3),
 		lens(t, "PCX-100", 51.68, inf, 3.6),
 		lens(t, "PCX-200", 103.4, inf, 3),
@@ -55,7 +55,7 @@ func book(t *testing.T) (*Book, *catalog.Store, Search) {
 	if _, err := st.Import(ctx, es, false); err != nil {
 		t.Fatal(err)
 	}
-	if _, err := st.ImportDrawer(ctx, []importers.DrawerItem{{Supplier: "TEST", Part: "PCX-100", Quantity: 2, Location: "A1"}}, false); err != nil {
+	if _, err := st.ImportDrawer(ctx, []record.DrawerItem{{Supplier: "TEST", Part: "PCX-100", Quantity: 2, Location: "A1"}}, false); err != nil {
 		t.Fatal(err)
 	}
 	req := search.Defaults()
@@ -231,7 +231,7 @@ func TestRebuild(t *testing.T) {
 	// Thicken one picked part: the catalog changed since the search.
 	e := p.Entries[got.Results[0].Parts[0].ID()]
 	e.Part.Thickness = []float64{e.Part.Thickness[0] + 1}
-	if _, err := st.Import(ctx, []importers.Entry{e}, false); err != nil {
+	if _, err := st.Import(ctx, []record.Entry{e}, false); err != nil {
 		t.Fatal(err)
 	}
 	p, _ = b.Pick(ctx, got, []int{1})

@@ -1,4 +1,4 @@
-package importers
+package record
 
 import "cardinal/optics"
 
@@ -23,3 +23,15 @@ type Entry struct {
 	// stated EFL that differs from the computed one by more than 1 %.
 	Warnings []string
 }
+
+// A DrawerItem is one row of the user's drawer: how many of a part the user
+// holds and where.
+type DrawerItem struct {
+	Supplier, Part string
+	Quantity       int
+	Location       string // free text, such as "B2" or "cabinet 3, tray 1"
+	Line           int    // source line, 0 if none
+}
+
+// ID returns SUPPLIER:PART.
+func (d DrawerItem) ID() string { return d.Supplier + ":" + d.Part }
