@@ -122,6 +122,9 @@ func runPrepared(p *prepared, req Requirement, prune bool) (Outcome, error) {
 	if n := shownNote(out); n != "" {
 		out.Notes = append(out.Notes, n)
 	}
+	if n := arrangementsNote(out.Results); n != "" {
+		out.Notes = append(out.Notes, n)
+	}
 	if len(out.Results) == 0 {
 		out.Why = s.why(p)
 		out.Misses = nearMisses(p, req, prune)
@@ -324,6 +327,17 @@ func zeroNaN(v float64) float64 {
 		return 0
 	}
 	return v
+}
+
+// arrangementsNote explains the "+N" beside a row whose parts also meet
+// in other arrangements, when some row has them.
+func arrangementsNote(rs []Result) string {
+	for _, r := range rs {
+		if len(r.Arrangements) > 0 {
+			return "+N beside a row: the same parts also meet the requirement in N other arrangements (order, orientation or solved spacing); --arrangements lists each as its own row"
+		}
+	}
+	return ""
 }
 
 // shownNote says, when the list shown may not be every layout that

@@ -199,7 +199,7 @@ func spotLimit(rmsSpotUM, waistUM float64) string {
 func (f *LaserFigures) reason(kind Kind) string {
 	switch kind {
 	case Focus:
-		return fmt.Sprintf(", waist %.3g um", f.WaistRadius)
+		return fmt.Sprintf(", waist %.3g µm", f.WaistRadius)
 	case Expand:
 		if f.DivergenceRatio != nil {
 			return fmt.Sprintf(", divergence %.2gx the limit", *f.DivergenceRatio)

@@ -236,7 +236,7 @@ func GhostText(f *search.LaserFigures) string {
 	if g == nil {
 		return "none real"
 	}
-	s := "x" + Fixed(g.Concentration, 0) + " at " + Fixed(g.Z, 1) + " mm"
+	s := Fixed(g.Concentration, 0) + "x the beam's peak irradiance, " + Fixed(g.Z, 1) + " mm from the first vertex"
 	if len(g.Flags) > 0 {
 		s += " (" + strings.Join(g.Flags, ", ") + ")"
 	}
