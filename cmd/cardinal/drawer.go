@@ -2,6 +2,7 @@ package main
 
 import (
 	"cardinal/search/present"
+	"strconv"
 
 	"bytes"
 	"context"
@@ -74,16 +75,29 @@ type drawerSetOptions struct {
 func newDrawerSetCmd(e *env, run func(*drawerSetOptions) error) *cobra.Command {
 	o := &drawerSetOptions{env: e}
 	cmd := &cobra.Command{
-		Use:   "set SUPPLIER:PART --quantity N [--location L]",
+		Use:   "set SUPPLIER:PART [N] [--location L]",
 		Short: "Set how many of a part you have and where",
-		Example: `  cardinal drawer set DEMO:PCX-50 --quantity 3 --location B2
+		Long: `Set how many of a part you have and where. The quantity is the second
+argument or --quantity N; 0 when none are left.`,
+		Example: `  cardinal drawer set DEMO:PCX-50 3 --location B2
   cardinal drawer set DEMO:PCX-50 --quantity 0`,
-		Args: cobra.ExactArgs(1),
+		Args: cobra.RangeArgs(1, 2),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			o.DB, o.Part = dbFlag(cmd), args[0]
 			o.KeepLocation = !cmd.Flags().Changed("location")
-			if !cmd.Flags().Changed("quantity") {
-				return usageErrorf("give --quantity N (0 when none are left)")
+			given := cmd.Flags().Changed("quantity")
+			if len(args) == 2 {
+				n, err := strconv.Atoi(args[1])
+				switch {
+				case err != nil:
+					return usageErrorf("quantity %q: give a whole number >= 0 after the part name", args[1])
+				case given && n != o.Quantity:
+					return usageErrorf("quantity given twice (%d and --quantity %d): give one", n, o.Quantity)
+				}
+				o.Quantity, given = n, true
+			}
+			if !given {
+				return usageErrorf("give the quantity: cardinal drawer set %s N (0 when none are left)", args[0])
 			}
 			if o.Quantity < 0 {
 				return usageErrorf("--quantity %d: give a whole number >= 0", o.Quantity)
@@ -91,7 +105,7 @@ func newDrawerSetCmd(e *env, run func(*drawerSetOptions) error) *cobra.Command {
 			return run(o)
 		},
 	}
-	cmd.Flags().IntVar(&o.Quantity, "quantity", 0, "pieces at hand (0 when none are left)")
+	cmd.Flags().IntVar(&o.Quantity, "quantity", 0, "pieces at hand, the same as the second argument (0 when none are left)")
 	cmd.Flags().StringVar(&o.Location, "location", "", "where they are, such as B2 (default: keep the stored one)")
 	return cmd
 }

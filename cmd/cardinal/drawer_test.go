@@ -18,10 +18,14 @@ func TestDrawerSetFlags(t *testing.T) {
 		{"quantity and location", []string{"DEMO:PCX-50", "--quantity", "3", "--location", "B2"}, 3, "B2", false, ""},
 		{"quantity only keeps the location", []string{"DEMO:PCX-50", "--quantity", "0"}, 0, "", true, ""},
 		{"empty location clears it", []string{"DEMO:PCX-50", "--quantity", "1", "--location", ""}, 1, "", false, ""},
-		{"no quantity", []string{"DEMO:PCX-50"}, 0, "", false, "--quantity"},
+		{"quantity as the second argument", []string{"DEMO:PCX-50", "2", "--location", "A1"}, 2, "A1", false, ""},
+		{"the same quantity twice", []string{"DEMO:PCX-50", "2", "--quantity", "2"}, 2, "", true, ""},
+		{"two quantities", []string{"DEMO:PCX-50", "2", "--quantity", "3"}, 0, "", false, "given twice"},
+		{"second argument not a number", []string{"DEMO:PCX-50", "two"}, 0, "", false, "whole number"},
+		{"no quantity", []string{"DEMO:PCX-50"}, 0, "", false, "drawer set DEMO:PCX-50 N"},
 		{"negative", []string{"DEMO:PCX-50", "--quantity", "-1"}, 0, "", false, ">= 0"},
 		{"not a number", []string{"DEMO:PCX-50", "--quantity", "two"}, 0, "", false, "invalid argument"},
-		{"no part", []string{"--quantity", "1"}, 0, "", false, "accepts 1 arg"},
+		{"no part", []string{"--quantity", "1"}, 0, "", false, "accepts between 1 and 2 arg"},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			e, _, _ := storeEnv(t, nil)

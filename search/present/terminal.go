@@ -92,10 +92,9 @@ func newLayout(t Table) *layout {
 		l.cols = append(l.cols, i)
 		l.want[i], l.least[i] = widths(c.Heading())
 		for _, row := range t.Rows {
+			// A number is one word and never wraps; a price in two
+			// currencies wraps between them.
 			w, least := widths(row[i].Text)
-			if l.num[i] { // numbers never wrap; their heading may
-				least = w
-			}
 			l.want[i] = max(l.want[i], w)
 			l.least[i] = max(l.least[i], least)
 		}
@@ -256,11 +255,21 @@ func Wrap(s string, width int) string {
 func glue(words []string) []string {
 	var out []string
 	for _, w := range words {
-		if (w == "+" || w == "(reversed)") && len(out) > 0 {
+		if (w == "+" || w == "(reversed)" || currencyAfterAmount(out, w)) && len(out) > 0 {
 			out[len(out)-1] += " " + w
 			continue
 		}
 		out = append(out, w)
 	}
 	return out
+}
+
+// currencyAfterAmount is true for a currency code (three capital letters)
+// after an amount, which stay together: "12.50 XTS".
+func currencyAfterAmount(out []string, w string) bool {
+	if len(out) == 0 || len(w) != 3 || strings.ToUpper(w) != w || strings.ToLower(w) == w {
+		return false
+	}
+	last := out[len(out)-1]
+	return last[len(last)-1] >= '0' && last[len(last)-1] <= '9'
 }

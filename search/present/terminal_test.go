@@ -145,3 +145,22 @@ func TestWrap(t *testing.T) {
 		}
 	}
 }
+
+// A price in two currencies wraps between them, never between an amount
+// and its currency, so that a narrow terminal keeps the other columns.
+func TestPriceWrapsBetweenCurrencies(t *testing.T) {
+	tbl := Table{Columns: []Column{{Key: "rank", Label: "#"}, {Key: "price", Label: "price"}, {Key: "yield_pct", Label: "yield", Unit: "%"}}}
+	tbl.Add(Int(1), Cell{Text: "12.50 XTS + 21.00 XXX"}, Num(97, 0))
+	var b bytes.Buffer
+	fit, err := WriteTerminal(&b, tbl, 24)
+	if err != nil {
+		t.Fatal(err)
+	}
+	out := b.String()
+	if len(fit.Hidden) > 0 || !strings.Contains(out, "12.50 XTS +") || !strings.Contains(out, "21.00 XXX") || !strings.Contains(out, "97") {
+		t.Errorf("hidden %v:\n%s", fit.Hidden, out)
+	}
+	if got := maxLine(out); got > 24 {
+		t.Errorf("widest line %d > 24:\n%s", got, out)
+	}
+}
