@@ -20,18 +20,36 @@ type OpenError struct {
 func (e *OpenError) Error() string { return "catalog " + e.Path + " " + e.Reason }
 func (e *OpenError) Unwrap() error { return e.Err }
 
-// A NotFoundError names something the catalog does not hold and the
-// closest names it does hold.
+// A NotFoundError names something the catalog (or a file) does not hold
+// and the closest names it does hold.
 type NotFoundError struct {
 	What        string // "part", "search", "glass"
 	Name        string
 	Suggestions []string
+	// In is where the name was looked for: "" for the catalog, else a
+	// file name.
+	In string
+	// Ambiguous is true when Name (PART alone) names the parts of several
+	// suppliers, which Suggestions lists.
+	Ambiguous bool
+	// Hint says what to do when there is no suggestion.
+	Hint string
 }
 
 func (e *NotFoundError) Error() string {
-	msg := fmt.Sprintf("no %s %q in the catalog", e.What, e.Name)
-	if len(e.Suggestions) > 0 {
+	in := e.In
+	if in == "" {
+		in = "the catalog"
+	}
+	if e.Ambiguous {
+		return fmt.Sprintf("%s %q is in %s from %d suppliers; name one: %s", e.What, e.Name, in, len(e.Suggestions), strings.Join(e.Suggestions, ", "))
+	}
+	msg := fmt.Sprintf("no %s %q in %s", e.What, e.Name, in)
+	switch {
+	case len(e.Suggestions) > 0:
 		msg += "; did you mean " + strings.Join(e.Suggestions, ", ") + "?"
+	case e.Hint != "":
+		msg += "; " + e.Hint
 	}
 	return msg
 }

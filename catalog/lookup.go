@@ -35,42 +35,40 @@ func (s *Store) Part(ctx context.Context, id string) (_ record.Entry, err error)
 	return entries[0], nil
 }
 
-// lookupPart finds a part id by SUPPLIER:PART, or by PART alone when it
-// names the part of one supplier only.
+// lookupPart finds a part id by the part-name rules of ResolvePart:
+// SUPPLIER:PART as stored (the quick path, by the unique index), else
+// ignoring case, or PART alone when one supplier only has it.
 func lookupPart(ctx context.Context, q querier, id string) (int64, error) {
 	supplier, part := SplitID(strings.TrimSpace(id))
-	if supplier != "" {
-		return partID(ctx, q, supplier, part)
+	pid, err := exactPartID(ctx, q, supplier, part)
+	if err == nil || !errors.Is(err, sql.ErrNoRows) {
+		return pid, err
 	}
-	rows, err := q.QueryContext(ctx, "SELECT id FROM parts WHERE part = ?", part)
+	names, err := partNames(ctx, q)
 	if err != nil {
 		return 0, err
 	}
-	defer rows.Close()
-	var ids []int64
-	for rows.Next() {
-		var pid int64
-		if err := rows.Scan(&pid); err != nil {
-			return 0, err
-		}
-		ids = append(ids, pid)
-	}
-	if err := rows.Err(); err != nil {
+	i, err := ResolvePart(id, names, "")
+	if err != nil {
 		return 0, err
 	}
-	if len(ids) == 1 {
-		return ids[0], nil
-	}
-	return 0, notFound(ctx, q, id)
+	s, p := SplitID(names[i])
+	return exactPartID(ctx, q, s, p)
 }
 
-// partID finds a part id by supplier and part name, exactly.
+// partID finds a part id by supplier and part name, exactly (the rows of
+// a drawer file).
 func partID(ctx context.Context, q querier, supplier, part string) (int64, error) {
-	var pid int64
-	err := q.QueryRowContext(ctx, "SELECT id FROM parts WHERE supplier = ? AND part = ?", supplier, part).Scan(&pid)
+	pid, err := exactPartID(ctx, q, supplier, part)
 	if errors.Is(err, sql.ErrNoRows) {
 		return 0, notFound(ctx, q, supplier+":"+part)
 	}
+	return pid, err
+}
+
+func exactPartID(ctx context.Context, q querier, supplier, part string) (int64, error) {
+	var pid int64
+	err := q.QueryRowContext(ctx, "SELECT id FROM parts WHERE supplier = ? AND part = ?", supplier, part).Scan(&pid)
 	return pid, err
 }
 
@@ -80,7 +78,7 @@ func notFound(ctx context.Context, q querier, id string) error {
 	if err != nil {
 		return err
 	}
-	return &NotFoundError{What: "part", Name: id, Suggestions: Suggest(id, names, 5)}
+	return &NotFoundError{What: "part", Name: id, Suggestions: Suggest(id, names, maxSuggestions), Hint: partsHint}
 }
 
 // PartNames returns the name (SUPPLIER:PART) of every part, sorted: what
@@ -106,63 +104,4 @@ func partNames(ctx context.Context, q querier) ([]string, error) {
 		names = append(names, n)
 	}
 	return names, rows.Err()
-}
-
-// Suggest returns up to max names close to name: those within a few edits
-// of it (ignoring case, and ignoring the supplier when name has none or a
-// wrong one), or holding it, closest first.
-func Suggest(name string, names []string, max int) []string {
-	type scored struct {
-		name  string
-		score int
-	}
-	want := strings.ToLower(name)
-	_, wantPart := SplitID(want)
-	limit := 2 + len(want)/5
-	var hits []scored
-	for _, n := range names {
-		low := strings.ToLower(n)
-		_, part := SplitID(low)
-		score := min(editDistance(want, low), editDistance(wantPart, part)+1)
-		if len(wantPart) >= 3 && strings.Contains(part, wantPart) {
-			score = min(score, 1+len(part)-len(wantPart))
-		}
-		if score <= limit {
-			hits = append(hits, scored{n, score})
-		}
-	}
-	sort.Slice(hits, func(i, j int) bool {
-		if hits[i].score != hits[j].score {
-			return hits[i].score < hits[j].score
-		}
-		return hits[i].name < hits[j].name
-	})
-	var out []string
-	for i := 0; i < len(hits) && i < max; i++ {
-		out = append(out, hits[i].name)
-	}
-	return out
-}
-
-// editDistance is the Levenshtein distance between a and b, in bytes
-// (V. I. Levenshtein, Soviet Physics Doklady 10, 707 (1966); the two-row
-// dynamic programme of Wagner and Fischer, J. ACM 21, 168 (1974)).
-func editDistance(a, b string) int {
-	prev := make([]int, len(b)+1)
-	cur := make([]int, len(b)+1)
-	for j := range prev {
-		prev[j] = j
-	}
-	for i := 1; i <= len(a); i++ {
-		cur[0] = i
-		for j := 1; j <= len(b); j++ {
-			cost := 1
-			if a[i-1] == b[j-1] {
-				cost = 0
-			}
-			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
-		}
-		prev, cur = cur, prev
-	}
-	return prev[len(b)]
 }

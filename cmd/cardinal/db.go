@@ -186,31 +186,30 @@ func readInputFile(name string, e *env) ([]byte, error) {
 	return b, nil
 }
 
-// catalogEntries reads the named parts (SUPPLIER:PART, or PART alone when
-// one supplier has it) from the catalog opened for reading, in the order
-// given; every name the catalog lacks is reported with close names.
-func catalogEntries(flag string, e *env, ids []string) ([]record.Entry, error) {
+// catalogEntries reads the named parts from the catalog opened for
+// reading, in the order given, by the part-name rules of
+// catalog.ResolvePart (the same as inspect --file --part); every name the
+// catalog lacks is reported with close names.
+func catalogEntries(flag string, e *env, names []string) ([]record.Entry, error) {
 	s, err := openForRead(flag, e)
 	if err != nil {
 		return nil, err
 	}
 	defer s.Close()
-	var out []record.Entry
-	var missing []string
-	for _, id := range ids {
-		en, err := s.Part(context.Background(), id)
-		var nf *catalog.NotFoundError
-		switch {
-		case errors.As(err, &nf):
-			missing = append(missing, nf.Error())
-		case err != nil:
-			return nil, catalogError(err)
-		default:
-			out = append(out, en)
-		}
+	ctx := context.Background()
+	ids, err := s.PartNames(ctx)
+	if err != nil {
+		return nil, catalogError(err)
 	}
+	picked, missing := catalog.ResolveParts(names, ids, "")
 	if len(missing) > 0 {
-		return nil, notFoundErrorf("%s", strings.Join(missing, "\n"))
+		return nil, partsNotFound(missing)
+	}
+	out := make([]record.Entry, len(picked))
+	for i, j := range picked {
+		if out[i], err = s.Part(ctx, ids[j]); err != nil {
+			return nil, catalogError(err)
+		}
 	}
 	return out, nil
 }

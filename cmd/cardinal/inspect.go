@@ -1,7 +1,6 @@
 package main
 
 import (
-	"cardinal/catalog/record"
 	"cardinal/search/present"
 
 	"bytes"
@@ -11,13 +10,14 @@ import (
 	"io/fs"
 	"math"
 	"os"
-	"sort"
 	"strconv"
 	"strings"
 
 	"github.com/spf13/cobra"
 
 	"cardinal"
+	"cardinal/catalog"
+	"cardinal/catalog/record"
 	"cardinal/importers"
 	"cardinal/optics"
 	"cardinal/search"
@@ -143,7 +143,7 @@ func runInspect(o *inspectOptions) error {
 	if err != nil {
 		return err
 	}
-	if entries, err = selectParts(entries, o.Parts); err != nil {
+	if entries, err = selectParts(entries, o.Parts, o.fileName()); err != nil {
 		return err
 	}
 	if o.Ghosts.Ghosts {
@@ -161,17 +161,24 @@ func runInspect(o *inspectOptions) error {
 	return writeInspections(o.env, o.env.Out, o.Format, results)
 }
 
+// fileName is the name of the file the parts come from, for messages.
+func (o *inspectOptions) fileName() string {
+	if o.File == "" {
+		return "demo lenses.csv"
+	}
+	return o.File
+}
+
 // loadInspectEntries reads the parts to inspect: the --file, or the
 // built-in demo lenses when there is none.
 func loadInspectEntries(o *inspectOptions, glasses optics.GlassTable) ([]record.Entry, error) {
 	if len(o.CatalogParts) > 0 {
 		return catalogEntries(o.db, o.env, o.CatalogParts)
 	}
-	name := o.File
+	name := o.fileName()
 	var data []byte
 	var err error
-	if name == "" {
-		name = "demo lenses.csv"
+	if o.File == "" {
 		notef(o.env, "cardinal: no --file given: inspecting the built-in demo lenses (invented parts); use --file to read your own\n")
 		data, err = fs.ReadFile(cardinal.Demo, "testdata/demo/lenses.csv")
 	} else {
@@ -193,11 +200,10 @@ func loadInspectEntries(o *inspectOptions, glasses optics.GlassTable) ([]record.
 	return f.Rows, nil
 }
 
-// selectParts picks the named parts in the order asked, matching
-// SUPPLIER:PART exactly, then ignoring case, then PART alone when one
-// supplier has it. Every name that matches nothing is reported, with the
-// closest names in the file.
-func selectParts(entries []record.Entry, names []string) ([]record.Entry, error) {
+// selectParts picks the named parts of a file in the order asked, by the
+// catalog's part-name rules (catalog.ResolvePart), the same as for parts
+// named from the catalog.
+func selectParts(entries []record.Entry, names []string, file string) ([]record.Entry, error) {
 	if len(names) == 0 {
 		return entries, nil
 	}
@@ -205,116 +211,31 @@ func selectParts(entries []record.Entry, names []string) ([]record.Entry, error)
 	for i, e := range entries {
 		ids[i] = e.Part.ID()
 	}
-	var picked []record.Entry
-	var missing []string
-	seen := map[int]bool{}
-	for _, n := range names {
-		n = strings.TrimSpace(n)
-		i := findPart(ids, n)
-		switch {
-		case i < 0:
-			missing = append(missing, notFoundLine(n, ids))
-		case !seen[i]:
-			seen[i] = true
-			picked = append(picked, entries[i])
-		}
+	picked, missing := catalog.ResolveParts(names, ids, file)
+	for _, nf := range missing {
+		nf.Hint = fmt.Sprintf("none of its %d parts is close; run without --part to list them", len(ids))
 	}
-	switch len(missing) {
-	case 0:
-		return picked, nil
-	case 1:
-		return nil, notFoundErrorf("%s", missing[0])
+	if len(missing) > 0 {
+		return nil, partsNotFound(missing)
 	}
-	return nil, notFoundErrorf("%d parts not found:\n  %s", len(missing), strings.Join(missing, "\n  "))
+	out := make([]record.Entry, len(picked))
+	for i, j := range picked {
+		out[i] = entries[j]
+	}
+	return out, nil
 }
 
-func findPart(ids []string, name string) int {
-	match := func(eq func(id string) bool) int {
-		found := -1
-		for i, id := range ids {
-			if eq(id) {
-				if found >= 0 {
-					return -1 // ambiguous
-				}
-				found = i
-			}
-		}
-		return found
+// partsNotFound is the error for part names that matched nothing: the
+// catalog's own error for one, all of them in one message for several.
+func partsNotFound(missing []*catalog.NotFoundError) error {
+	if len(missing) == 1 {
+		return missing[0]
 	}
-	if i := match(func(id string) bool { return id == name }); i >= 0 {
-		return i
+	lines := make([]string, len(missing))
+	for i, nf := range missing {
+		lines[i] = nf.Error()
 	}
-	if i := match(func(id string) bool { return strings.EqualFold(id, name) }); i >= 0 {
-		return i
-	}
-	return match(func(id string) bool {
-		_, part, _ := strings.Cut(id, ":")
-		return !strings.Contains(name, ":") && strings.EqualFold(part, name)
-	})
-}
-
-func notFoundLine(name string, ids []string) string {
-	close := closeNames(name, ids, 3)
-	if len(close) == 0 {
-		return fmt.Sprintf("no part %q among the %d parts; run without --part to list them", name, len(ids))
-	}
-	return fmt.Sprintf("no part %q; did you mean %s?", name, strings.Join(close, ", "))
-}
-
-// closeNames returns up to n names nearest to want by edit distance
-// (ignoring case, and to the part name alone when want has no supplier),
-// those that contain it first, none farther than a third of its length
-// (or 2).
-func closeNames(want string, names []string, n int) []string {
-	w := strings.ToLower(want)
-	type scored struct {
-		name string
-		d    int
-	}
-	var c []scored
-	for _, name := range names {
-		l := strings.ToLower(name)
-		d := editDistance(w, l)
-		if _, part, ok := strings.Cut(l, ":"); ok && !strings.Contains(w, ":") {
-			d = min(d, editDistance(w, part)) // PART alone, without its supplier
-		}
-		if strings.Contains(l, w) || strings.Contains(w, l) {
-			d = 0
-		}
-		if d <= max(2, len(w)/3) {
-			c = append(c, scored{name, d})
-		}
-	}
-	sort.SliceStable(c, func(i, j int) bool { return c[i].d < c[j].d })
-	var out []string
-	for i := 0; i < len(c) && i < n; i++ {
-		out = append(out, c[i].name)
-	}
-	return out
-}
-
-// editDistance is the Levenshtein distance between a and b, in runes
-// (V. I. Levenshtein, Soviet Physics Doklady 10, 707 (1966); the two-row
-// dynamic programme of Wagner and Fischer, J. ACM 21, 168 (1974)).
-func editDistance(a, b string) int {
-	ra, rb := []rune(a), []rune(b)
-	prev := make([]int, len(rb)+1)
-	cur := make([]int, len(rb)+1)
-	for j := range prev {
-		prev[j] = j
-	}
-	for i := 1; i <= len(ra); i++ {
-		cur[0] = i
-		for j := 1; j <= len(rb); j++ {
-			cost := 1
-			if ra[i-1] == rb[j-1] {
-				cost = 0
-			}
-			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
-		}
-		prev, cur = cur, prev
-	}
-	return prev[len(rb)]
+	return notFoundErrorf("%d parts not found:\n  %s", len(missing), strings.Join(lines, "\n  "))
 }
 
 // An inspection is the figures of one part at one wavelength. The JSON keys

@@ -59,3 +59,68 @@ func TestInspectCatalogPart(t *testing.T) {
 		})
 	}
 }
+
+// A part named from the catalog and the same part named with --file and
+// --part go through one resolver: the same part found, or the same
+// suggestions, for every kind of name.
+func TestInspectNamesResolveAlike(t *testing.T) {
+	db := filepath.Join(t.TempDir(), "c.db")
+	e, out, errb := storeEnv(t, map[string]string{"CARDINAL_DB": db})
+	file := writeFile(t, "p.csv", "supplier,part,diameter,r1,r2,t1,glass1\n"+
+		"LAB,PCX-500,25.4,258.4,inf,3.6,517642\n"+
+		"LAB,PCX-50,25.4,25.84,inf,5.3,517642\n"+
+		"BENCH,PCX-50,25.4,25.84,inf,5.3,517642\n"+
+		"BENCH,BCX-25,12.7,25.5,-25.5,3.0,517642\n")
+	if code := runCLI(e, "catalog", "import", file); code != 0 {
+		t.Fatalf("import: %s", errb)
+	}
+	// The words each source adds to a not-found message, taken away to
+	// compare what is left: the same names suggested in the same order.
+	plain := func(s string) string {
+		s = unwrapped(s)
+		s = strings.ReplaceAll(s, " in "+file, " in the catalog")
+		s = strings.ReplaceAll(s, "; none of its 4 parts is close; run without --part to list them", "")
+		return strings.ReplaceAll(s, "; 'cardinal catalog list' lists every part", "")
+	}
+	for _, tc := range []struct {
+		name, part string
+		code       int
+		found      string // SUPPLIER:PART found, "" if none
+		stderr     string // in the not-found message
+	}{
+		{"exact", "LAB:PCX-500", 0, "LAB:PCX-500", ""},
+		{"lower case", "lab:pcx-500", 0, "LAB:PCX-500", ""},
+		{"part alone, lower case", "pcx-500", 0, "LAB:PCX-500", ""},
+		{"part alone", "BCX-25", 0, "BENCH:BCX-25", ""},
+		{"two suppliers", "pcx-50", exitNotFound, "", "from 2 suppliers; name one: BENCH:PCX-50, LAB:PCX-50"},
+		{"typo", "LAB:PCX-5OO", exitNotFound, "", "did you mean LAB:PCX-50, LAB:PCX-500"},
+		{"wrong supplier", "BENCH:PCX-500", exitNotFound, "", "did you mean BENCH:PCX-50, LAB:PCX-500"},
+		{"nothing close", "ZZZZZZZZZZZZ", exitNotFound, "", `no part "ZZZZZZZZZZZZ" in the catalog`},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			var outs, errs [2]string
+			for i, args := range [][]string{
+				{"inspect", tc.part, "--format", "json"},
+				{"inspect", "--file", file, "--part", tc.part, "--format", "json"},
+			} {
+				if code := runCLI(e, args...); code != tc.code {
+					t.Fatalf("%v: exit %d, want %d: %s", args, code, tc.code, errb)
+				}
+				outs[i], errs[i] = out.String(), plain(errb.String())
+			}
+			if outs[0] != outs[1] || errs[0] != errs[1] {
+				t.Fatalf("catalog and file differ:\n%s%s\nagainst\n%s%s", outs[0], errs[0], outs[1], errs[1])
+			}
+			if !strings.Contains(errs[0], tc.stderr) {
+				t.Errorf("stderr %q, want %q in it", errs[0], tc.stderr)
+			}
+			if tc.found == "" {
+				return
+			}
+			var rows []map[string]any
+			if err := json.Unmarshal(out.Bytes(), &rows); err != nil || len(rows) != 1 || rows[0]["supplier"].(string)+":"+rows[0]["part"].(string) != tc.found {
+				t.Errorf("found %s (%v), want %s", out, err, tc.found)
+			}
+		})
+	}
+}

@@ -144,7 +144,7 @@ func TestInspectRaysAgainstFormulas(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	pcx, err := selectParts(entries, []string{"TEST:PCX"})
+	pcx, err := selectParts(entries, []string{"TEST:PCX"}, "test")
 	if err != nil {
 		t.Fatal(err)
 	}

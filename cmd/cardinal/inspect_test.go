@@ -307,27 +307,6 @@ func TestInspectFiniteAndNarrow(t *testing.T) {
 	}
 }
 
-func TestEditDistance(t *testing.T) {
-	tests := []struct {
-		a, b string
-		want int
-	}{
-		// Classic examples of the Levenshtein distance (common knowledge).
-		{"kitten", "sitting", 3},
-		{"flaw", "lawn", 2},
-		{"", "abc", 3},
-		{"same", "same", 0},
-		{"µm", "um", 1}, // counted in runes, not bytes
-	}
-	for _, tc := range tests {
-		t.Run(tc.a+"-"+tc.b, func(t *testing.T) {
-			if got := editDistance(tc.a, tc.b); got != tc.want {
-				t.Errorf("got %d, want %d", got, tc.want)
-			}
-		})
-	}
-}
-
 // The whole command line, as a user types it, on the built-in demo.
 func TestInspectCommandLine(t *testing.T) {
 	e, out, errb := testEnv()
