@@ -18,6 +18,11 @@
 // what the exhaustive search over every pair returns. Tests prove it on the
 // demo catalog and on random synthetic catalogs.
 //
+// Inspect (inspect.go) works out what `cardinal inspect` shows of one part:
+// every cardinal point, and with a RaySetting the real-ray figures under
+// the conditions it chooses (a collimated beam, or an object at a given
+// distance or at the -1x conjugate); InspectGhosts its ghost foci.
+//
 // Inputs are never modified. A wrong argument from the program panics with
 // a "search: " message; a bad requirement from a user is an error value.
 package search

@@ -45,11 +45,14 @@ func (r Requirement) MinCoupling() float64 {
 // embedded Gaussian of quality M^2: a waist of radius WaistIn lying
 // WaistInAt before the first vertex, or, without WaistIn, a collimated
 // beam of 1/e^2 diameter Beam with its waist at the first vertex.
-func (r Requirement) InputBeam() optics.GaussianBeam {
+func (r Requirement) InputBeam() optics.GaussianBeam { return r.inputBeamIn(1) }
+
+// inputBeamIn is InputBeam in a medium of index n.
+func (r Requirement) inputBeamIn(n float64) optics.GaussianBeam {
 	if r.WaistIn > 0 {
-		return optics.NewEmbeddedBeam(r.Lambda(), r.WaistIn, r.WaistInAt, 1, r.Quality())
+		return optics.NewEmbeddedBeam(r.Lambda(), r.WaistIn, r.WaistInAt, n, r.Quality())
 	}
-	return optics.NewEmbeddedBeam(r.Lambda(), r.Beam/2, 0, 1, r.Quality())
+	return optics.NewEmbeddedBeam(r.Lambda(), r.Beam/2, 0, n, r.Quality())
 }
 
 // BeamDiameter is the diameter of the beam at the first part that ray

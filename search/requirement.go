@@ -214,8 +214,14 @@ func (r Requirement) ChecksAperture() bool {
 // wavelength: plots, spots and the diffraction-limited verdict use the
 // requirement's wavelength alone unless a band is given.
 func (r Requirement) IsLaser() bool {
-	l := r.Lambda()
-	return r.Laser || r.Power > 0 || l < 400 || l > 700 || r.WaistIn > 0 || r.Kind == Match
+	return r.Laser || laserLight(r.Power, r.Lambda()) || r.WaistIn > 0 || r.Kind == Match
+}
+
+// laserLight tells whether light of a power (W, 0 when not given) and a
+// wavelength (nm) is to be treated as a laser: a power given, or a
+// wavelength outside the visible 400-700 nm (common practice).
+func laserLight(power, wavelength float64) bool {
+	return power > 0 || wavelength < 400 || wavelength > 700
 }
 
 // Validate rejects impossible or contradictory requirements before any

@@ -149,15 +149,17 @@ func runInspect(o *inspectOptions) error {
 	if o.Ghosts.Ghosts {
 		return writeGhosts(o, entries, in, out)
 	}
-	results := make([]inspection, len(entries))
+	set := search.InspectSetting{Reverse: o.Reverse, Wavelength: o.Wavelength, In: in, Out: out, Rays: o.Rays.setting()}
+	results := make([]search.Inspection, len(entries))
 	for i, e := range entries {
-		results[i] = inspect(e, o.Reverse, o.Wavelength, in, out)
-		o.Rays.judge(&results[i], e, o.Reverse, o.Wavelength, in, out)
+		results[i] = search.Inspect(e, set)
 		for _, w := range results[i].Warnings {
-			notef(o.env, "cardinal: warning: %s: %s\n", results[i].id(), w)
+			notef(o.env, "cardinal: warning: %s: %s\n", results[i].ID(), w)
 		}
 	}
-	o.Rays.printCautions(o.env, o.Wavelength)
+	if set.Rays.IsLaser(o.Wavelength) {
+		writeLaserCautions(o.env)
+	}
 	return writeInspections(o.env, o.env.Out, o.Format, results)
 }
 
@@ -238,86 +240,12 @@ func partsNotFound(missing []*catalog.NotFoundError) error {
 	return notFoundErrorf("%d parts not found:\n  %s", len(missing), strings.Join(lines, "\n  "))
 }
 
-// An inspection is the figures of one part at one wavelength. The JSON keys
-// are those of issue 2; focal quantities are null for an afocal part.
-type inspection struct {
-	Supplier             string   `json:"supplier"`
-	Part                 string   `json:"part"`
-	Reversed             bool     `json:"reversed"`
-	WavelengthNm         float64  `json:"wavelength_nm"`
-	LengthMm             float64  `json:"length_mm"`
-	EFLMm                *float64 `json:"efl_mm"`
-	FFrontMm             *float64 `json:"f_front_mm"`
-	FBackMm              *float64 `json:"f_back_mm"`
-	FFDMm                *float64 `json:"ffd_mm"`
-	BFDMm                *float64 `json:"bfd_mm"`
-	FocalMm              *float64 `json:"focal_mm"`
-	FocalPrimeMm         *float64 `json:"focal_prime_mm"`
-	PrincipalMm          *float64 `json:"principal_mm"`
-	PrincipalPrimeMm     *float64 `json:"principal_prime_mm"`
-	NodalMm              *float64 `json:"nodal_mm"`
-	NodalPrimeMm         *float64 `json:"nodal_prime_mm"`
-	AntiPrincipalMm      *float64 `json:"antiprincipal_mm"`
-	AntiPrincipalPrimeMm *float64 `json:"antiprincipal_prime_mm"`
-	AntiNodalMm          *float64 `json:"antinodal_mm"`
-	AntiNodalPrimeMm     *float64 `json:"antinodal_prime_mm"`
-	EdgeThicknessMm      float64  `json:"edge_thickness_mm"`
-	// Tolerances are the part's manufacturing tolerances: as stated, the
-	// program's defaults where not (StatedTolerances says which).
-	Tolerances       optics.Tolerances `json:"tolerances"`
-	StatedTolerances bool              `json:"tolerances_stated"`
-	Warnings         []string          `json:"warnings"`
-	// ImageQuality holds the real-ray figures, its keys inline; nil
-	// unless --beam or --na is given and the part can be traced.
-	*search.ImageQuality
-	rays        *rayNote // the real-ray setting, nil when none is asked
-	description string
-	diameter    float64
-	card        optics.Cardinal
-	media       []optics.Medium // object space, each gap, image space
-	indices     []float64
-}
-
-func (r inspection) id() string { return r.Supplier + ":" + r.Part }
-
-// inspect computes the figures of one entry.
-func inspect(e record.Entry, reverse bool, wl float64, in, out optics.Medium) inspection {
-	p := e.Part
-	if reverse {
-		p = p.Reversed()
-	}
-	sys := p.System(in, out)
-	c := sys.Cardinal(wl)
-	edge, err := p.EdgeThickness()
-	warnings := append([]string{}, e.Warnings...)
-	if err != nil {
-		warnings = append(warnings, fmt.Sprintf("edge thickness: %v", err))
-	}
-	warnings = append(warnings, sys.RangeWarnings(wl)...)
-	r := inspection{Supplier: p.Supplier, Part: p.Name, Reversed: reverse, WavelengthNm: wl,
-		LengthMm: c.Length, EdgeThicknessMm: edge, description: p.Description, diameter: p.Diameter,
-		card: c, media: append(append([]optics.Medium{in}, p.Media...), out), indices: sys.Indices(wl)}
-	if c.Afocal {
-		warnings = append(warnings, fmt.Sprintf("afocal at %s nm: angular magnification %.6g; the part has no focal, principal or nodal points", formatNm(wl), c.AngularMagnification))
-	} else {
-		v := func(x float64) *float64 { return &x }
-		r.EFLMm, r.FFrontMm, r.FBackMm = v(c.EFL), v(c.FFront), v(c.FBack)
-		r.FFDMm, r.BFDMm, r.FocalMm, r.FocalPrimeMm = v(c.F), v(c.FPrime), v(c.F), v(c.FPrime)
-		r.PrincipalMm, r.PrincipalPrimeMm, r.NodalMm, r.NodalPrimeMm = v(c.P), v(c.PPrime), v(c.N), v(c.NPrime)
-		r.AntiPrincipalMm, r.AntiPrincipalPrimeMm, r.AntiNodalMm, r.AntiNodalPrimeMm = v(c.AP), v(c.APPrime), v(c.AN), v(c.ANPrime)
-	}
-	r.Tolerances = e.Tolerances.Or(optics.DefaultTolerances)
-	r.StatedTolerances = e.Tolerances != (optics.Tolerances{})
-	r.Warnings = warnings
-	return r
-}
-
 func formatNm(wl float64) string { return strconv.FormatFloat(wl, 'g', -1, 64) }
 
 // writeInspections prints the results: JSON, one CSV row per part, or for
 // people (table, md) one "figure | value | unit" block per part, which reads
 // in 100 columns.
-func writeInspections(e *env, w io.Writer, format string, rs []inspection) error {
+func writeInspections(e *env, w io.Writer, format string, rs []search.Inspection) error {
 	switch format {
 	case "json":
 		return render(e, w, outputFlags{Format: format}, present.Table{}, rs)
@@ -340,24 +268,24 @@ func writeInspections(e *env, w io.Writer, format string, rs []inspection) error
 	return nil
 }
 
-func inspectionTitle(r inspection) string {
-	t := r.id()
+func inspectionTitle(r search.Inspection) string {
+	t := r.ID()
 	if r.Reversed {
 		t += " (reversed)"
 	}
-	if r.description != "" {
-		t += ": " + r.description
+	if r.Description != "" {
+		t += ": " + r.Description
 	}
-	t = fmt.Sprintf("%s\nat %s nm, object space %s, image space %s", t, formatNm(r.WavelengthNm), r.media[0].Name(), r.media[len(r.media)-1].Name())
-	if r.rays != nil {
-		t += "\n" + r.rays.text
+	t = fmt.Sprintf("%s\nat %s nm, object space %s, image space %s", t, formatNm(r.WavelengthNm), r.Media[0].Name(), r.Media[len(r.Media)-1].Name())
+	if r.RaySetting != "" {
+		t += "\n" + r.RaySetting
 	}
 	return t
 }
 
 // figureTable is the vertical layout of one part for people.
-func figureTable(r inspection) present.Table {
-	c := r.card
+func figureTable(r search.Inspection) present.Table {
+	c := r.Cardinal
 	var rows [][]string
 	add := func(figure, value, unit string) { rows = append(rows, []string{figure, value, unit}) }
 	const front, back = "mm from first vertex", "mm from last vertex"
@@ -381,16 +309,16 @@ func figureTable(r inspection) present.Table {
 		add("anti-nodal point, front", present.Fixed(c.AN, 3), front)
 		add("anti-nodal point, back", present.Fixed(c.ANPrime, 3), back)
 	}
-	add("edge thickness", present.Fixed(r.EdgeThicknessMm, 3), "mm at "+strconv.FormatFloat(r.diameter, 'g', -1, 64)+" mm diameter")
-	for i, m := range r.media {
+	add("edge thickness", present.Fixed(r.EdgeThicknessMm, 3), "mm at "+strconv.FormatFloat(r.Diameter, 'g', -1, 64)+" mm diameter")
+	for i, m := range r.Media {
 		where := fmt.Sprintf("index, surface %d to %d", i, i+1)
 		switch i {
 		case 0:
 			where = "index of object space"
-		case len(r.media) - 1:
+		case len(r.Media) - 1:
 			where = "index of image space"
 		}
-		add(where, present.Fixed(r.indices[i], 6), m.Name())
+		add(where, present.Fixed(r.Indices[i], 6), m.Name())
 	}
 	from := "default"
 	if r.StatedTolerances {
@@ -404,11 +332,11 @@ func figureTable(r inspection) present.Table {
 
 // inspectionTable is one row per part with the JSON keys as header;
 // numbers in full precision, empty for an afocal part's focal quantities.
-func inspectionTable(rs []inspection) present.Table {
+func inspectionTable(rs []search.Inspection) present.Table {
 	keys := []string{"supplier", "part", "reversed", "wavelength_nm", "length_mm", "efl_mm", "f_front_mm", "f_back_mm",
 		"ffd_mm", "bfd_mm", "focal_mm", "focal_prime_mm", "principal_mm", "principal_prime_mm", "nodal_mm", "nodal_prime_mm",
 		"antiprincipal_mm", "antiprincipal_prime_mm", "antinodal_mm", "antinodal_prime_mm", "edge_thickness_mm", "warnings"}
-	rays := len(rs) > 0 && rs[0].rays != nil
+	rays := len(rs) > 0 && rs[0].RaySetting != ""
 	if rays {
 		keys = append(keys, qualityKeys...)
 	}

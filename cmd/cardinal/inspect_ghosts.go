@@ -64,44 +64,14 @@ func (g ghostOptions) requirement(ro rayOptions, wl float64) search.Requirement 
 		WaistIn: g.WaistIn, WaistInAt: g.WaistInAt, M2: g.M2, LaserExit: g.LaserExit}
 }
 
-// partGhosts are the ghost foci of one part, in JSON as printed.
-type partGhosts struct {
-	Supplier string              `json:"supplier"`
-	Part     string              `json:"part"`
-	Reversed bool                `json:"reversed"`
-	Ghosts   []search.GhostFocus `json:"ghosts"`
-	// Virtual counts the reflections whose beam only diverges.
-	Virtual int `json:"virtual"`
-}
-
-// ghostsOf finds the ghost foci of a part in the given media.
-func (g ghostOptions) ghostsOf(e record.Entry, reverse bool, req search.Requirement, in, out optics.Medium) partGhosts {
-	p := e.Part
-	if reverse {
-		p = p.Reversed()
-	}
-	sys := p.System(in, out)
-	n0 := sys.Indices(req.Lambda())[0]
-	w, z := req.Beam/2, 0.0
-	if req.WaistIn > 0 {
-		w, z = req.WaistIn, req.WaistInAt
-	}
-	beam := optics.NewEmbeddedBeam(req.Lambda(), w, z, n0, req.Quality())
-	gs, virtual := search.Ghosts(sys, req, beam, nil)
-	if gs == nil {
-		gs = []search.GhostFocus{}
-	}
-	return partGhosts{Supplier: p.Supplier, Part: p.Name, Reversed: reverse, Ghosts: gs, Virtual: virtual}
-}
-
 // writeGhosts prints the ghost foci of the parts, the notes that go with
 // them, and the laser cautions.
 func writeGhosts(o *inspectOptions, entries []record.Entry, in, out optics.Medium) error {
 	req := o.Ghosts.requirement(o.Rays, o.Wavelength)
-	var all []partGhosts
+	var all []search.PartGhosts
 	t := ghostTable()
 	for _, e := range entries {
-		pg := o.Ghosts.ghostsOf(e, o.Reverse, req, in, out)
+		pg := search.InspectGhosts(e, search.InspectSetting{Reverse: o.Reverse, Wavelength: o.Wavelength, In: in, Out: out}, req)
 		all = append(all, pg)
 		for _, g := range pg.Ghosts {
 			t.Add(append([]present.Cell{present.Int(len(t.Rows) + 1)}, ghostRow(pg, g)...)...)
@@ -133,7 +103,7 @@ func ghostTable() present.Table {
 	}}
 }
 
-func ghostRow(pg partGhosts, g search.GhostFocus) []present.Cell {
+func ghostRow(pg search.PartGhosts, g search.GhostFocus) []present.Cell {
 	id := pg.Supplier + ":" + pg.Part
 	if pg.Reversed {
 		id += " (reversed)"

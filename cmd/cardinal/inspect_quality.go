@@ -1,21 +1,20 @@
 package main
 
 import (
-	"cardinal/catalog/record"
 	"cardinal/search/present"
 
-	"fmt"
 	"math"
 	"strconv"
 
 	"github.com/spf13/pflag"
 
-	"cardinal/optics"
 	"cardinal/search"
+	"cardinal/search/export"
 )
 
-// rayOptions are the real-ray flags of `cardinal inspect`. The zero value
-// traces nothing.
+// rayOptions are the real-ray flags of `cardinal inspect`: the fields of
+// search.RaySetting, which works out the conditions. The zero value traces
+// nothing.
 type rayOptions struct {
 	Beam, NA       float64   // collimated beam diameter, mm; object-space NA
 	ObjectDistance float64   // object plane in front of the first vertex, mm (--na); 0: the -1x conjugate
@@ -35,7 +34,7 @@ func (ro *rayOptions) flags(f *pflag.FlagSet) {
 	f.Float64Var(&ro.Power, "power", 0, "with --beam: laser power, W (brings the laser cautions)")
 }
 
-func (ro rayOptions) traces() bool { return ro.Beam > 0 || ro.NA > 0 }
+func (ro rayOptions) traces() bool { return ro.setting().Traces() }
 
 // validate checks the real-ray flags against each other.
 func (ro rayOptions) validate() error {
@@ -60,86 +59,15 @@ func (ro rayOptions) validate() error {
 	return nil
 }
 
-// rayNote is the real-ray setting of one part, in words for the title.
-type rayNote struct{ text string }
+// setting is the real-ray setting the flags ask for.
+func (ro rayOptions) setting() search.RaySetting { return search.RaySetting(ro) }
 
-// judge traces the part (turned around when reverse) and fills the
-// inspection's figures, or adds a warning saying why it cannot be traced.
-func (ro rayOptions) judge(r *inspection, e record.Entry, reverse bool, wl float64, in, out optics.Medium) {
-	if !ro.traces() {
-		return
+// writeLaserCautions writes the laser cautions (export.LaserCautions, the
+// one text of them) on stderr.
+func writeLaserCautions(e *env) {
+	for _, c := range export.LaserCautions {
+		notef(e, "caution: %s\n", c)
 	}
-	p := e.Part
-	if reverse {
-		p = p.Reversed()
-	}
-	sys := p.System(in, out)
-	c, text, err := ro.conditions(sys.Cardinal(wl), wl)
-	r.rays = &rayNote{text: text}
-	if err == nil {
-		var q optics.Quality
-		if q, err = sys.Assess(c); err == nil {
-			iq := search.NewImageQuality(q, c.Field != 0, c.Band)
-			r.ImageQuality = &iq
-			r.Warnings = append(r.Warnings, q.Warnings...)
-			return
-		}
-	}
-	r.Warnings = append(r.Warnings, "real rays not traced: "+err.Error())
-}
-
-// conditions are the real-ray conditions for a part with cardinal points
-// c, with the setting in words. The image plane is the paraxial image,
-// which must be real (behind the last vertex).
-func (ro rayOptions) conditions(c optics.Cardinal, wl float64) (optics.Conditions, string, error) {
-	cond := optics.Conditions{Reference: wl, Band: ro.Band}
-	if c.Afocal {
-		return cond, "real rays: none (afocal)", fmt.Errorf("an afocal part has no focus to judge")
-	}
-	var text string
-	if ro.Beam > 0 {
-		cond.Object = optics.Object{Z: math.Inf(-1), Aperture: optics.Aperture{Beam: ro.Beam}}
-		cond.Field = ro.FieldAngle
-		text = fmt.Sprintf("real rays: %s mm collimated beam", num(ro.Beam))
-		if ro.FieldAngle > 0 {
-			text += fmt.Sprintf(", field edge %s deg", num(ro.FieldAngle))
-		}
-	} else {
-		z, how := -ro.ObjectDistance, ""
-		if ro.ObjectDistance == 0 {
-			var st optics.ConjugateStatus
-			z, _, st = c.ForMagnification(-1)
-			how = " (the -1x conjugate)"
-			if st != optics.Solved || !(z < 0) {
-				return cond, "real rays: NA " + num(ro.NA), fmt.Errorf("no real object images at -1x (EFL %.2f mm); give --object-distance", c.EFL)
-			}
-		}
-		cond.Object = optics.Object{Z: z, Aperture: optics.Aperture{NA: ro.NA}}
-		cond.Field = ro.ObjectHeight
-		text = fmt.Sprintf("real rays: NA %s, object %.3f mm in front of the first vertex%s", num(ro.NA), -z, how)
-		if ro.ObjectHeight > 0 {
-			text += fmt.Sprintf(", object height %s mm", num(ro.ObjectHeight))
-		}
-	}
-	zi, _, st := c.Image(cond.Object.Z)
-	if st != optics.Solved || !(zi > 0) {
-		return cond, text, fmt.Errorf("the image is not real (paraxial image at %.3f mm from the last vertex); real-ray figures need a real focus", zi)
-	}
-	return cond, text + fmt.Sprintf("; image plane %.3f mm behind the last vertex", zi), nil
-}
-
-// printCautions writes the laser cautions (export.Cautions, the one text
-// of them) when the beam is a laser: a power given or a wavelength outside
-// the visible.
-func (ro rayOptions) printCautions(e *env, wl float64) {
-	if !ro.traces() {
-		return
-	}
-	req := search.Requirement{Kind: search.Focus, Beam: ro.Beam, Power: ro.Power, Wavelength: wl}
-	if ro.NA > 0 {
-		req = search.Requirement{Kind: search.Image, NA: ro.NA, Wavelength: wl}
-	}
-	writeCautions(e, req)
 }
 
 func num(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
@@ -167,8 +95,8 @@ func qualityCells(q *search.ImageQuality) []present.Cell {
 
 // qualityRows are the table rows of the real-ray figures: none when no
 // rays were asked for, one line saying so when the part was not traced.
-func qualityRows(r inspection) [][]string {
-	if r.rays == nil {
+func qualityRows(r search.Inspection) [][]string {
+	if r.RaySetting == "" {
 		return nil
 	}
 	q := r.ImageQuality

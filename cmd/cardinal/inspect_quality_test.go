@@ -127,37 +127,16 @@ func TestInspectRaysJSON(t *testing.T) {
 	}
 }
 
-// The figures against outside formulas: the Airy radius of a focus at
-// f-number N is 1.22 lambda N (Born and Wolf, Principles of Optics, 7th
-// ed., ch. 8), and the default object for --na sits where Newton's
-// equation x x' = -f^2 gives m = -1: x = -f before F, so at F - f
-// (Hecht, Optics, 5th ed., sec. 5.2.3).
+// The command's figure against an outside formula: the Airy radius of a
+// focus at f-number N is 1.22 lambda N (Born and Wolf, Principles of
+// Optics, 7th ed., sec. 8.5.2). The -1x conjugate of --na without
+// --object-distance is checked in package search (TestRayConditionsMinusOne).
 func TestInspectRaysAgainstFormulas(t *testing.T) {
 	rs := inspectJSON(t, func(o *inspectOptions) { o.Parts, o.Rays = []string{"TEST:PCX"}, rayOptions{Beam: 5} })
 	efl := rs[0]["efl_mm"].(float64)
 	want := 1.22 * optics.LineD * 1e-3 * efl / 5
 	if got := rs[0]["airy_radius_um"].(float64); math.Abs(got-want) > 0.01*want {
 		t.Errorf("Airy radius %.4f um, want 1.22 lambda N = %.4f um within 1%%", got, want)
-	}
-	e, _, _ := testEnv()
-	entries, err := loadInspectEntries(inspectOpts(e, nil), optics.BuiltinGlasses())
-	if err != nil {
-		t.Fatal(err)
-	}
-	pcx, err := selectParts(entries, []string{"TEST:PCX"}, "test")
-	if err != nil {
-		t.Fatal(err)
-	}
-	c := pcx[0].Part.System(nil, nil).Cardinal(optics.LineD)
-	cond, text, err := rayOptions{NA: 0.05}.conditions(c, optics.LineD)
-	if err != nil {
-		t.Fatal(err)
-	}
-	if got, want := cond.Object.Z, c.F-c.EFL; math.Abs(got-want) > 1e-9 {
-		t.Errorf("object at %.6f mm, want F - f = %.6f mm", got, want)
-	}
-	if !strings.Contains(text, "(the -1x conjugate)") {
-		t.Errorf("setting %q", text)
 	}
 }
 
