@@ -19,8 +19,8 @@ const (
 	Negative = "negative" // diverging
 )
 
-// KindNames lists the kinds a Filter accepts.
-var KindNames = []string{Positive, Negative, Singlet, Cemented, AirSpaced}
+// KindNames returns the kinds a Filter accepts.
+func KindNames() []string { return []string{Positive, Negative, Singlet, Cemented, AirSpaced} }
 
 // A Filter selects parts. The zero value selects every part; each field set
 // narrows the selection further.
@@ -103,7 +103,7 @@ func kindCondition(k string) (string, error) {
 	case AirSpaced:
 		return "p.kind = 'air-spaced'", nil
 	}
-	return "", fmt.Errorf("unknown kind %q: use %s", k, strings.Join(KindNames, ", "))
+	return "", fmt.Errorf("unknown kind %q: use %s", k, strings.Join(KindNames(), ", "))
 }
 
 // filteredParts is the FROM clause every filtered query shares.

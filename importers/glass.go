@@ -31,8 +31,8 @@ type Glass struct {
 	Line         int    // source line, 0 if none
 }
 
-// Formulas a glass CSV may name.
-var Formulas = []string{"sellmeier", "cauchy", "constant", "abbe"}
+// Formulas returns the formulas a glass CSV may name.
+func Formulas() []string { return []string{"sellmeier", "cauchy", "constant", "abbe"} }
 
 var glassSchema = schema{
 	known: func(name string) bool {
@@ -141,7 +141,7 @@ func (g Glass) checkCount() string {
 			return "abbe needs nd >= 1 and Vd > 0"
 		}
 	default:
-		return fmt.Sprintf("formula %q is not one of %s", g.Formula, strings.Join(Formulas, ", "))
+		return fmt.Sprintf("formula %q is not one of %s", g.Formula, strings.Join(Formulas(), ", "))
 	}
 	return ""
 }

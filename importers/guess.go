@@ -311,7 +311,7 @@ func (g *guess) writeRadii(b *strings.Builder) {
 }
 
 func (g *guess) writeFlat(b *strings.Builder) {
-	flat := slices.Clone(DefaultFlat)
+	flat := DefaultFlat()
 	zero, blank := false, false
 	for i := 1; i <= MaxSurfaces; i++ {
 		cells := g.column(col("r", i))

@@ -583,7 +583,7 @@ func (rc *rowConverter) shapeSigns(v mappedCell, n int) (string, bool) {
 	}
 	text := strings.TrimSpace(v.text)
 	if text == "" {
-		rc.fail("shape", "is empty; with 'radii: magnitudes' each part needs a shape (%s, or a sign pattern such as +-- for each radius in light order)", strings.Join(ShapeWords, ", "))
+		rc.fail("shape", "is empty; with 'radii: magnitudes' each part needs a shape (%s, or a sign pattern such as +-- for each radius in light order)", strings.Join(ShapeWords(), ", "))
 		return "", false
 	}
 	if p := strings.ReplaceAll(text, " ", ""); strings.Trim(p, "+-") == "" {
@@ -596,7 +596,7 @@ func (rc *rowConverter) shapeSigns(v mappedCell, n int) (string, bool) {
 	key := strings.Join(strings.FieldsFunc(strings.ToLower(text), func(r rune) bool { return r == ' ' || r == '-' || r == '_' }), "")
 	signs, ok := shapeSigns[key]
 	if !ok {
-		rc.fail("shape", "%q is not a shape cardinal knows; use %s, or a sign pattern such as +-- (one sign per radius, light order)", text, strings.Join(ShapeWords, ", "))
+		rc.fail("shape", "%q is not a shape cardinal knows; use %s, or a sign pattern such as +-- (one sign per radius, light order)", text, strings.Join(ShapeWords(), ", "))
 		return "", false
 	}
 	if n != 2 {
@@ -606,10 +606,12 @@ func (rc *rowConverter) shapeSigns(v mappedCell, n int) (string, bool) {
 	return signs, true
 }
 
-// ShapeWords are the singlet shapes a magnitude sheet may name (common
+// ShapeWords returns the singlet shapes a magnitude sheet may name (common
 // practice). A meniscus is taken with its convex side first, as sheets
 // draw it; a part turned the other way needs a sign pattern (--).
-var ShapeWords = []string{"biconvex", "biconcave", "plano-convex", "plano-concave", "meniscus"}
+func ShapeWords() []string {
+	return []string{"biconvex", "biconcave", "plano-convex", "plano-concave", "meniscus"}
+}
 
 // shapeSigns maps a shape word, lower-case without spaces or hyphens, to
 // the signs of r1 and r2. A plano shape's sign on its flat side does not

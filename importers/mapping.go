@@ -101,8 +101,8 @@ func (u LengthUnit) String() string {
 	return "mm"
 }
 
-// DefaultFlat is how a flat surface is written when a mapping does not say.
-var DefaultFlat = []string{"inf", "infinity", "plano", "flat"}
+// DefaultFlat returns how a flat surface is written when a mapping does not say.
+func DefaultFlat() []string { return []string{"inf", "infinity", "plano", "flat"} }
 
 // MappingFields are the fields a mapping may feed: the columns of the
 // neutral prescription CSV, and shape.
@@ -150,7 +150,7 @@ func ReadMapping(r io.Reader, file string) (*Mapping, error) {
 		fail(0, "reading stopped: %v", err)
 	}
 	if !m.setFlat {
-		m.Flat = slices.Clone(DefaultFlat)
+		m.Flat = DefaultFlat()
 	}
 	if m.FirstDataRow != 0 && m.FirstDataRow <= m.headerRow() {
 		fail(0, "first data row %d must come after header row %d", m.FirstDataRow, m.headerRow())

@@ -9,7 +9,7 @@ import (
 
 // A 1 mm (1/e^2 radius) HeNe beam with its waist on a 100 mm plano-convex
 // lens is brought to a waist just short of the focal point. (The commands
-// print the laser cautions, from package search/export, beside such
+// print the laser cautions, from package search/solution, beside such
 // figures; package optics does no output.)
 func ExampleSystem_Beam() {
 	glass, _ := optics.GlassCode("517642")

@@ -1,9 +1,6 @@
 package main
 
 import (
-	"cardinal/catalog/record"
-	"cardinal/search/present"
-
 	"bytes"
 	"context"
 	"fmt"
@@ -14,8 +11,10 @@ import (
 	"github.com/spf13/cobra"
 
 	"cardinal/catalog"
+	"cardinal/catalog/record"
 	"cardinal/importers"
 	"cardinal/optics"
+	"cardinal/search/present"
 )
 
 func newCatalogCmd(e *env) *cobra.Command {
@@ -231,7 +230,7 @@ column, with the reversed orientation, under the key names of inspect.`,
 	f.Float64Var(&o.DiameterMin, "diameter-min", 0, "smallest diameter in mm")
 	f.Float64Var(&o.DiameterMax, "diameter-max", 0, "largest diameter in mm")
 	f.StringSliceVar(&o.Suppliers, "supplier", nil, "only these suppliers (repeat or separate with commas)")
-	f.StringSliceVar(&o.Kinds, "kind", nil, "only parts of every kind given: "+strings.Join(catalog.KindNames, ", "))
+	f.StringSliceVar(&o.Kinds, "kind", nil, "only parts of every kind given: "+strings.Join(catalog.KindNames(), ", "))
 	f.BoolVar(&o.InDrawer, "in-drawer", false, "only parts with at least one piece in the drawer")
 	addOutputFlags(f, &o.out, true)
 	return cmd
@@ -256,8 +255,8 @@ func (o *catalogListOptions) validate() error {
 		}
 	}
 	for _, k := range o.Kinds {
-		if !containsFold(catalog.KindNames, k) {
-			return usageErrorf("--kind %q: use %s", k, strings.Join(catalog.KindNames, ", "))
+		if !containsFold(catalog.KindNames(), k) {
+			return usageErrorf("--kind %q: use %s", k, strings.Join(catalog.KindNames(), ", "))
 		}
 	}
 	o.filter = catalog.Filter{EFL: efl, Diameter: dia, Suppliers: o.Suppliers, Kinds: o.Kinds, InDrawer: o.InDrawer}

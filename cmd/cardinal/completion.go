@@ -10,8 +10,8 @@ import (
 
 	"cardinal/catalog"
 	"cardinal/search"
-	"cardinal/search/export"
 	"cardinal/search/saved"
+	"cardinal/search/solution"
 )
 
 // Shell completion: cobra's own `completion` command writes the script for
@@ -42,7 +42,7 @@ func addCompletions(root *cobra.Command, e *env) {
 			c.ValidArgsFunction = argsCompletion(firstOnly, func(db string) []string { return partCompletions(e, db) })
 		}
 		flagValues(c, "format", formats)
-		flagValues(c, "kind", catalog.KindNames)
+		flagValues(c, "kind", catalog.KindNames())
 		prefs := make([]string, len(preferValues))
 		for i, p := range preferValues {
 			prefs[i] = string(p)
@@ -122,7 +122,7 @@ func searchCompletions(e *env, db string) []string {
 		for i := len(list) - 1; i >= 0; i-- {
 			s := list[i]
 			ref := saved.Ref{Demo: demo, ID: s.ID}
-			words := export.DescribeRequirement(s.Requirement)
+			words := solution.DescribeRequirement(s.Requirement)
 			if s.Note != "" {
 				words = s.Note + " (" + words + ")"
 			}
@@ -170,7 +170,7 @@ func rankCompletions(e *env, db, refText string) []string {
 	}
 	var out []string
 	for _, r := range s.Results {
-		out = append(out, strconv.Itoa(r.Rank)+"\t"+export.DescribeParts(r.Parts))
+		out = append(out, strconv.Itoa(r.Rank)+"\t"+solution.DescribeParts(r.Parts))
 	}
 	return out
 }

@@ -7,7 +7,9 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"cardinal/search/export"
+	"cardinal/search/drawing"
+	"cardinal/search/plots"
+	"cardinal/search/solution"
 )
 
 // drawOptions are the flags of `cardinal draw`.
@@ -104,11 +106,11 @@ func runDraw(o *drawOptions) error {
 	if err != nil {
 		return err
 	}
-	title := fmt.Sprintf("Search %d, solution %d: %s", sv.ID, s.Result.Rank, export.DescribeParts(s.Result.Parts))
+	title := fmt.Sprintf("Search %d, solution %d: %s", sv.ID, s.Result.Rank, solution.DescribeParts(s.Result.Parts))
 	if o.Spot {
 		return drawSpots(o, s, field, title)
 	}
-	sc, err := export.NewScene(s, export.DrawOptions{Field: field})
+	sc, err := drawing.NewScene(s, drawing.DrawOptions{Field: field})
 	if err != nil {
 		return fmt.Errorf("search %d, solution %d: %w", sv.ID, s.Result.Rank, err)
 	}
@@ -116,7 +118,7 @@ func runDraw(o *drawOptions) error {
 	if err != nil {
 		return err
 	}
-	if err := sc.WriteSVG(w, export.DrawOptions{Field: field, Title: title}); err != nil {
+	if err := sc.WriteSVG(w, drawing.DrawOptions{Field: field, Title: title}); err != nil {
 		w.Close()
 		return err
 	}
@@ -124,9 +126,9 @@ func runDraw(o *drawOptions) error {
 }
 
 // drawSpots writes the spot and fan plots and prints the RMS radii.
-func drawSpots(o *drawOptions, s export.Solution, field float64, title string) error {
+func drawSpots(o *drawOptions, s solution.Solution, field float64, title string) error {
 	e := o.env
-	sp, err := export.NewSpots(s, export.PlotOptions{Wavelengths: o.Band, Field: field})
+	sp, err := plots.NewSpots(s, plots.PlotOptions{Wavelengths: o.Band, Field: field})
 	if err != nil {
 		return fmt.Errorf("%s: %w", title, err)
 	}

@@ -12,9 +12,9 @@ import (
 
 	"cardinal/catalog"
 	"cardinal/search"
-	"cardinal/search/export"
 	"cardinal/search/present"
 	"cardinal/search/saved"
+	"cardinal/search/solution"
 )
 
 // findOptions are the flags of `cardinal find`, bound as given; Req is the
@@ -352,7 +352,7 @@ func findDoc(s saved.Search) findOutput {
 		rs = []search.Result{}
 	}
 	return findOutput{Requirement: s.Requirement, Results: rs, Why: s.Why, Misses: s.Misses,
-		Notes: append(append([]string(nil), s.Notes...), export.Cautions(s.Requirement)...)}
+		Notes: append(append([]string(nil), s.Notes...), solution.Cautions(s.Requirement)...)}
 }
 
 // writeFind prints what a search found as find prints it: the notes and
@@ -425,10 +425,10 @@ func printCautions(e *env, req search.Requirement, notes []string) {
 }
 
 // writeCautions writes on stderr the safety cautions the requirement calls
-// for (export.Cautions, the one text of them): every command that prints
+// for (solution.Cautions, the one text of them): every command that prints
 // results for a laser requirement uses it.
 func writeCautions(e *env, req search.Requirement) {
-	for _, c := range export.Cautions(req) {
+	for _, c := range solution.Cautions(req) {
 		notef(e, "caution: %s\n", c)
 	}
 }

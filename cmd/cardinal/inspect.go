@@ -1,8 +1,6 @@
 package main
 
 import (
-	"cardinal/search/present"
-
 	"bytes"
 	"errors"
 	"fmt"
@@ -21,6 +19,7 @@ import (
 	"cardinal/importers"
 	"cardinal/optics"
 	"cardinal/search"
+	"cardinal/search/present"
 )
 
 // inspectOptions are the flags of `cardinal inspect`. The zero value is not

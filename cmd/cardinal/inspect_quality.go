@@ -1,15 +1,14 @@
 package main
 
 import (
-	"cardinal/search/present"
-
 	"math"
 	"strconv"
 
 	"github.com/spf13/pflag"
 
 	"cardinal/search"
-	"cardinal/search/export"
+	"cardinal/search/present"
+	"cardinal/search/solution"
 )
 
 // rayOptions are the real-ray flags of `cardinal inspect`: the fields of
@@ -62,10 +61,10 @@ func (ro rayOptions) validate() error {
 // setting is the real-ray setting the flags ask for.
 func (ro rayOptions) setting() search.RaySetting { return search.RaySetting(ro) }
 
-// writeLaserCautions writes the laser cautions (export.LaserCautions, the
+// writeLaserCautions writes the laser cautions (solution.LaserCautions, the
 // one text of them) on stderr.
 func writeLaserCautions(e *env) {
-	for _, c := range export.LaserCautions {
+	for _, c := range solution.LaserCautions() {
 		notef(e, "caution: %s\n", c)
 	}
 }

@@ -5,7 +5,10 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"cardinal/search/export"
+	"cardinal/search/drawing"
+	"cardinal/search/plots"
+	"cardinal/search/purchase"
+	"cardinal/search/report"
 )
 
 // reportOptions are the flags of `cardinal report`.
@@ -74,19 +77,19 @@ func runReport(o *reportOptions) error {
 	if err != nil {
 		return err
 	}
-	rq, err := export.BuildRequest(sv.ID, sv.Requirement, p.Results, o.Qty, p.Stock())
+	rq, err := purchase.BuildRequest(sv.ID, sv.Requirement, p.Results, o.Qty, p.Stock())
 	if err != nil {
 		return usageErrorf("%v", err)
 	}
 	rq.AddBuilds(sols)
-	in := export.ReportInput{Search: sv.ID, SearchedAt: sv.At, GeneratedAt: e.Now(), Requirement: sv.Requirement,
+	in := report.ReportInput{Search: sv.ID, SearchedAt: sv.At, GeneratedAt: e.Now(), Requirement: sv.Requirement,
 		Results: sv.Results, Picks: sols, Request: rq,
-		Draw: export.DrawOptions{Field: field}, Plot: export.PlotOptions{Field: field, Wavelengths: o.Band}}
+		Draw: drawing.DrawOptions{Field: field}, Plot: plots.PlotOptions{Field: field, Wavelengths: o.Band}}
 	w, err := openOutput(e, o.Output, o.Force)
 	if err != nil {
 		return err
 	}
-	if err := export.WriteReport(w, in); err != nil {
+	if err := report.WriteReport(w, in); err != nil {
 		w.Close()
 		return fmt.Errorf("search %d: %w", sv.ID, err)
 	}

@@ -7,8 +7,8 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"cardinal/search/export"
 	"cardinal/search/present"
+	"cardinal/search/purchase"
 )
 
 // requestOptions are the flags of `cardinal request`.
@@ -76,7 +76,7 @@ func runRequest(o *requestOptions) error {
 		return err
 	}
 	sv := p.Search
-	rq, err := export.BuildRequest(sv.ID, sv.Requirement, p.Results, o.Qty, p.Stock())
+	rq, err := purchase.BuildRequest(sv.ID, sv.Requirement, p.Results, o.Qty, p.Stock())
 	if err != nil {
 		return usageErrorf("%v", err)
 	}
@@ -99,7 +99,7 @@ func runRequest(o *requestOptions) error {
 // writeRequest writes the request in a format: JSON as the Request value,
 // CSV through the injection-safe writer, table and md with the notes
 // (requirement, spacings, cautions) above the table.
-func writeRequest(e *env, w io.Writer, format string, rq export.Request) error {
+func writeRequest(e *env, w io.Writer, format string, rq purchase.Request) error {
 	switch format {
 	case "json":
 		return render(e, w, outputFlags{Format: format}, present.Table{}, rq)

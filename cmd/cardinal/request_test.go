@@ -14,7 +14,7 @@ import (
 
 	"cardinal/catalog"
 	"cardinal/search"
-	"cardinal/search/export"
+	"cardinal/search/purchase"
 )
 
 // savedCatalog makes a catalog file from the demo catalog and drawer and
@@ -147,7 +147,7 @@ func TestRunRequestJSON(t *testing.T) {
 	if code != 0 {
 		t.Fatalf("exit %d: %s", code, errs)
 	}
-	var rq export.Request
+	var rq purchase.Request
 	if err := json.Unmarshal([]byte(out), &rq); err != nil {
 		t.Fatalf("%v\n%s", err, out)
 	}

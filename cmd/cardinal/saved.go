@@ -9,8 +9,8 @@ import (
 	"slices"
 
 	"cardinal/catalog"
-	"cardinal/search/export"
 	"cardinal/search/saved"
+	"cardinal/search/solution"
 )
 
 // keptDemoPath is where the demo catalog is kept beside where the user's
@@ -108,7 +108,7 @@ func loadPicked(e *env, db, ref string, ranks []int) (*saved.Picked, error) {
 // loadSolutions loads the picked results rebuilt as solutions and writes
 // the cautions their requirement calls for: what draw and report start
 // from.
-func loadSolutions(e *env, db, ref string, ranks []int) (*saved.Picked, []export.Solution, error) {
+func loadSolutions(e *env, db, ref string, ranks []int) (*saved.Picked, []solution.Solution, error) {
 	p, err := loadPicked(e, db, ref, ranks)
 	if err != nil {
 		return nil, nil, err
@@ -123,7 +123,7 @@ func loadSolutions(e *env, db, ref string, ranks []int) (*saved.Picked, []export
 
 // rebuild turns the picks into solutions and warns on stderr about any the
 // catalog has changed since the search.
-func rebuild(e *env, p *saved.Picked) ([]export.Solution, error) {
+func rebuild(e *env, p *saved.Picked) ([]solution.Solution, error) {
 	sols, changes, err := p.Rebuild()
 	if err != nil {
 		return nil, savedError(err)

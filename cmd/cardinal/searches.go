@@ -10,9 +10,9 @@ import (
 	"github.com/spf13/cobra"
 
 	"cardinal/search"
-	"cardinal/search/export"
 	"cardinal/search/present"
 	"cardinal/search/saved"
+	"cardinal/search/solution"
 )
 
 // newSearchesCmd is `cardinal searches` and its subcommands.
@@ -128,7 +128,7 @@ func shelfRows(ctx context.Context, sh *shelf, prefixed bool) ([]searchRow, erro
 	for i, s := range list {
 		ref := saved.Ref{Demo: prefixed, ID: s.ID}
 		rows[i] = searchRow{Search: ref.String(), Number: s.ID, CreatedAt: s.At.UTC().Format("2006-01-02T15:04:05Z"),
-			Kind: s.Requirement.Kind, Words: export.DescribeRequirement(s.Requirement), Requirement: s.Requirement,
+			Kind: s.Requirement.Kind, Words: solution.DescribeRequirement(s.Requirement), Requirement: s.Requirement,
 			Results: s.Count, Catalog: cat, CatalogFile: sh.Path(), Note: s.Note}
 	}
 	return rows, nil
@@ -216,7 +216,7 @@ func runSearchesShow(o *searchesShowOptions) error {
 	if sh.Demo {
 		where = "the demo catalog"
 	}
-	notef(e, "search %d, run %s on %s: %s\n", s.ID, s.At.UTC().Format("2006-01-02 15:04 UTC"), where, export.DescribeRequirement(s.Requirement))
+	notef(e, "search %d, run %s on %s: %s\n", s.ID, s.At.UTC().Format("2006-01-02 15:04 UTC"), where, solution.DescribeRequirement(s.Requirement))
 	if s.Note != "" {
 		notef(e, "note: %s\n", s.Note)
 	}

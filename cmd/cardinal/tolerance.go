@@ -8,8 +8,9 @@ import (
 	"github.com/spf13/cobra"
 
 	"cardinal/search"
-	"cardinal/search/export"
+	"cardinal/search/plots"
 	"cardinal/search/present"
+	"cardinal/search/solution"
 )
 
 // toleranceOptions are the flags of `cardinal tolerance`.
@@ -174,14 +175,14 @@ func runTolerance(o *toleranceOptions) error {
 		return usageErrorf("search %d, result %d: %v", sv.Search.ID, s.Result.Rank, err)
 	}
 	name, unit := search.FigureName(req.Kind)
-	title := fmt.Sprintf("Search %d, result %d: %s", sv.Search.ID, s.Result.Rank, export.DescribeParts(s.Result.Parts))
+	title := fmt.Sprintf("Search %d, result %d: %s", sv.Search.ID, s.Result.Rank, solution.DescribeParts(s.Result.Parts))
 	if o.Plot != "" {
 		if err := writeStudyPlot(o, req, st, title); err != nil {
 			return err
 		}
 	}
 	doc := toleranceOutput{Search: sv.Search.ID, Rank: s.Result.Rank, Parts: s.Result.Parts, Build: req.Build,
-		Figure: name, Unit: unit, Study: st, Requirement: req, Cautions: export.Cautions(req),
+		Figure: name, Unit: unit, Study: st, Requirement: req, Cautions: solution.Cautions(req),
 		AdjustHist: search.NewHistogram(st.Adjust, histogramBins), FigureHist: search.NewHistogram(st.Figure, histogramBins)}
 	switch o.out.Format {
 	case "json":
@@ -222,7 +223,7 @@ func writeStudyPlot(o *toleranceOptions, req search.Requirement, st search.Study
 	if err != nil {
 		return err
 	}
-	if err := export.WriteStudyPlot(w, req, st, title, o.plotFormat); err != nil {
+	if err := plots.WriteStudyPlot(w, req, st, title, o.plotFormat); err != nil {
 		w.Close()
 		return err
 	}

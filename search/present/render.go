@@ -1,8 +1,6 @@
 package present
 
 import (
-	"cardinal/importers"
-
 	"bytes"
 	"encoding/json"
 	"fmt"
@@ -10,6 +8,8 @@ import (
 	"io"
 	"strconv"
 	"strings"
+
+	"cardinal/importers"
 )
 
 // WriteCSV writes the table as CSV for a spreadsheet or a script: the keys

@@ -8,7 +8,8 @@ import (
 	"cardinal/catalog"
 	"cardinal/catalog/record"
 	"cardinal/search"
-	"cardinal/search/export"
+	"cardinal/search/purchase"
+	"cardinal/search/solution"
 )
 
 // Pick returns the results of the given ranks (as find printed them), in
@@ -69,11 +70,11 @@ func (b *Book) Pick(ctx context.Context, s *Search, ranks []int) (*Picked, error
 
 // Stock pairs each picked part with its drawer row, for a purchase
 // request.
-func (p *Picked) Stock() map[string]export.Stock {
-	m := make(map[string]export.Stock, len(p.Entries))
+func (p *Picked) Stock() map[string]purchase.Stock {
+	m := make(map[string]purchase.Stock, len(p.Entries))
 	for id, en := range p.Entries {
 		d := p.Drawer[id]
-		m[id] = export.Stock{Entry: en, InDrawer: d.Quantity, Location: d.Location}
+		m[id] = purchase.Stock{Entry: en, InDrawer: d.Quantity, Location: d.Location}
 	}
 	return m
 }
@@ -83,11 +84,11 @@ func (p *Picked) Stock() map[string]export.Stock {
 // from what the search saved (a part re-imported with another prescription
 // since, say); no changes means each rebuilt system is the one the search
 // found.
-func (p *Picked) Rebuild() ([]export.Solution, []string, error) {
-	var sols []export.Solution
+func (p *Picked) Rebuild() ([]solution.Solution, []string, error) {
+	var sols []solution.Solution
 	var changes []string
 	for _, r := range p.Results {
-		s, err := export.NewSolution(p.Search.Requirement, r, p.Entries)
+		s, err := solution.New(p.Search.Requirement, r, p.Entries)
 		if err != nil {
 			return nil, nil, &DecodeError{ID: p.Search.ID, What: "results", Err: err}
 		}

@@ -1,0 +1,52 @@
+package drawing
+
+import (
+	"math"
+	"strings"
+)
+
+// Text sizes of the drawing, in units of its font size, and what wrapping
+// assumes of a font.
+const (
+	titleSize  = 1.1
+	legendSize = 0.8
+	// legendIndent is where the legend's words start, in font sizes from
+	// the drawing's left edge: after the samples of rays and marks.
+	legendIndent = 4.0
+	// minLegendRunes is the least number of characters a legend line
+	// holds; a drawing too narrow for it is widened (its scale unchanged).
+	minLegendRunes = 60
+	// advance is the width allowed per character, in ems: more than the
+	// mean advance of the legend's words in DejaVu Sans, a wide sans-serif
+	// font (about 0.45 em, measured on a headless-browser screenshot of a
+	// drawing), so that lines wrapped by it fit; TestSVGTextInsideTheDrawing
+	// checks that they do, in a real browser.
+	advance = 0.6
+)
+
+// runesIn is how many characters of a font size fit in a width.
+func runesIn(width, size float64) int {
+	return max(int(math.Floor(width/(advance*size))), 1)
+}
+
+// wrapText breaks s between words into lines of at most n characters; a
+// single word longer than n has a line of its own.
+func wrapText(s string, n int) []string {
+	var lines []string
+	line := ""
+	for _, w := range strings.Fields(s) {
+		switch {
+		case line == "":
+			line = w
+		case len([]rune(line))+1+len([]rune(w)) <= n:
+			line += " " + w
+		default:
+			lines = append(lines, line)
+			line = w
+		}
+	}
+	if line != "" || len(lines) == 0 {
+		lines = append(lines, line)
+	}
+	return lines
+}
