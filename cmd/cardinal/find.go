@@ -352,7 +352,7 @@ func findDoc(s saved.Search) findOutput {
 		rs = []search.Result{}
 	}
 	return findOutput{Requirement: s.Requirement, Results: rs, Why: s.Why, Misses: s.Misses,
-		Notes: append(append([]string(nil), s.Notes...), solution.Cautions(s.Requirement)...)}
+		Notes: append(append([]string(nil), s.Notes...), solution.Cautions(s.Requirement, s.Results...)...)}
 }
 
 // writeFind prints what a search found as find prints it: the notes and
@@ -361,7 +361,7 @@ func findDoc(s saved.Search) findOutput {
 // so that it reads exactly as find printed it.
 func writeFind(e *env, o outputFlags, s saved.Search) error {
 	doc := findDoc(s)
-	printCautions(e, s.Requirement, s.Notes)
+	printCautions(e, s.Requirement, s.Notes, s.Results)
 	if len(s.Results) == 0 {
 		return noResult(e, o, doc)
 	}
@@ -417,18 +417,18 @@ func saveSearch(ctx context.Context, st *catalog.Store, e *env, s saved.Search) 
 }
 
 // printCautions writes the notes and the safety cautions on stderr.
-func printCautions(e *env, req search.Requirement, notes []string) {
+func printCautions(e *env, req search.Requirement, notes []string, shown []search.Result) {
 	for _, n := range notes {
 		notef(e, "note: %s\n", n)
 	}
-	writeCautions(e, req)
+	writeCautions(e, req, shown...)
 }
 
 // writeCautions writes on stderr the safety cautions the requirement calls
 // for (solution.Cautions, the one text of them): every command that prints
 // results for a laser requirement uses it.
-func writeCautions(e *env, req search.Requirement) {
-	for _, c := range solution.Cautions(req) {
+func writeCautions(e *env, req search.Requirement, shown ...search.Result) {
+	for _, c := range solution.Cautions(req, shown...) {
 		notef(e, "caution: %s\n", c)
 	}
 }

@@ -117,7 +117,7 @@ func loadSolutions(e *env, db, ref string, ranks []int) (*saved.Picked, []soluti
 	if err != nil {
 		return nil, nil, err
 	}
-	writeCautions(e, p.Search.Requirement)
+	writeCautions(e, p.Search.Requirement, solution.Results(sols)...)
 	return p, sols, nil
 }
 

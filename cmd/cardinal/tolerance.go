@@ -182,7 +182,7 @@ func runTolerance(o *toleranceOptions) error {
 		}
 	}
 	doc := toleranceOutput{Search: sv.Search.ID, Rank: s.Result.Rank, Parts: s.Result.Parts, Build: req.Build,
-		Figure: name, Unit: unit, Study: st, Requirement: req, Cautions: solution.Cautions(req),
+		Figure: name, Unit: unit, Study: st, Requirement: req, Cautions: solution.Cautions(req, s.Result),
 		AdjustHist: search.NewHistogram(st.Adjust, histogramBins), FigureHist: search.NewHistogram(st.Figure, histogramBins)}
 	switch o.out.Format {
 	case "json":

@@ -68,7 +68,7 @@ func (d *svgDoc) legend() []legendLine {
 		}
 		ls = append(ls, legendLine{"build", l})
 	}
-	for _, c := range solution.Cautions(sc.Solution.Requirement) {
+	for _, c := range solution.Cautions(sc.Solution.Requirement, sc.Solution.Result) {
 		ls = append(ls, legendLine{"caution", "laser caution: " + c})
 	}
 	return ls

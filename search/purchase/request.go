@@ -88,7 +88,7 @@ func BuildRequest(searchID int64, req search.Requirement, picks []search.Result,
 	if systems < 1 {
 		return Request{}, fmt.Errorf("the number of systems must be 1 or more, not %d", systems)
 	}
-	rq := Request{Search: searchID, Requirement: req, RequirementText: solution.DescribeRequirement(req), Systems: systems, Cautions: solution.Cautions(req)}
+	rq := Request{Search: searchID, Requirement: req, RequirementText: solution.DescribeRequirement(req), Systems: systems, Cautions: solution.Cautions(req, picks...)}
 	lines := map[string]*RequestLine{}
 	for _, r := range picks {
 		rq.Solutions = append(rq.Solutions, PickedSolution{Rank: r.Rank, Parts: solution.DescribeParts(r.Parts), Spacings: solution.DescribeSpacings(req.Kind, r)})

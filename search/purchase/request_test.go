@@ -190,21 +190,26 @@ func TestBuildRequestErrors(t *testing.T) {
 // the visible (400-700 nm, common practice), brings the laser cautions.
 func TestCautions(t *testing.T) {
 	tests := []struct {
-		name string
-		req  search.Requirement
-		want int
+		name  string
+		req   search.Requirement
+		want  int
+		shown []search.Result
 	}{
-		{"visible imaging, no beam", search.Requirement{Kind: search.Image, Wavelength: 550}, 0},
-		{"visible beam, no power", search.Requirement{Kind: search.Focus, Beam: 3, Wavelength: 632.8}, 0},
-		{"beam with a power", search.Requirement{Kind: search.Focus, Beam: 3, Power: 0.005}, len(solution.LaserCautions())},
-		{"near infrared", search.Requirement{Kind: search.Image, Wavelength: 1064}, len(solution.LaserCautions())},
-		{"ultraviolet", search.Requirement{Kind: search.Focus, Wavelength: 355}, len(solution.LaserCautions())},
-		{"expander of any form", search.Requirement{Kind: search.Expand, Beam: 2, Power: 1}, len(solution.LaserCautions()) + 1},
-		{"Galilean expander", search.Requirement{Kind: search.Expand, Beam: 2, Power: 1, Form: search.Galilean}, len(solution.LaserCautions())},
+		{"visible imaging, no beam", search.Requirement{Kind: search.Image, Wavelength: 550}, 0, nil},
+		{"visible beam, no power", search.Requirement{Kind: search.Focus, Beam: 3, Wavelength: 632.8}, 0, nil},
+		{"beam with a power", search.Requirement{Kind: search.Focus, Beam: 3, Power: 0.005}, len(solution.LaserCautions()), nil},
+		{"near infrared", search.Requirement{Kind: search.Image, Wavelength: 1064}, len(solution.LaserCautions()), nil},
+		{"ultraviolet", search.Requirement{Kind: search.Focus, Wavelength: 355}, len(solution.LaserCautions()), nil},
+		{"expander of any form", search.Requirement{Kind: search.Expand, Beam: 2, Power: 1}, len(solution.LaserCautions()) + 1, nil},
+		{"Galilean expander", search.Requirement{Kind: search.Expand, Beam: 2, Power: 1, Form: search.Galilean}, len(solution.LaserCautions()), nil},
+		{"expander of any form, Galilean rows shown", search.Requirement{Kind: search.Expand, Beam: 2, Power: 1}, len(solution.LaserCautions()),
+			[]search.Result{{Form: search.Galilean}, {Form: search.Galilean}}},
+		{"expander of any form, a Keplerian row shown", search.Requirement{Kind: search.Expand, Beam: 2, Power: 1}, len(solution.LaserCautions()) + 1,
+			[]search.Result{{Form: search.Galilean}, {Form: search.Keplerian}}},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
-			if got := solution.Cautions(tc.req); len(got) != tc.want {
+			if got := solution.Cautions(tc.req, tc.shown...); len(got) != tc.want {
 				t.Errorf("%d cautions, want %d", len(got), tc.want)
 			}
 		})

@@ -94,7 +94,7 @@ var reportTmpl = template.Must(template.New("report").Funcs(reportFuncs).Parse(r
 // fetches nothing.
 func WriteReport(w io.Writer, in ReportInput) error {
 	page := reportPage{ReportInput: in, RequirementText: solution.DescribeRequirement(in.Requirement), Picked: map[int]bool{},
-		Cautions: solution.Cautions(in.Requirement), RequestRows: in.Request.Rows(), RequestHeader: purchase.RequestLabels(), RequestNotes: notesWithoutBuilds(in.Request.Notes()),
+		Cautions: solution.Cautions(in.Requirement, solution.Results(in.Picks)...), RequestRows: in.Request.Rows(), RequestHeader: purchase.RequestLabels(), RequestNotes: notesWithoutBuilds(in.Request.Notes()),
 		QualityColumns: search.ShownQuality(in.Results), BuildHeader: solution.BuildHeader()}
 	page.RankingNote = rankingNote(in.Requirement, page.QualityColumns)
 	page.ResultsTable = rankedTable(in)
