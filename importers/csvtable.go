@@ -172,7 +172,13 @@ type row struct {
 	errs FileErrors
 }
 
-func (t *table) row(rec rawRow) *row { return &row{t: t, rec: rec} }
+// row starts reading a record; a cell with a control character is
+// refused here, whatever the format (checkControl).
+func (t *table) row(rec rawRow) *row {
+	r := &row{t: t, rec: rec}
+	r.checkControl()
+	return r
+}
 
 // text is the trimmed cell of a column, "" when the column or cell is
 // absent, with the quote the spreadsheet-safe writer puts before a formula
@@ -222,6 +228,16 @@ func (r *row) positive(col, unit string) float64 {
 		return 0
 	}
 	return v
+}
+
+// ranged parses a number that must be positive and within the limit when
+// present; 0 when absent or refused.
+func (r *row) ranged(col string, l Limit) float64 {
+	v := r.positive(col, l.Unit)
+	if v == 0 {
+		return 0
+	}
+	return r.within(col, v, l, false)
 }
 
 // formatFloat writes the shortest decimal that reads back as the same float.

@@ -47,7 +47,7 @@ func TestTableRules(t *testing.T) {
 		{name: "syntax error does not hide later rows",
 			in: "supplier,part,quantity\nDEMO,PCX\"50,1\nDEMO,PCX-25,-1\n",
 			errs: []string{`d.csv:2: CSV syntax: bare " in non-quoted-field (column 9 of the line); quote a cell that holds a comma or a quote mark, and double the quote marks inside it`,
-				`d.csv:3: quantity: "-1" is not a whole number >= 0`}},
+				`d.csv:3: quantity: "-1" is not a whole number from 0 to 1000000`}},
 		{name: "more cells than columns",
 			in:   "supplier,part,quantity\nDEMO,PCX-50,1,extra\n",
 			errs: []string{"d.csv:2: the row has 4 cells but the header names only 3 columns; quote cells that hold commas"}},

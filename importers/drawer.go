@@ -63,8 +63,8 @@ func parseDrawerRow(r *row) record.DrawerItem {
 	}
 	if s := r.required("quantity"); s != "" {
 		q, err := strconv.Atoi(s)
-		if err != nil || q < 0 {
-			r.fail("quantity", "%q is not a whole number >= 0", s)
+		if err != nil || q < 0 || float64(q) > quantityLimit.Max {
+			r.fail("quantity", "%q is not a whole number from 0 to %d", s, int(quantityLimit.Max))
 		}
 		d.Quantity = q
 	}

@@ -14,8 +14,8 @@ func TestReadDrawerErrors(t *testing.T) {
 		want       []string
 	}{
 		{"quantity", "DEMO,A,two\nDEMO,B,1.5\nDEMO,C,",
-			[]string{`d.csv:2: quantity: "two" is not a whole number >= 0`,
-				`d.csv:3: quantity: "1.5" is not a whole number >= 0`,
+			[]string{`d.csv:2: quantity: "two" is not a whole number from 0 to 1000000`,
+				`d.csv:3: quantity: "1.5" is not a whole number from 0 to 1000000`,
 				`d.csv:4: quantity: is empty but required`}},
 		{"duplicate", "DEMO,A,1\nDEMO,A,2",
 			[]string{"d.csv:3: part: DEMO:A is already on line 2; list each part once"}},

@@ -59,5 +59,5 @@ func ExampleReadDrawer() {
 	fmt.Println(err)
 	// Output:
 	// drawer.csv:3: part: DEMO:PCX-50 is already on line 2; list each part once
-	// drawer.csv:4: quantity: "two" is not a whole number >= 0
+	// drawer.csv:4: quantity: "two" is not a whole number from 0 to 1000000
 }

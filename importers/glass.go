@@ -220,8 +220,8 @@ func parseGlassRow(r *row) Glass {
 		}
 		g.Coefficients = append(g.Coefficients, v)
 	}
-	g.MinNm = r.positive("min_nm", "nm")
-	g.MaxNm = r.positive("max_nm", "nm")
+	g.MinNm = r.ranged("min_nm", wavelengthLimit)
+	g.MaxNm = r.ranged("max_nm", wavelengthLimit)
 	if len(r.errs) > 0 {
 		return g
 	}

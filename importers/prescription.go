@@ -115,8 +115,8 @@ func parseEntry(r *row, glasses optics.GlassTable) record.Entry {
 	if r.text("diameter") == "" {
 		r.fail("diameter", "is empty but required")
 	}
-	p.Diameter = r.positive("diameter", "mm")
-	p.ClearAperture = r.positive("clear_aperture", "mm")
+	p.Diameter = r.ranged("diameter", lengthLimit)
+	p.ClearAperture = r.ranged("clear_aperture", lengthLimit)
 	parseSurfaces(r, p, glasses)
 	parseStated(r, &e)
 	if len(r.errs) == 0 {
@@ -153,7 +153,7 @@ func parseSurfaces(r *row, p *optics.Part, glasses optics.GlassTable) {
 		if r.text(col("t", i)) == "" {
 			r.fail(col("t", i), "is empty, but the part has %d surfaces and needs t1 to t%d", n, n-1)
 		}
-		p.Thickness[i-1] = r.positive(col("t", i), "mm")
+		p.Thickness[i-1] = r.ranged(col("t", i), lengthLimit)
 	}
 	for i := 1; i < n; i++ {
 		p.Media[i-1] = parseGlass(r, col("glass", i), n, glasses)
@@ -162,7 +162,8 @@ func parseSurfaces(r *row, p *optics.Part, glasses optics.GlassTable) {
 		r.fail(col("glass", 1), "a part cannot begin or end with air; name the glass of its first and last element")
 	}
 	for i := 1; i <= n; i++ {
-		p.Surfaces[i-1].Conic, _ = r.number(col("conic", i))
+		k, _ := r.number(col("conic", i))
+		p.Surfaces[i-1].Conic = r.within(col("conic", i), k, conicLimit, true)
 	}
 	for i := 1; i <= n; i++ {
 		p.Surfaces[i-1].Asph = parseAsph(r, col("asph", i))
@@ -196,6 +197,10 @@ func parseRadius(r *row, c string, n int) float64 {
 	if !ok {
 		return math.Inf(1)
 	}
+	if v != 0 && !radiusLimit.holds(v, false) {
+		r.fail(c, "radius %s mm is outside %s in size; write inf or plano for a flat", formatFloat(v), radiusLimit)
+		return math.Inf(1)
+	}
 	return v
 }
 
@@ -218,6 +223,8 @@ func parseAsph(r *row, c string) [7]float64 {
 			r.fail(c, "%q is not a term like a4=1.2e-6 (even orders a4 to a16)", term)
 		case err != nil || math.IsNaN(v) || math.IsInf(v, 0):
 			r.fail(c, "%s: %q is not a finite number", key, val)
+		case !asphLimit.holds(v, true):
+			r.fail(c, "%s = %s is outside %s in size; check the value and its unit", key, val, asphLimit)
 		case set[key]:
 			r.fail(c, "%s is given twice", key)
 		default:
@@ -248,15 +255,16 @@ func parseStated(r *row, e *record.Entry) {
 	if v, ok := r.number("efl"); ok && v == 0 {
 		r.fail("efl", "0 is not a focal length; leave the cell empty when not stated")
 	} else {
-		e.StatedEFL = v
+		e.StatedEFL = r.within("efl", v, focalLimit, true)
 	}
-	e.StatedBFD, _ = r.number("bfd")
-	e.StatedEdge = r.positive("edge_thickness", "mm")
-	e.StatedWavelength = r.positive("stated_wavelength", "nm")
+	bfd, _ := r.number("bfd")
+	e.StatedBFD = r.within("bfd", bfd, focalLimit, true)
+	e.StatedEdge = r.ranged("edge_thickness", lengthLimit)
+	e.StatedWavelength = r.ranged("stated_wavelength", wavelengthLimit)
 	if v, ok := r.number("price"); ok && v < 0 {
 		r.fail("price", "must not be negative, not %s", formatFloat(v))
 	} else {
-		e.Price = v
+		e.Price = r.within("price", v, priceLimit, true)
 	}
 	e.Currency = r.text("currency")
 	e.URL = r.text("url")

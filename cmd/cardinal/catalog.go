@@ -279,8 +279,8 @@ func parseRange(s string) (catalog.Range, error) {
 	}{{lo, &r.Min}, {hi, &r.Max}} {
 		if t := strings.TrimSpace(side.text); t != "" {
 			v, err := strconv.ParseFloat(t, 64)
-			if err != nil || math.IsNaN(v) || math.IsInf(v, 0) {
-				return r, fmt.Errorf("%q is not a number of mm", t)
+			if err != nil || math.IsNaN(v) || math.IsInf(v, 0) || math.Abs(v) > 1e9 {
+				return r, fmt.Errorf("%q is not a finite number of mm (up to 1e9 in size); give MIN:MAX in mm, such as 45:55", t)
 			}
 			*side.v = v
 		}

@@ -44,7 +44,7 @@ func TestCatalogListFlags(t *testing.T) {
 			catalog.Filter{Suppliers: []string{"DEMO", "FICTA"}, Kinds: []string{"positive", "singlet"}, InDrawer: true}, ""},
 		{"efl not a range", []string{"--efl", "50"}, catalog.Filter{}, "MIN:MAX"},
 		{"efl backwards", []string{"--efl", "60:40"}, catalog.Filter{}, "above MAX"},
-		{"efl not a number", []string{"--efl", "a:b"}, catalog.Filter{}, "not a number"},
+		{"efl not a number", []string{"--efl", "a:b"}, catalog.Filter{}, "not a finite number"},
 		{"diameters backwards", []string{"--diameter-min", "30", "--diameter-max", "20"}, catalog.Filter{}, "min <= max"},
 		{"unknown kind", []string{"--kind", "round"}, catalog.Filter{}, "--kind"},
 		{"unknown format", []string{"--format", "xml"}, catalog.Filter{}, "--format"},

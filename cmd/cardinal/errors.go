@@ -96,8 +96,10 @@ func wantOf(f *pflag.Flag) string {
 	switch f.Value.Type() {
 	case "float64":
 		return "a finite number such as 2.5"
-	case "int":
+	case "int", "int64", "uint", "uint64":
 		return "a whole number"
+	case "intSlice", "uintSlice":
+		return "whole numbers separated by commas, such as 1,3"
 	case "float64Slice":
 		return "finite numbers separated by commas, such as 486.1,587.6"
 	case "bool":
@@ -115,6 +117,7 @@ func describe(err error) (string, int) {
 	var (
 		ce *cmdError
 		fe *flagError
+		ne *namedError
 		re *search.RequirementError
 		se *search.SpecError
 		nf *catalog.NotFoundError
@@ -131,6 +134,8 @@ func describe(err error) (string, int) {
 		return ce.Error(), ce.code
 	case errors.As(err, &fe):
 		return fe.Error(), exitUsage
+	case errors.As(err, &ne): // before re: the names the user gave
+		return ne.Error(), exitUsage
 	case errors.As(err, &re):
 		return re.RenderWith(flagName), exitUsage
 	case errors.As(err, &se):

@@ -1,6 +1,8 @@
 package main
 
 import (
+	"math"
+
 	"github.com/spf13/pflag"
 
 	"cardinal/search"
@@ -34,9 +36,24 @@ func (o fieldFlags) value(req search.Requirement) (float64, error) {
 	case set("object-height") && !finite:
 		return 0, usageErrorf("--object-height is for a finite object; this %s search has its object at infinity: give --field-angle in degrees", req.Kind)
 	case set("field-angle"):
-		return o.Angle, nil
+		return inRange("--field-angle", "field_angle_deg", o.Angle)
 	case set("object-height"):
-		return o.Height, nil
+		return inRange("--object-height", "object_height_mm", o.Height)
+	case set("field") && finite:
+		return inRange("--field", "object_height_mm", o.Former)
+	case set("field"):
+		return inRange("--field", "field_angle_deg", o.Former)
 	}
-	return o.Former, nil
+	return 0, nil
+}
+
+// inRange refuses a field edge outside the range find allows for the same
+// requirement key (search.Ranges), either sign.
+func inRange(flag, key string, v float64) (float64, error) {
+	for _, r := range search.Ranges() {
+		if r.Key == key && (math.Abs(v) < r.Min || math.Abs(v) > r.Max) {
+			return 0, usageErrorf("%s %g is outside %s; give a field edge in that range, or leave the flag out for the search's own", flag, v, r)
+		}
+	}
+	return v, nil
 }

@@ -8,6 +8,8 @@ import (
 
 	"github.com/spf13/cobra"
 	"github.com/spf13/pflag"
+
+	"cardinal/importers"
 )
 
 // commands builds the top-level commands, in the order help lists them.
@@ -40,11 +42,18 @@ Lengths are in mm, wavelengths in nm; light travels left to right (+z).
 Paraxial figures hold near the axis; check real-ray figures before you build.`,
 		SilenceUsage:  true,
 		SilenceErrors: true,
+		// cobra's own default; SuggestionsFor reads the field as it is.
+		SuggestionsMinimumDistance: 2,
 	}
 	root.SetOut(e.Out)
 	root.SetErr(e.Err)
 	root.SetIn(e.In)
 	root.SetFlagErrorFunc(func(c *cobra.Command, err error) error {
+		if !c.HasParent() && c.Flags().NArg() > 0 {
+			// "cardinal fnd --efl 50": the unknown word is the fault, not
+			// the flag after it.
+			return root.Args(c, c.Flags().Args())
+		}
 		return &flagError{c.CommandPath(), err}
 	})
 	// A word that is no command is our error, with cobra's suggestions.
@@ -66,7 +75,12 @@ Paraxial figures hold near the axis; check real-ray figures before you build.`,
 	addDBFlag(root)
 	addCompletions(root, e)
 	typedArgs(root)
-	root.PersistentPreRunE = checkNumbers
+	root.PersistentPreRunE = func(c *cobra.Command, args []string) error {
+		if err := checkNumbers(c, args); err != nil {
+			return err
+		}
+		return checkText(c, args)
+	}
 	return root
 }
 
@@ -123,6 +137,52 @@ func checkNumbers(c *cobra.Command, _ []string) error {
 		}
 	})
 	return bad
+}
+
+// checkText refuses, for every command, a word of the command line (an
+// argument or the value of a text flag) that holds a control character
+// (NUL, escape, ...): no part name, supplier, location, note or file name
+// needs one, and stored in the catalog it would break every table.
+func checkText(c *cobra.Command, args []string) error {
+	var bad error
+	c.Flags().Visit(func(f *pflag.Flag) {
+		var vs []string
+		switch v := f.Value.(type) {
+		case pflag.SliceValue:
+			vs = v.GetSlice()
+		default:
+			if f.Value.Type() == "string" {
+				vs = []string{f.Value.String()}
+			}
+		}
+		for _, s := range vs {
+			if bad == nil {
+				bad = controlError(c, "--"+f.Name, s)
+			}
+		}
+	})
+	if bad != nil {
+		return bad
+	}
+	for i, a := range args {
+		if err := controlError(c, fmt.Sprintf("argument %d", i+1), a); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
+// controlError says where s holds a control character, nil if nowhere.
+func controlError(c *cobra.Command, what, s string) error {
+	at, name, ok := importers.HasControl(s)
+	if !ok {
+		return nil
+	}
+	switch r := []rune(s)[at-1]; {
+	case r == '\n' || r == '\r':
+		return &flagError{c.CommandPath(), fmt.Errorf("%s holds a line break at character %d; give it on one line", what, at)}
+	}
+	return &flagError{c.CommandPath(), fmt.Errorf("%s holds the control character %s at character %d; type plain text", what, name, at)}
 }
 
 // execute runs the command line and returns the exit code; every message

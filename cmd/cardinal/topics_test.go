@@ -7,6 +7,8 @@ import (
 
 	"github.com/spf13/cobra"
 	"github.com/spf13/pflag"
+
+	"cardinal/importers"
 )
 
 // Every flag the glossary names exists on some command under that name, or
@@ -62,3 +64,18 @@ func TestFormerFlagNames(t *testing.T) {
 // unwrapped joins the continuation lines notef wraps (indented by two
 // spaces), so that tests can look for a message whatever the width.
 func unwrapped(s string) string { return strings.ReplaceAll(s, "\n  ", " ") }
+
+// The csv topic lists every limit of the input files as the readers check
+// it (importers.Limits): the help cannot drift from the readers.
+func TestCSVTopicLimits(t *testing.T) {
+	b, err := helpTopics.ReadFile("help/csv.txt")
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, l := range importers.Limits() {
+		row := "| " + l.What + " | " + l.String() + " |"
+		if !strings.Contains(string(b), row) {
+			t.Errorf("help/csv.txt lacks the row %q", row)
+		}
+	}
+}
