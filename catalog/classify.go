@@ -6,6 +6,7 @@ import (
 	"regexp"
 	"slices"
 	"strings"
+	"time"
 
 	"modernc.org/sqlite"
 	sqlite3 "modernc.org/sqlite/lib"
@@ -16,11 +17,12 @@ import (
 // changed.
 type BusyError struct {
 	Path string
+	Wait time.Duration // how long the write waited
 	Err  error
 }
 
 func (e *BusyError) Error() string {
-	return fmt.Sprintf("catalog %s is busy: another cardinal command (an import?) is writing it and did not finish within %s; nothing was changed here: retry when it has finished", e.Path, LockWait)
+	return fmt.Sprintf("catalog %s is busy: another cardinal command (an import?) is writing it and did not finish within %s; nothing was changed here: retry when it has finished", e.Path, e.Wait)
 }
 func (e *BusyError) Unwrap() error { return e.Err }
 
@@ -62,7 +64,7 @@ func (s *Store) wrapWriteError(err error) error {
 	}
 	switch sqliteCode(err) {
 	case sqlite3.SQLITE_BUSY, sqlite3.SQLITE_LOCKED:
-		return &BusyError{Path: s.path, Err: err}
+		return &BusyError{Path: s.path, Wait: s.wait, Err: err}
 	case sqlite3.SQLITE_READONLY, sqlite3.SQLITE_PERM, sqlite3.SQLITE_CANTOPEN:
 		return &OpenError{Path: s.path, Reason: "cannot be created or written here (read-only location or no permission); choose a writable path with --db or CARDINAL_DB", Err: err, ReadOnly: true}
 	case sqlite3.SQLITE_NOTADB:

@@ -10,6 +10,7 @@ import (
 	"os"
 	"path/filepath"
 	"strings"
+	"sync/atomic"
 	"syscall"
 	"time"
 )
@@ -26,6 +27,7 @@ const Memory = ":memory:"
 type Store struct {
 	db       *sql.DB
 	path     string
+	wait     time.Duration // how long a write waits for another writer
 	readOnly bool
 	reading  bool // opened by OpenRead: never creates a schema
 }
@@ -60,7 +62,7 @@ func openWith(path, mode string, reading bool) (*Store, error) {
 		// Every new connection to ":memory:" is a new, empty database: keep one.
 		db.SetMaxOpenConns(1)
 	}
-	s := &Store{db: db, path: path, readOnly: mode != "", reading: reading}
+	s := &Store{db: db, path: path, readOnly: mode != "", reading: reading, wait: LockWait()}
 	if err := s.prepare(context.Background()); err != nil {
 		db.Close()
 		return nil, err
@@ -82,15 +84,30 @@ func dsn(path string) string {
 	return dsnMode(path, "")
 }
 
-// LockWait is how long a write waits for another writer (an import in
-// another process) to finish before it gives up with a *BusyError.
-const LockWait = 30 * time.Second
+// DefaultLockWait is how long a write waits for another writer (an import
+// in another process) to finish before it gives up with a *BusyError,
+// unless SetLockWait says otherwise.
+const DefaultLockWait = 30 * time.Second
+
+// lockWait is the wait of the stores opened from now on, in nanoseconds.
+var lockWait atomic.Int64
+
+func init() { lockWait.Store(int64(DefaultLockWait)) }
+
+// LockWait is how long a write of a store opened now waits for another
+// writer before it gives up with a *BusyError.
+func LockWait() time.Duration { return time.Duration(lockWait.Load()) }
+
+// SetLockWait sets how long the writes of the stores opened from now on
+// wait for another writer (the command line's CARDINAL_LOCK_WAIT); a
+// store keeps the wait it was opened with.
+func SetLockWait(d time.Duration) { lockWait.Store(int64(max(d, 0))) }
 
 // dsnMode adds mode to the connection string: "" read-write, "ro" read
 // only, "ro-immutable" read only without locks for a file in a folder no
 // one can write (SQLite's immutable URI parameter).
 func dsnMode(path, mode string) string {
-	q := fmt.Sprintf("?_pragma=foreign_keys(1)&_pragma=busy_timeout(%d)&_pragma=cache_size(-65536)&_pragma=temp_store(2)&_pragma=mmap_size(268435456)&_txlock=immediate", LockWait.Milliseconds())
+	q := fmt.Sprintf("?_pragma=foreign_keys(1)&_pragma=busy_timeout(%d)&_pragma=cache_size(-65536)&_pragma=temp_store(2)&_pragma=mmap_size(268435456)&_txlock=immediate", LockWait().Milliseconds())
 	if path == Memory {
 		return Memory + q
 	}

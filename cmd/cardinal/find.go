@@ -389,7 +389,7 @@ func findIndexed(ctx context.Context, st *catalog.Store, req search.Requirement)
 
 // saveSearch stores the run and says its number on stderr. A run that
 // cannot be saved (a read-only catalog, another program holding the write
-// lock past catalog.LockWait) is still printed: the message says it was
+// lock past catalog.LockWait()) is still printed: the message says it was
 // not saved and why.
 func saveSearch(ctx context.Context, st *catalog.Store, e *env, s saved.Search) {
 	if st.ReadOnly() {

@@ -190,7 +190,10 @@ func controlError(c *cobra.Command, what, s string) error {
 func execute(args []string, e *env) int {
 	root := newRootCmd(e)
 	root.SetArgs(args)
-	err := root.Execute()
+	err := setLockWait(e)
+	if err == nil {
+		err = root.Execute()
+	}
 	msg, code := describe(err)
 	if err != nil {
 		notef(e, "cardinal: %s\n", msg)
