@@ -27,7 +27,7 @@ func TestInspectGhostFlags(t *testing.T) {
 		{"beam and waist", []string{"--ghosts", "--beam", "3", "--waist-in", "0.4"}, nil, "--ghosts needs the laser beam"},
 		{"with an NA", []string{"--ghosts", "--beam", "3", "--na", "0.1"}, nil, "do not apply"},
 		{"waist without --ghosts", []string{"--waist-in", "0.4"}, nil, "go with --ghosts"},
-		{"M^2 below 1", []string{"--ghosts", "--beam", "3", "--m2", "0.5"}, nil, "at least 1"},
+		{"M^2 below 1", []string{"--ghosts", "--beam", "3", "--m2", "0.5"}, nil, "--m2 0.5 is outside 1 to 1000"},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {

@@ -30,7 +30,7 @@ func TestInspectRayFlags(t *testing.T) {
 		{"object distance with a beam", []string{"--beam", "10", "--object-distance", "100"}, nil, "go with --na"},
 		{"field angle with an NA", []string{"--na", "0.1", "--field-angle", "1"}, nil, "its field is --object-height"},
 		{"power with an NA", []string{"--na", "0.1", "--power", "1"}, nil, "go with --beam"},
-		{"field angle of 95", []string{"--beam", "5", "--field-angle", "95"}, nil, "below 90"},
+		{"field angle of 95", []string{"--beam", "5", "--field-angle", "95"}, nil, "--field-angle 95 is outside 0 to 89.9 degrees"},
 		{"negative beam", []string{"--beam", "-5"}, nil, "positive number"},
 		{"band out of range", []string{"--beam", "5", "--band", "50"}, nil, "--band 50: want a wavelength of 150 to 20000 nm"},
 	}

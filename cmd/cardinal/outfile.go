@@ -2,10 +2,10 @@ package main
 
 import (
 	"errors"
-	"fmt"
 	"io"
 	"io/fs"
 	"os"
+	"path/filepath"
 )
 
 // openOutput opens the -o file, refusing to replace one that exists
@@ -22,16 +22,30 @@ func openOutput(e *env, path string, force bool) (io.WriteCloser, error) {
 	switch {
 	case errors.Is(err, fs.ErrExist):
 		return nil, usageErrorf("%s exists: add --force to replace it, or choose another name", path)
+	case errors.Is(err, fs.ErrNotExist):
+		return nil, usageErrorf("cannot write %s: the folder %s does not exist; create it or choose another path", path, filepath.Dir(path))
+	case errors.Is(err, fs.ErrPermission):
+		return nil, usageErrorf("cannot write %s: no permission to write there; choose another path", path)
 	case err != nil:
-		return nil, usageErrorf("cannot write %s: %v", path, err)
+		return nil, usageErrorf("cannot write %s (%s); choose another path", path, osReason(err))
 	}
 	return f, nil
+}
+
+// osReason is the system's reason for a failed file operation, without
+// the operation and path Go puts before it.
+func osReason(err error) string {
+	var pe *fs.PathError
+	if errors.As(err, &pe) {
+		return pe.Err.Error()
+	}
+	return err.Error()
 }
 
 // closeOutput closes the output and, for a file, says what was written.
 func closeOutput(e *env, w io.WriteCloser, path, what string) error {
 	if err := w.Close(); err != nil {
-		return fmt.Errorf("%s: %w", path, err)
+		return usageErrorf("could not finish writing %s (%s): the disk may be full or gone; free space, or choose another path, and retry", path, osReason(err))
 	}
 	if path != "" && path != "-" {
 		notef(e, "wrote %s to %s\n", what, path)

@@ -10,6 +10,7 @@ import (
 	"github.com/spf13/pflag"
 
 	"cardinal/importers"
+	"cardinal/search"
 )
 
 // commands builds the top-level commands, in the order help lists them.
@@ -128,8 +129,11 @@ func checkNumbers(c *cobra.Command, _ []string) error {
 			x, _ := strconv.ParseFloat(f.Value.String(), 64)
 			vs = append(vs, x)
 		}
+		r, ranged := flagRange(f.Name)
 		for _, x := range vs {
-			if a := math.Abs(x); math.IsNaN(x) || math.IsInf(x, 0) || a > 1e9 || a != 0 && a < 1e-9 {
+			if a := math.Abs(x); ranged && (math.IsNaN(x) || a > r.Max || a != 0 && a < r.Min) {
+				bad = &flagError{c.CommandPath(), fmt.Errorf("--%s %g is outside %s; give a number in that range", f.Name, x, r)}
+			} else if math.IsNaN(x) || math.IsInf(x, 0) || a > 1e9 || a != 0 && a < 1e-9 {
 				bad = &flagError{c.CommandPath(), fmt.Errorf("--%s %g: want a finite number between 1e-9 and 1e9 in size (or 0)", f.Name, x)}
 			} else if (f.Name == "wavelength" || f.Name == "band") && !(x >= 150 && x <= 20000) {
 				bad = &flagError{c.CommandPath(), fmt.Errorf("--%s %g: want a wavelength of 150 to 20000 nm (leave --wavelength out for the d line, 587.5618 nm)", f.Name, x)}
@@ -183,6 +187,22 @@ func controlError(c *cobra.Command, what, s string) error {
 		return &flagError{c.CommandPath(), fmt.Errorf("%s holds a line break at character %d; give it on one line", what, at)}
 	}
 	return &flagError{c.CommandPath(), fmt.Errorf("%s holds the control character %s at character %d; type plain text", what, name, at)}
+}
+
+// flagRange is the valid range of a number flag named as one of find's
+// (search.Ranges): --na, --beam, --field-angle and the others keep one
+// range in every command that takes them (find, inspect, draw, report).
+// Zero passes, for each command to read as it documents.
+func flagRange(name string) (search.Range, bool) {
+	if name == "wavelength" || name == "band" {
+		return search.Range{}, false // their own message below
+	}
+	for _, r := range search.Ranges() {
+		if flagKeys[r.Key] == "--"+name {
+			return r, true
+		}
+	}
+	return search.Range{}, false
 }
 
 // execute runs the command line and returns the exit code; every message

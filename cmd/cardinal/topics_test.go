@@ -1,6 +1,7 @@
 package main
 
 import (
+	"fmt"
 	"regexp"
 	"strings"
 	"testing"
@@ -9,6 +10,7 @@ import (
 	"github.com/spf13/pflag"
 
 	"cardinal/importers"
+	"cardinal/search"
 )
 
 // Every flag the glossary names exists on some command under that name, or
@@ -76,6 +78,21 @@ func TestCSVTopicLimits(t *testing.T) {
 		row := "| " + l.What + " | " + l.String() + " |"
 		if !strings.Contains(string(b), row) {
 			t.Errorf("help/csv.txt lacks the row %q", row)
+		}
+	}
+}
+
+// The finding topic lists the valid range of every requirement number as
+// the search checks it (search.Ranges).
+func TestFindingTopicRanges(t *testing.T) {
+	b, err := helpTopics.ReadFile("help/finding.txt")
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, r := range search.Ranges() {
+		row := fmt.Sprintf("| %s | `%s` | %s |", flagName(r.Key), r.Key, r)
+		if !strings.Contains(string(b), row) {
+			t.Errorf("help/finding.txt lacks the row %q", row)
 		}
 	}
 }
