@@ -80,6 +80,7 @@ func TestBadInputs(t *testing.T) {
 		{name: "request pick a word", args: []string{"request", "last", "--pick", "one"}, code: 2, want: []string{"--pick", "whole number"}},
 		{name: "request systems -1", args: []string{"request", "last", "--pick", "1", "--systems", "-1"}, code: 2, want: []string{"--systems", "1 or more"}},
 		{name: "draw field NaN", args: []string{"draw", "last", "--pick", "1", "--field-angle", "NaN", "-o", "{dir}/x.svg"}, code: 2, want: []string{"--field-angle", "is outside 0 to 89.9 degrees"}},
+		{name: "draw former --field NaN", args: []string{"draw", "last", "--pick", "1", "--field", "NaN", "-o", "{dir}/x.svg"}, code: 2, want: []string{"--field", "want a finite number"}},
 		{name: "draw field Inf", args: []string{"draw", "last", "--pick", "1", "--field-angle", "Inf", "-o", "{dir}/x.svg"}, code: 2, want: []string{"--field-angle", "is outside 0 to 89.9 degrees"}},
 		{name: "draw field 1e300", args: []string{"draw", "last", "--pick", "1", "--field-angle", "1e300", "-o", "{dir}/x.svg"}, code: 2, want: []string{"--field-angle", "is outside 0 to 89.9 degrees"}},
 		{name: "draw field 95 degrees", args: []string{"draw", "last", "--pick", "1", "--field-angle", "95", "-o", "{dir}/x.svg"}, code: 2, want: []string{"--field-angle", "degrees"}},
@@ -181,6 +182,10 @@ func TestBadInputs(t *testing.T) {
 		{name: "db lacks a table", catalog: dbDropTable("computed"), args: []string{"catalog", "list"}, code: 2, want: []string{"table computed is missing", "restore it from a backup"}},
 		{name: "db lacks the index, find", catalog: dbDropTable("search_index"), args: []string{"find", "--efl", "50"}, code: 2, want: []string{"search_index is missing", "restore it from a backup"}},
 		{name: "db newer than the program", catalog: dbNewer, args: []string{"catalog", "list"}, code: 2, want: []string{"newer version", "upgrade cardinal"}},
+	}
+	if _, err := os.Stat("/dev/full"); err == nil { // Linux: every write fails, the disk is full
+		cases = append(cases, badInput{name: "request to a full disk", args: []string{"request", "last", "--pick", "1", "-o", "/dev/full", "--force"},
+			code: 2, want: []string{"/dev/full", "no space left on device", "free space"}})
 	}
 	if len(cases) < 60 {
 		t.Fatalf("%d cases; issue 10 asks for at least 60", len(cases))

@@ -119,7 +119,7 @@ func runDraw(o *drawOptions) error {
 		return err
 	}
 	if err := sc.WriteSVG(w, drawing.DrawOptions{Field: field, Title: title}); err != nil {
-		w.Close()
+		discardOutput(w, o.Output)
 		return err
 	}
 	return closeOutput(e, w, o.Output, fmt.Sprintf("the layout of solution %d of search %d", s.Result.Rank, sv.ID))
@@ -137,7 +137,7 @@ func drawSpots(o *drawOptions, s solution.Solution, field float64, title string)
 		return err
 	}
 	if err := sp.WritePlot(w, title+": spots at best focus, through focus, and ray errors", o.format); err != nil {
-		w.Close()
+		discardOutput(w, o.Output)
 		return err
 	}
 	for k, set := range sp.Sets {

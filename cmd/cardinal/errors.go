@@ -3,6 +3,7 @@ package main
 import (
 	"errors"
 	"fmt"
+	"io/fs"
 
 	"github.com/spf13/pflag"
 
@@ -126,6 +127,7 @@ func describe(err error) (string, int) {
 		le importers.FileErrors
 		be *catalog.BusyError
 		rf *catalog.RefError
+		pe *fs.PathError
 	)
 	switch {
 	case err == nil:
@@ -151,6 +153,10 @@ func describe(err error) (string, int) {
 		return err.Error(), exitUsage
 	case errors.As(err, &ie), errors.As(err, &le):
 		return err.Error(), exitUsage
+	case errors.As(err, &pe):
+		// The system refused a file operation (a full disk, a closed
+		// pipe, a device): the machine's state, not a fault of cardinal.
+		return fmt.Sprintf("could not %s %s (%s): check the path, its permissions and the free space, and retry", pe.Op, pe.Path, pe.Err), exitUsage
 	}
 	return "internal error (a fault of cardinal, not of your input; please report it with the command you ran): " + err.Error(), exitInternal
 }

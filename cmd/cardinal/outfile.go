@@ -45,6 +45,7 @@ func osReason(err error) string {
 // closeOutput closes the output and, for a file, says what was written.
 func closeOutput(e *env, w io.WriteCloser, path, what string) error {
 	if err := w.Close(); err != nil {
+		discardOutput(w, path)
 		return usageErrorf("could not finish writing %s (%s): the disk may be full or gone; free space, or choose another path, and retry", path, osReason(err))
 	}
 	if path != "" && path != "-" {
@@ -56,3 +57,13 @@ func closeOutput(e *env, w io.WriteCloser, path, what string) error {
 type nopCloser struct{ io.Writer }
 
 func (nopCloser) Close() error { return nil }
+
+// discardOutput closes an output whose writing failed and removes the
+// file, so that no half-written file is left to be taken for a whole one.
+// Only a regular file is removed, never a device such as /dev/full.
+func discardOutput(w io.WriteCloser, path string) {
+	w.Close()
+	if st, err := os.Lstat(path); path != "" && path != "-" && err == nil && st.Mode().IsRegular() {
+		os.Remove(path)
+	}
+}

@@ -90,7 +90,7 @@ func runReport(o *reportOptions) error {
 		return err
 	}
 	if err := report.WriteReport(w, in); err != nil {
-		w.Close()
+		discardOutput(w, o.Output)
 		return fmt.Errorf("search %d: %w", sv.ID, err)
 	}
 	return closeOutput(e, w, o.Output, fmt.Sprintf("the report on search %d", sv.ID))

@@ -90,7 +90,7 @@ func runRequest(o *requestOptions) error {
 		return err
 	}
 	if err := writeRequest(o.env, w, o.Format, rq); err != nil {
-		w.Close()
+		discardOutput(w, o.Output)
 		return err
 	}
 	return closeOutput(o.env, w, o.Output, fmt.Sprintf("purchase request for search %d", sv.ID))

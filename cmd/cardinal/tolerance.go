@@ -224,7 +224,7 @@ func writeStudyPlot(o *toleranceOptions, req search.Requirement, st search.Study
 		return err
 	}
 	if err := plots.WriteStudyPlot(w, req, st, title, o.plotFormat); err != nil {
-		w.Close()
+		discardOutput(w, o.Plot)
 		return err
 	}
 	return closeOutput(o.env, w, o.Plot, "the histograms of the build study")
