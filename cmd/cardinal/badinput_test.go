@@ -30,6 +30,8 @@ type badInput struct {
 	// want are pieces of the message (stderr, wrapping undone): the thing
 	// at fault and what to do.
 	want []string
+	// vars are environment variables of the run.
+	vars map[string]string
 	// saves is true for a run that is meant to save itself (a search that
 	// met nothing is still a search, kept like any other): the catalog may
 	// change, and nothing else is relaxed.
@@ -181,6 +183,11 @@ func TestBadInputs(t *testing.T) {
 		{name: "db damaged mid-file, find", catalog: dbDamaged, args: []string{"find", "--efl", "50"}, code: 2, want: []string{"damaged", "restore it from a backup"}},
 		{name: "db lacks a table", catalog: dbDropTable("computed"), args: []string{"catalog", "list"}, code: 2, want: []string{"table computed is missing", "restore it from a backup"}},
 		{name: "db lacks the index, find", catalog: dbDropTable("search_index"), args: []string{"find", "--efl", "50"}, code: 2, want: []string{"search_index is missing", "restore it from a backup"}},
+		{name: "db locked by another writer, import", catalog: dbLocked, vars: map[string]string{"CARDINAL_LOCK_WAIT": "0.1"},
+			args: []string{"catalog", "import", "../../testdata/demo/lenses.csv"}, code: 2, want: []string{"is busy", "nothing was changed", "retry"}},
+		{name: "db locked by another writer, drawer set", catalog: dbLocked, vars: map[string]string{"CARDINAL_LOCK_WAIT": "0.1"},
+			args: []string{"drawer", "set", "DEMO:PCX-50", "--quantity", "4"}, code: 2, want: []string{"is busy", "nothing was changed", "retry"}},
+		{name: "lock wait a word", vars: map[string]string{"CARDINAL_LOCK_WAIT": "soon"}, args: []string{"catalog", "list"}, code: 2, want: []string{"CARDINAL_LOCK_WAIT", "0 to 3600"}},
 		{name: "db newer than the program", catalog: dbNewer, args: []string{"catalog", "list"}, code: 2, want: []string{"newer version", "upgrade cardinal"}},
 	}
 	if _, err := os.Stat("/dev/full"); err == nil { // Linux: every write fails, the disk is full
@@ -216,7 +223,7 @@ func runBadInput(t *testing.T, base string, tc badInput) {
 	for _, a := range tc.args {
 		args = append(args, strings.NewReplacer("{db}", db, "{dir}", dir).Replace(a))
 	}
-	e, out, errb := storeEnv(t, nil)
+	e, out, errb := storeEnv(t, tc.vars)
 	code := runCLI(e, args...)
 	msg := unwrapped(errb.String())
 	if code != tc.code {
@@ -362,3 +369,7 @@ func dbDamaged(t *testing.T, path string) {
 		t.Fatal(err)
 	}
 }
+
+// dbLocked holds the catalog's write lock from another connection for the
+// rest of the case, as a long import in another process does.
+func dbLocked(t *testing.T, path string) { holdWriteLock(t, path) }
