@@ -70,6 +70,7 @@ func TestBadInputs(t *testing.T) {
 		{name: "find elements 3", args: []string{"find", "--efl", "50", "--elements", "3"}, code: 2, want: []string{"--elements"}},
 		{name: "find format xml", args: []string{"find", "--efl", "50", "--format", "xml"}, code: 2, want: []string{`"xml"`, "use one of table, json, csv, md"}},
 		{name: "find unknown flag", args: []string{"find", "--efl", "50", "--focal", "3"}, code: 2, want: []string{"--focal", "cardinal find --help"}},
+		{name: "unknown letter flag", args: []string{"catalog", "export", "-o", "x.csv"}, code: 2, want: []string{"unknown flag -o ", "cardinal catalog export --help"}},
 		{name: "unknown command", args: []string{"fnd", "--efl", "50"}, code: 2, want: []string{"fnd", "did you mean find"}},
 		{name: "find nothing meets", args: []string{"find", "--efl", "90000", "--elements", "1"}, code: 4, want: []string{"nothing meets", "loosen"}, saves: true},
 		{name: "find supplier nobody has", args: []string{"find", "--efl", "50", "--supplier", "NOSUCH"}, code: 4, want: []string{"other supplier", "loosen"}, saves: true},

@@ -74,6 +74,9 @@ func flagText(err error) string {
 	switch {
 	case errors.As(err, &iv):
 		return fmt.Sprintf("--%s %q: want %s", iv.GetFlag().Name, iv.GetValue(), wantOf(iv.GetFlag()))
+	case errors.As(err, &nx) && nx.GetSpecifiedShortnames() != "":
+		// pflag names the one letter it does not know, from -xyz.
+		return fmt.Sprintf("unknown flag -%s", nx.GetSpecifiedName())
 	case errors.As(err, &nx):
 		return fmt.Sprintf("unknown flag %s", dashed(nx.GetSpecifiedName(), nx.GetSpecifiedShortnames()))
 	case errors.As(err, &vr):
