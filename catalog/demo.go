@@ -3,17 +3,26 @@ package catalog
 import (
 	"bytes"
 	"context"
+	"embed"
 	"errors"
 	"fmt"
 	"io/fs"
 
-	"cardinal"
 	"cardinal/importers"
 )
 
-// Files of the built-in demo catalog inside cardinal.Demo.
+// demoFiles holds the folder demo beside this file: the built-in demo
+// catalog, an invented scenario (invented suppliers, part numbers and
+// prices; realistic prescriptions), never real catalog data. It is
+// embedded so that every command works before the user has a catalog of
+// their own.
+//
+//go:embed demo
+var demoFiles embed.FS
+
+// Files of the built-in demo catalog inside demoFiles.
 const (
-	demoDir      = "testdata/demo"
+	demoDir      = "demo"
 	demoCatalog  = demoDir + "/catalog.csv"
 	demoLenses   = demoDir + "/lenses.csv" // the small first demo, used while catalog.csv is absent
 	demoDrawer   = demoDir + "/drawer.csv"
@@ -24,7 +33,17 @@ const (
 // data (an invented scenario): its glasses, parts and drawer. Every read
 // command uses it until the user has a catalog of their own.
 func OpenDemo() (*Store, error) {
-	return openDemoFS(cardinal.Demo)
+	return openDemoFS(demoFiles)
+}
+
+// DemoLenses returns the small demo prescription file (lenses.csv: the
+// DEMO parts, invented) that inspect reads when given no file.
+func DemoLenses() []byte {
+	b, err := fs.ReadFile(demoFiles, demoLenses)
+	if err != nil {
+		panic("catalog: reading the embedded demo: " + err.Error())
+	}
+	return b
 }
 
 func openDemoFS(demo fs.FS) (*Store, error) {

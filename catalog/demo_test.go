@@ -5,7 +5,6 @@ import (
 	"io/fs"
 	"testing"
 
-	"cardinal"
 	"cardinal/importers"
 )
 
@@ -13,15 +12,15 @@ func TestDemoImportsCleanly(t *testing.T) {
 	// The demo's stated EFL, BFD and edge thickness agree with its
 	// prescriptions, so it imports with no error and no warning.
 	name := demoCatalog
-	b, err := fs.ReadFile(cardinal.Demo, name)
+	b, err := fs.ReadFile(demoFiles, name)
 	if err != nil {
 		name = demoLenses
-		if b, err = fs.ReadFile(cardinal.Demo, name); err != nil {
+		if b, err = fs.ReadFile(demoFiles, name); err != nil {
 			t.Fatal(err)
 		}
 	}
 	s := newStore(t)
-	if g, err := fs.ReadFile(cardinal.Demo, demoGlassCSV); err == nil {
+	if g, err := fs.ReadFile(demoFiles, demoGlassCSV); err == nil {
 		glasses, err := importers.ReadGlasses(bytes.NewReader(g), demoGlassCSV)
 		if err != nil {
 			t.Fatal(err)

@@ -9,8 +9,6 @@ import (
 	"io/fs"
 	"os"
 	"path/filepath"
-
-	"cardinal"
 )
 
 // DemoVersion is a short hash of the embedded demo files: a kept demo
@@ -18,11 +16,11 @@ import (
 // data builds a fresh one instead of showing stale parts.
 func DemoVersion() string {
 	h := sha256.New()
-	err := fs.WalkDir(cardinal.Demo, demoDir, func(p string, d fs.DirEntry, err error) error {
+	err := fs.WalkDir(demoFiles, demoDir, func(p string, d fs.DirEntry, err error) error {
 		if err != nil || d.IsDir() {
 			return err
 		}
-		b, err := fs.ReadFile(cardinal.Demo, p)
+		b, err := fs.ReadFile(demoFiles, p)
 		fmt.Fprintf(h, "%s\x00%d\x00", p, len(b))
 		h.Write(b)
 		return err
@@ -64,7 +62,7 @@ func buildDemoFile(path string) error {
 	if err != nil {
 		return err
 	}
-	if err := s.loadDemo(context.Background(), cardinal.Demo); err != nil {
+	if err := s.loadDemo(context.Background(), demoFiles); err != nil {
 		s.Close()
 		return fmt.Errorf("built-in demo catalog: %w", err)
 	}

@@ -62,7 +62,7 @@ var inventedGlass = map[string]string{
 // demoEntries reads the demo catalog's neutral CSV.
 func demoEntries(t testing.TB) []record.Entry {
 	t.Helper()
-	data, err := os.ReadFile("../testdata/demo/catalog.csv")
+	data, err := os.ReadFile("../catalog/demo/catalog.csv")
 	if err != nil {
 		t.Fatal(err)
 	}

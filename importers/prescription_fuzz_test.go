@@ -14,7 +14,7 @@ import (
 // failed read always explains itself with FileErrors, and that whatever
 // reads cleanly survives a write and a second read unchanged.
 func FuzzReadPrescriptions(f *testing.F) {
-	demo, err := os.ReadFile("../testdata/demo/lenses.csv")
+	demo, err := os.ReadFile("../catalog/demo/lenses.csv")
 	if err != nil {
 		f.Fatal(err)
 	}

@@ -203,7 +203,7 @@ func TestStatedWavelengthUsed(t *testing.T) {
 
 // The demo file ships with stated values consistent with its prescriptions.
 func TestDemoFileImportsCleanly(t *testing.T) {
-	f, err := os.Open("../testdata/demo/lenses.csv")
+	f, err := os.Open("../catalog/demo/lenses.csv")
 	if err != nil {
 		t.Fatal(err)
 	}

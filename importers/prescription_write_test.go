@@ -43,7 +43,7 @@ func sameEntries(t *testing.T, got, want []record.Entry) {
 }
 
 func TestRoundTripDemo(t *testing.T) {
-	data, err := os.ReadFile("../testdata/demo/lenses.csv")
+	data, err := os.ReadFile("../catalog/demo/lenses.csv")
 	if err != nil {
 		t.Fatal(err)
 	}

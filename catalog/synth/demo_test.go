@@ -14,9 +14,9 @@ import (
 	"cardinal/optics"
 )
 
-var update = flag.Bool("update", false, "rewrite testdata/demo/catalog.csv, drawer.csv and glasses.csv from the generator")
+var update = flag.Bool("update", false, "rewrite catalog/demo/catalog.csv, drawer.csv and glasses.csv from the generator")
 
-var demoDir = filepath.Join("..", "..", "testdata", "demo")
+var demoDir = filepath.Join("..", "demo")
 
 const catalogHeader = `# cardinal demo catalog: an INVENTED scenario, written by catalog/synth
 # (regenerate with: go test ./catalog/synth -run TestDemoFiles -update).

@@ -10,7 +10,7 @@ import (
 
 // Currency is the code of every generated price: XTS, the ISO 4217 code
 // reserved for testing, so that no one mistakes a demo price for money (the
-// small demo file testdata/demo/lenses.csv uses it too).
+// small demo file catalog/demo/lenses.csv uses it too).
 const Currency = "XTS"
 
 // Notes is the note on every generated entry.

@@ -40,7 +40,7 @@ func runCLI(e *env, args ...string) int {
 	return execute(args, e)
 }
 
-const demoLensesCSV = "../../testdata/demo/lenses.csv"
+const demoLensesCSV = "../../catalog/demo/lenses.csv"
 
 func TestLocateCatalog(t *testing.T) {
 	for _, tc := range []struct {

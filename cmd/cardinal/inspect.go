@@ -13,7 +13,6 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"cardinal"
 	"cardinal/catalog"
 	"cardinal/catalog/record"
 	"cardinal/importers"
@@ -181,7 +180,7 @@ func loadInspectEntries(o *inspectOptions, glasses optics.GlassTable) ([]record.
 	var err error
 	if o.File == "" {
 		notef(o.env, "cardinal: no --file given: inspecting the built-in demo lenses (invented parts); use --file to read your own\n")
-		data, err = fs.ReadFile(cardinal.Demo, "testdata/demo/lenses.csv")
+		data = catalog.DemoLenses()
 	} else {
 		data, err = os.ReadFile(name)
 	}

@@ -68,12 +68,12 @@ func TestSheetFlags(t *testing.T) {
 var sheetGlassNames = map[string]string{"517642": "Vellum Crown", "620364": "Ardent Flint",
 	"fused-silica": "Silica Clear", "caf2": "Fluor Crystal", "583594": "Moulding Glass 58"}
 
-// demoLensSheet writes testdata/demo/lenses.csv as a supplier might: inches,
+// demoLensSheet writes catalog/demo/lenses.csv as a supplier might: inches,
 // radii as magnitudes with a shape, glasses by invented names, conic and
 // asphere terms in inch units.
 func demoLensSheet(t *testing.T) []byte {
 	t.Helper()
-	data, err := os.ReadFile("../../testdata/demo/lenses.csv")
+	data, err := os.ReadFile("../../catalog/demo/lenses.csv")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -204,7 +204,7 @@ func TestMappedImportRoundTrip(t *testing.T) {
 		}
 	}
 	run("--db", sheetDB, "catalog", "import", xlsx, "--map", colmap)
-	run("--db", csvDB, "catalog", "import", "../../testdata/demo/lenses.csv")
+	run("--db", csvDB, "catalog", "import", "../../catalog/demo/lenses.csv")
 	got, want := listJSON(t, sheetDB), listJSON(t, csvDB)
 	if len(got) != len(want) || len(want) != 13 {
 		t.Fatalf("%d parts from the sheet, %d from the CSV, want 13", len(got), len(want))
@@ -253,7 +253,7 @@ func TestPreviewFlagsWrongSigns(t *testing.T) {
 	for _, p := range pv.Disagree {
 		flagged[p.Part] = true
 	}
-	// The biconvex parts of testdata/demo/lenses.csv.
+	// The biconvex parts of catalog/demo/lenses.csv.
 	for _, part := range []string{"DCX-75", "BCX-30"} {
 		if !flagged[part] {
 			t.Errorf("biconvex %s not flagged; flagged %v", part, flagged)
