@@ -3,6 +3,7 @@ package main
 import (
 	"bytes"
 	"context"
+	"errors"
 	"fmt"
 	"math"
 	"strconv"
@@ -127,7 +128,7 @@ func runCatalogImport(co *catalogImportOptions) error {
 		notef(o.env, "cardinal: warning: %v\n", w)
 	}
 	if s == nil { // a new catalog, created only now that the file reads
-		if s, err = openForWrite(o.DB, o.env, true); err != nil {
+		if s, err = o.env.stores().Write(o.DB, true); err != nil {
 			return err
 		}
 		defer s.Close()
@@ -152,16 +153,10 @@ func runCatalogImport(co *catalogImportOptions) error {
 // input reads without error; a dry run then checks against an empty
 // in-memory catalog and creates nothing.
 func openForImport(flag string, e *env, dryRun bool) (*catalog.Store, error) {
-	loc, err := locateCatalog(flag, e)
-	if err != nil {
-		return nil, err
-	}
-	ok, err := loc.exists()
+	s, err := e.stores().Write(flag, false)
 	switch {
-	case err != nil:
-		return nil, err
-	case ok:
-		return openForWrite(flag, e, false)
+	case !errors.As(err, new(errNoCatalog)):
+		return s, err
 	case dryRun:
 		s, err := catalog.Open(catalog.Memory)
 		return s, catalogError(err)
@@ -304,7 +299,7 @@ func containsFold(list []string, s string) bool {
 }
 
 func runCatalogList(o *catalogListOptions) error {
-	s, err := openForRead(o.DB, o.env)
+	s, err := o.env.stores().Read(o.DB)
 	if err != nil {
 		return err
 	}
@@ -444,7 +439,7 @@ spreadsheet use 'catalog list --format csv', whose cells are made safe.`,
 
 func runCatalogExport(o *catalogExportOptions) error {
 	ctx := context.Background()
-	s, err := openForRead(o.DB, o.env)
+	s, err := o.env.stores().Read(o.DB)
 	if err != nil {
 		return err
 	}
@@ -512,7 +507,7 @@ func newCatalogRemoveCmd(e *env, run func(*catalogRemoveOptions) error) *cobra.C
 }
 
 func runCatalogRemove(o *catalogRemoveOptions) error {
-	s, err := openForWrite(o.DB, o.env, false)
+	s, err := o.env.stores().Write(o.DB, false)
 	if err != nil {
 		return err
 	}

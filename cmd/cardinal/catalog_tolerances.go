@@ -92,7 +92,7 @@ func (o *catalogTolerancesOptions) validate() error {
 func runCatalogTolerances(o *catalogTolerancesOptions) error {
 	ctx := context.Background()
 	if !o.changesAny {
-		st, err := openForRead(o.DB, o.env)
+		st, err := o.env.stores().Read(o.DB)
 		if err != nil {
 			return err
 		}
@@ -103,7 +103,7 @@ func runCatalogTolerances(o *catalogTolerancesOptions) error {
 		}
 		return render(o.env, o.env.Out, o.out, tolerancesTable(t), tolerancesDoc(t))
 	}
-	st, err := openForWrite(o.DB, o.env, false)
+	st, err := o.env.stores().Write(o.DB, false)
 	if err != nil {
 		return err
 	}

@@ -121,7 +121,7 @@ func openForWrite(flag string, e *env, create bool) (*catalog.Store, error) {
 		return nil, err
 	}
 	if !ok && !create {
-		return nil, notFoundErrorf("no catalog at %s yet: import one first with 'cardinal catalog import FILE'", loc.Path)
+		return nil, &cmdError{exitNotFound, errNoCatalog{loc.Path}}
 	}
 	if !ok {
 		if err := prepareDir(loc); err != nil {
@@ -129,6 +129,13 @@ func openForWrite(flag string, e *env, create bool) (*catalog.Store, error) {
 		}
 	}
 	return catalog.Open(loc.Path)
+}
+
+// errNoCatalog says that the catalog to change does not exist yet.
+type errNoCatalog struct{ path string }
+
+func (e errNoCatalog) Error() string {
+	return fmt.Sprintf("no catalog at %s yet: import one first with 'cardinal catalog import FILE'", e.path)
 }
 
 // prepareDir creates the default data directory; a directory the user
@@ -191,7 +198,7 @@ func readInputFile(name string, e *env) ([]byte, error) {
 // catalog.ResolvePart (the same as inspect --file --part); every name the
 // catalog lacks is reported with close names.
 func catalogEntries(flag string, e *env, names []string) ([]record.Entry, error) {
-	s, err := openForRead(flag, e)
+	s, err := e.stores().Read(flag)
 	if err != nil {
 		return nil, err
 	}

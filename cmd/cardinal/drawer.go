@@ -44,7 +44,7 @@ func runDrawerImport(o *importOptions) error {
 	for _, w := range f.Warnings {
 		notef(o.env, "cardinal: warning: %v\n", w)
 	}
-	s, err := openForWrite(o.DB, o.env, false)
+	s, err := o.env.stores().Write(o.DB, false)
 	if err != nil {
 		return err
 	}
@@ -111,7 +111,7 @@ argument or --quantity N; 0 when none are left.`,
 }
 
 func runDrawerSet(o *drawerSetOptions) error {
-	s, err := openForWrite(o.DB, o.env, false)
+	s, err := o.env.stores().Write(o.DB, false)
 	if err != nil {
 		return err
 	}
@@ -167,7 +167,7 @@ type drawerEntry struct {
 
 func runDrawerList(o *drawerListOptions) error {
 	ctx := context.Background()
-	s, err := openForRead(o.DB, o.env)
+	s, err := o.env.stores().Read(o.DB)
 	if err != nil {
 		return err
 	}

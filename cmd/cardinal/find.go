@@ -326,7 +326,7 @@ type findOutput struct {
 
 func runFind(o *findOptions) error {
 	e := o.env
-	st, err := openForRead(o.db, e)
+	st, err := e.stores().Read(o.db)
 	if err != nil {
 		return err
 	}

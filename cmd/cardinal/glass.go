@@ -56,7 +56,7 @@ func runGlassImport(o *importOptions) error {
 	}
 	s, err := openForImport(o.DB, o.env, o.DryRun)
 	if err == nil && s == nil {
-		s, err = openForWrite(o.DB, o.env, true)
+		s, err = o.env.stores().Write(o.DB, true)
 	}
 	if err != nil {
 		return err
@@ -124,7 +124,7 @@ type listedGlass struct {
 }
 
 func runGlassList(o *glassListOptions) error {
-	s, err := openForRead(o.DB, o.env)
+	s, err := o.env.stores().Read(o.DB)
 	if err != nil {
 		return err
 	}

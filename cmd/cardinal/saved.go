@@ -56,7 +56,7 @@ func openShelf(e *env, db string, ref saved.Ref) (*shelf, error) {
 		}
 		return &shelf{Book: saved.New(st), st: st, Demo: true}, nil
 	}
-	st, err := openForRead(db, e)
+	st, err := e.stores().Read(db)
 	if err != nil {
 		return nil, err
 	}

@@ -77,7 +77,7 @@ func runMappedImport(o *catalogImportOptions) error {
 		notef(o.env, "cardinal: warning: %v\n", w)
 	}
 	if s == nil {
-		if s, err = openForWrite(o.DB, o.env, true); err != nil {
+		if s, err = o.env.stores().Write(o.DB, true); err != nil {
 			return err
 		}
 		defer s.Close()
@@ -445,7 +445,7 @@ take the name of a glass. 'glass aliases' lists them.`,
 
 func runGlassAlias(o *glassAliasOptions) error {
 	ctx := context.Background()
-	s, err := openForWrite(o.DB, o.env, !o.Remove)
+	s, err := o.env.stores().Write(o.DB, !o.Remove)
 	if err != nil {
 		return err
 	}
