@@ -178,7 +178,7 @@ func TestBadInputs(t *testing.T) {
 		{name: "db empty, list", catalog: dbEmptied, args: []string{"catalog", "list"}, code: 3, want: []string{"empty file", "cardinal catalog import FILE"}},
 		{name: "db SQLite without tables, list", catalog: dbNoTables, args: []string{"catalog", "list"}, code: 3, want: []string{"without tables", "cardinal catalog import FILE"}},
 		{name: "db of another program", catalog: dbForeign, args: []string{"catalog", "list"}, code: 2, want: []string{"another program", "choose another file"}},
-		{name: "db of another program, import", catalog: dbForeign, args: []string{"catalog", "import", "../../testdata/demo/lenses.csv"}, code: 2, want: []string{"another program", "choose another file"}},
+		{name: "db of another program, import", catalog: dbForeign, args: []string{"catalog", "import", demoLensesCSV}, code: 2, want: []string{"another program", "choose another file"}},
 		{name: "db a text file", catalog: dbText, args: []string{"find", "--efl", "50"}, code: 2, want: []string{"not an SQLite database", "choose another file"}},
 		{name: "db damaged mid-file, list", catalog: dbDamaged, args: []string{"catalog", "list"}, code: 2, want: []string{"damaged", "restore it from a backup"}},
 		{name: "db damaged mid-file, find", catalog: dbDamaged, args: []string{"find", "--efl", "50"}, code: 2, want: []string{"damaged", "restore it from a backup"}},
