@@ -21,10 +21,11 @@ func biconvex(t *testing.T, r, d float64) record.Entry {
 		Surfaces: []optics.Surface{optics.Sphere(r), optics.Sphere(-r)}, Thickness: []float64{d}, Media: []optics.Medium{g}}}
 }
 
-// The first-order figures of a thick lens against the lensmaker's equation
-// and the focal distances of a thick lens in air (E. Hecht, Optics, 5th
-// ed., eqs. 6.2 to 6.4): 1/f = (n-1)[1/R1 - 1/R2 + (n-1)d/(n R1 R2)],
-// BFD = f - f(n-1)d/(n R1), FFD = -(f + f(n-1)d/(n R2)).
+// The first-order figures of a thick lens in air against the thick-lens
+// equations (E. Hecht, Optics, 5th ed., eq. 6.2 for the focal length,
+// eqs. 6.3 and 6.4 for the principal planes): 1/f = (n-1)[1/R1 - 1/R2 +
+// (n-1)d/(n R1 R2)], h1 = -f(n-1)d/(n R2), h2 = -f(n-1)d/(n R1), so that
+// BFD = f + h2 and FFD = -(f - h1).
 func TestInspectThickLens(t *testing.T) {
 	const r1, r2, d, n = 50.0, -50.0, 6.0, 1.517
 	f := 1 / ((n - 1) * (1/r1 - 1/r2 + (n-1)*d/(n*r1*r2)))
