@@ -37,7 +37,7 @@ func TestGaussianThinLensFocus(t *testing.T) {
 func TestGaussianThroughPlate(t *testing.T) {
 	// A plane-parallel plate of thickness t and index n moves a focus
 	// (ray or beam) away by t (1 - 1/n) (Smith, Modern Optical Engineering,
-	// 4th ed., ch. 4 on plane-parallel plates; Siegman 1986, ch. 20: the
+	// 4th ed., on plane-parallel plates, from memory for the chapter; Siegman 1986, ch. 20: the
 	// reduced distance t/n), and the waist size is unchanged.
 	n, thick := 1.5, 10.0
 	plate := System{Surfaces: []Surface{{}, {}}, Gaps: []float64{thick}, Media: []Medium{Constant{"n", n}}}

@@ -49,7 +49,7 @@ func TestGullstrand(t *testing.T) {
 	// Gullstrand's equation for two systems in air separated by e between
 	// the first's back principal plane and the second's front one:
 	// phi = phi1 + phi2 - e phi1 phi2 (Hecht, Optics, 5th ed., sec. 6.2.1;
-	// Smith, Modern Optical Engineering, 4th ed., ch. 2).
+	// Smith, Modern Optical Engineering, 4th ed., sec. 4.1).
 	rng := rand.New(rand.NewPCG(3, 4))
 	for i := 0; i < 1000; i++ {
 		a := singlet(singletArgs(randomSinglet(rng)))
@@ -178,7 +178,8 @@ func TestReversal(t *testing.T) {
 
 func TestThinLensLimit(t *testing.T) {
 	// As the thickness goes to zero, EFL tends to the thin-lens lensmaker's
-	// value and the principal points to the vertices (Hecht ch. 5).
+	// value and the principal points to the vertices (Hecht, Optics, 5th
+	// ed., sec. 5.2.3).
 	n, r1, r2 := 1.5, 60.0, -90.0
 	f0 := 1 / ((n - 1) * (1/r1 - 1/r2))
 	c := singlet(r1, r2, 1e-7, n, 10).System(nil, nil).Cardinal(LineD)

@@ -17,7 +17,7 @@ func mustGlass(t *testing.T, code string) Medium {
 func TestSingletAxialColour(t *testing.T) {
 	// A thin lens's longitudinal chromatic aberration between F and C is
 	// f/V, the F focus nearer (Smith, Modern Optical Engineering, 4th ed.,
-	// ch. 3; Welford 1986: CL = y^2 phi / V for a thin lens); the Seidel
+	// sec. 5.3; Welford 1986: CL = y^2 phi / V for a thin lens); the Seidel
 	// form agrees with the paraxial focus difference to first order in the
 	// dispersion.
 	glass := mustGlass(t, "517642")
@@ -43,8 +43,8 @@ func TestSingletAxialColour(t *testing.T) {
 
 // achromat builds a cemented doublet of power phi from a crown and a
 // flint glass code, split by the thin-lens achromat condition
-// phi1/V1 + phi2/V2 = 0 (Smith, Modern Optical Engineering, 4th ed., ch. 3;
-// Hecht, Optics, 5th ed., ch. 6): phi1 = phi V1/(V1 - V2),
+// phi1/V1 + phi2/V2 = 0 (Smith, Modern Optical Engineering, 4th ed., sec. 5.3;
+// Hecht, Optics, 5th ed., sec. 6.3.2): phi1 = phi V1/(V1 - V2),
 // phi2 = -phi V2/(V1 - V2); the crown equiconvex.
 func achromat(t *testing.T, phi, t1, t2 float64) System {
 	crown, flint := mustGlass(t, "517642"), mustGlass(t, "620364")

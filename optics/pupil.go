@@ -18,7 +18,7 @@ type Aperture struct {
 	// for a finite object it is the image-side working f-number
 	// 1 / (2 NA'), and the object NA follows as |m| NA' (Lagrange
 	// invariant, paraxially; Smith, Modern Optical Engineering, 4th ed.,
-	// ch. 6).
+	// sec. 4.2).
 	FNumber float64
 }
 
@@ -124,7 +124,7 @@ func (s System) fNumberRadius(obj Object, p Pupil, n []float64, wl float64) (flo
 		return 0, errors.New("an f-number means nothing for an afocal system; give a beam diameter")
 	}
 	if obj.AtInfinity() {
-		return math.Abs(c.EFL) / (2 * obj.Aperture.FNumber), nil // N = f / D (Smith, Modern Optical Engineering, 4th ed., ch. 6)
+		return math.Abs(c.EFL) / (2 * obj.Aperture.FNumber), nil // N = f / D (common practice)
 	}
 	_, mag, st := c.Image(obj.Z)
 	if st != Solved || mag == 0 {

@@ -103,7 +103,7 @@ func TestPlanoConvexOrientationRatio(t *testing.T) {
 	// A plano-convex lens focusing a collimated beam has far less
 	// spherical aberration with its curved side toward the beam: for
 	// n = 1.5 the third-order ratio is 36 / 9.33, about 4 (common
-	// practice; Smith, Modern Optical Engineering, from memory; the values
+	// practice; Smith, Modern Optical Engineering, 4th ed., from memory; the values
 	// follow from the shape-factor formula above with B = -1 and +1).
 	curvedFirst, _ := thinLens(1.5, 0.01, 1).Seidel(thinObject(0.01, 0, 10), 0, LineD, LineF, LineC)
 	flatFirst, _ := thinLens(1.5, 0.01, -1).Seidel(thinObject(0.01, 0, 10), 0, LineD, LineF, LineC)
@@ -179,7 +179,7 @@ func TestConicSphericalSum(t *testing.T) {
 	// The aspheric contribution cancels the sphere's S1 for the Cartesian
 	// ellipsoid k = -1/n^2 at infinite conjugate, which real rays show
 	// free of spherical aberration (TestCartesianEllipsoid; Hecht, Optics,
-	// ch. 5).
+	// 5th ed., sec. 5.2.1).
 	for _, n := range []float64{1.5, 1.7} {
 		sys := surfaceSystem(Surface{Radius: 20, Conic: -1 / (n * n)}, 1, n)
 		sd, err := sys.Seidel(Object{Z: math.Inf(-1), Aperture: Aperture{Beam: 10}}, 0, LineD, LineF, LineC)

@@ -25,7 +25,7 @@ func assessAt(t *testing.T, sys System, beam, field float64, band []float64) Qua
 var fdc = []float64{LineF, LineD, LineC}
 
 // A thin singlet's longitudinal chromatic aberration is f / V (Smith,
-// Modern Optical Engineering, 4th ed., ch. 3; Hecht, Optics, 5th ed.,
+// Modern Optical Engineering, 4th ed., sec. 5.3; Hecht, Optics, 5th ed.,
 // sec. 6.3.2): f 100 mm in glass of V 64.2 moves the focus about 1.56 mm
 // between F and C. A 20 mm beam (f/5) has a Rayleigh depth of focus of
 // +-2 lambda N^2 = +-0.03 mm (Smith, ch. 6, from memory), so no plane
@@ -91,7 +91,7 @@ func TestAchromatColourVerdict(t *testing.T) {
 // A field-limited result says so. A thin lens with the stop at the lens
 // puts its tangential and sagittal foci f theta^2 apart (the field
 // curvatures (3n+1)/(n f) and (n+1)/(n f); Smith, Modern Optical
-// Engineering, 4th ed., ch. 3, from memory): 3 mm at 10 degrees, far
+// Engineering, 4th ed., ch. 6, from memory): 3 mm at 10 degrees, far
 // beyond the +-0.7 mm depth of focus at f/25; at half a degree 0.008 mm,
 // far within it.
 func TestFieldEdgeVerdict(t *testing.T) {

@@ -8,7 +8,8 @@ import (
 
 func TestWavefrontPerfectFocus(t *testing.T) {
 	// The Cartesian ellipsoid focuses a plane wave perfectly (Hecht,
-	// Optics, ch. 5): every path to the focus is equal (Fermat).
+	// Optics, 5th ed., sec. 5.2.1): every path to the focus is equal
+	// (Fermat).
 	n := 1.5
 	sys := surfaceSystem(Surface{Radius: 20, Conic: -1 / (n * n)}, 1, n)
 	b, err := sys.Bundle(Object{Z: math.Inf(-1), Aperture: Aperture{Beam: 16}}, 0, LineD, Hexapolar(8))

@@ -41,7 +41,8 @@ func TestInspectThickLens(t *testing.T) {
 			{"BFD", *got.BFDMm, bfd},
 			{"FFD", *got.FFDMm, ffd},
 			// In air the nodal points lie on the principal points (Hecht,
-			// sec. 6.1); for an equi-convex lens they sit symmetrically.
+			// Optics, 5th ed., sec. 6.1); for an equi-convex lens they sit
+			// symmetrically.
 			{"N - P", *got.NodalMm - *got.PrincipalMm, 0},
 			{"P + P'", *got.PrincipalMm + *got.PrincipalPrimeMm, 0},
 			{"length", got.LengthMm, d},
@@ -84,7 +85,8 @@ func TestRayConditionsMinusOne(t *testing.T) {
 		}
 	}
 	// An object given inside the focal length has a virtual image: no real
-	// focus to judge (the Gaussian lens formula, Hecht sec. 5.2.3).
+	// focus to judge (the Gaussian lens formula, Hecht, Optics, 5th ed.,
+	// sec. 5.2.3).
 	if _, _, err := (RaySetting{NA: 0.05, ObjectDistance: 0.5 * c.EFL}).Conditions(c, optics.LineD); err == nil || !strings.Contains(err.Error(), "not real") {
 		t.Errorf("object inside f: error %v, want a virtual image refused", err)
 	}

@@ -105,7 +105,7 @@ func bandWavefronts(js []optics.Judged) []BandWavefront {
 // (shift / 2) tan U', and a uniformly filled disc of radius r has RMS
 // radius r / sqrt 2 (geometry, derived here; the blur-circle estimate of
 // longitudinal colour as in Smith, Modern Optical Engineering, 4th ed.,
-// ch. 3, from memory). sin U' = NA' comes from the Airy radius,
+// sec. 5.3, from memory). sin U' = NA' comes from the Airy radius,
 // NA' = 0.61 lambda / A. 0 without a focal shift.
 func (q ImageQuality) ColourBlur(wavelengthNm float64) float64 {
 	if q.FocalShift == nil {

@@ -33,8 +33,8 @@ func thinLensSpherical(n, b, c float64) float64 {
 
 // Focusing a collimated beam, a plano-convex lens has far less spherical
 // aberration with its curved side toward the beam (common practice; about
-// four times less for n = 1.5, Smith, Modern Optical Engineering, from
-// memory): the real-ray stage ranks that orientation first although both
+// four times less for n = 1.5, Smith, Modern Optical Engineering, 4th ed.,
+// from memory): the real-ray stage ranks that orientation first although both
 // tie on first order, and the ratio of their RMS spots at best focus (which
 // third-order spherical makes proportional to the coefficient) matches the
 // thin-lens ratio at f/10.
@@ -164,9 +164,9 @@ func TestResultFigures(t *testing.T) {
 				}
 				if len(tt.band) > 1 && q.WavefrontRMS <= 0.07 && q.DiffractionLimitedWhy != optics.LimitedColour {
 					// f 100 mm of V 64.2 at f/10: a 1.5 mm F-C shift (f/V,
-					// Smith, Modern Optical Engineering, 4th ed., ch. 3)
+					// Smith, Modern Optical Engineering, 4th ed., sec. 5.3)
 					// against a depth of focus of +-2 lambda N^2 = +-0.12 mm
-					// (Smith, ch. 6, from memory).
+					// (Smith, 4th ed., ch. 6, from memory).
 					t.Errorf("over F, d, C: %q, want %q", q.DiffractionLimitedWhy, optics.LimitedColour)
 				}
 				b, _ := json.Marshal(r)

@@ -78,7 +78,8 @@ func newLayout(s Spec) (*layout, error) {
 	d := s.Diameter
 	if s.Kind != Achromat {
 		// Thin-lens lensmaker's equation phi = (n - 1)(c1 - c2) (Hecht,
-		// Optics, ch. 6) with the shape factor q = (c1 + c2)/(c1 - c2).
+		// Optics, 5th ed., sec. 5.2.3) with the shape factor
+		// q = (c1 + c2)/(c1 - c2).
 		k := phi / (g1.nd - 1)
 		q := s.Kind.shapeFactor(g1.nd)
 		ctMin := edgeMin(d)
@@ -94,8 +95,8 @@ func newLayout(s Spec) (*layout, error) {
 // achromatLayout splits the power between crown and flint so that the
 // thin-lens achromat condition phi1/V1 + phi2/V2 = 0 holds with
 // phi1 + phi2 = phi: phi1 = phi V1/(V1 - V2), phi2 = -phi V2/(V1 - V2)
-// (Hecht, Optics, 5th ed., ch. 6, thin achromatic doublets; Smith, Modern Optical
-// Engineering, ch. 5).
+// (Hecht, Optics, 5th ed., sec. 6.3.2, thin achromatic doublets; Smith,
+// Modern Optical Engineering, 4th ed., sec. 5.3).
 func achromatLayout(s Spec, g1 glassInfo, phi float64) (*layout, error) {
 	g2, err := lookupGlass(s.Flint)
 	if err != nil {

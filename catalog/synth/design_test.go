@@ -44,10 +44,10 @@ func TestDesignSinglets(t *testing.T) {
 			// The radii are rounded to four significant figures, which
 			// moves the EFL by far less than the 1 % stock tolerance; 0.1 %
 			// is asked here.
-			checkNear(t, "thick-lens EFL (Hecht eq. 6.2)", efl, tc.spec.EFL, 0, 1e-3)
+			checkNear(t, "thick-lens EFL (Hecht, Optics, 5th ed., eq. 6.2)", efl, tc.spec.EFL, 0, 1e-3)
 			c := p.System(nil, nil).Cardinal(optics.LineD)
 			checkNear(t, "optics EFL", c.EFL, efl, 0, 1e-9)
-			checkNear(t, "optics BFD (Hecht eq. 6.4)", c.BFD(), bfd, 1e-9, 1e-9)
+			checkNear(t, "optics BFD = f + h2 (Hecht, Optics, 5th ed., eqs. 6.2 and 6.4)", c.BFD(), bfd, 1e-9, 1e-9)
 			checkThickness(t, tc.spec, p)
 		})
 	}
@@ -103,7 +103,8 @@ func TestShapes(t *testing.T) {
 			t.Errorf("R1 %g, R2 %g: want convex then flat", r1, r2)
 		}
 		// A plano-convex lens with its flat side out has f = R/(n-1)
-		// whatever its thickness (Hecht eq. 6.2 with R2 infinite).
+		// whatever its thickness (Hecht, Optics, 5th ed., eq. 6.2 with R2
+		// infinite).
 		checkNear(t, "R1", r1, 0.517*100, 0.005, 0)
 	})
 	t.Run("plano-concave", func(t *testing.T) {
@@ -155,7 +156,8 @@ func TestAchromat(t *testing.T) {
 				sys := p.System(nil, nil)
 				checkNear(t, "EFL", sys.Cardinal(optics.LineD).EFL, f, 0, 1e-3)
 				// A singlet of the same power has fC - fF = f/V (Hecht, Optics,
-				// sec. 6.3.2; Smith, Modern Optical Engineering, ch. 5).
+				// 5th ed., sec. 6.3.2; Smith, Modern Optical Engineering, 4th ed.,
+				// sec. 5.3).
 				// The thin-lens achromat brings the C and F foci together;
 				// the thick one keeps a residue far below that.
 				v := (p.Media[0].Index(optics.LineD) - 1) / (p.Media[0].Index(optics.LineF) - p.Media[0].Index(optics.LineC))

@@ -35,7 +35,8 @@ func (k Kind) Positive() bool {
 
 // shapeFactor is the Coddington shape factor q = (c1 + c2)/(c1 - c2) of a
 // singlet of this kind in glass of index n (W. J. Smith, Modern Optical
-// Engineering, 4th ed., ch. 6; Hecht, Optics, 5th ed., ch. 6): 0 is equiconvex or
+// Engineering, 4th ed., sec. 5.4, from memory for the section; Hecht,
+// Optics, 5th ed., sec. 6.3.1): 0 is equiconvex or
 // equiconcave, +1 puts the flat side second; beyond 1 the lens is a meniscus.
 func (k Kind) shapeFactor(n float64) float64 {
 	switch k {
@@ -46,7 +47,7 @@ func (k Kind) shapeFactor(n float64) float64 {
 	case BestForm:
 		// Least spherical aberration for an object at infinity:
 		// q = 2 (n^2 - 1) / (n + 2) (thin-lens third-order theory; Hecht,
-		// Optics, 4th ed., sec. 6.3.1, from memory).
+		// Optics, 5th ed., sec. 6.3.1, from memory).
 		return 2 * (n*n - 1) / (n + 2)
 	case PositiveMeniscus:
 		return 2.5

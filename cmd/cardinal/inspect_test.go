@@ -222,8 +222,8 @@ func TestInspectJSONKeys(t *testing.T) {
 }
 
 // The command's figures agree with textbook formulas (E. Hecht, Optics, 5th
-// ed., sec. 6.2, thick lenses; principal planes h1 = -f (n-1) d/(n R2),
-// h2 = -f (n-1) d/(n R1)). The fixture's TEST:PCX is R1 = 25.84 mm, flat,
+// ed., sec. 6.1, thick lenses; principal planes, eqs. 6.3 and 6.4:
+// h1 = -f (n-1) d/(n R2), h2 = -f (n-1) d/(n R1)). The fixture's TEST:PCX is R1 = 25.84 mm, flat,
 // d = 5.3 mm, glass code 517642, whose nd is 1.517 by definition of the code.
 func TestInspectAgainstFormulas(t *testing.T) {
 	const r, d, n = 25.84, 5.3, 1.517
