@@ -185,7 +185,7 @@ func TestBadInputs(t *testing.T) {
 		{name: "db lacks a table", catalog: dbDropTable("computed"), args: []string{"catalog", "list"}, code: 2, want: []string{"table computed is missing", "restore it from a backup"}},
 		{name: "db lacks the index, find", catalog: dbDropTable("search_index"), args: []string{"find", "--efl", "50"}, code: 2, want: []string{"search_index is missing", "restore it from a backup"}},
 		{name: "db locked by another writer, import", catalog: dbLocked, vars: map[string]string{"CARDINAL_LOCK_WAIT": "0.1"},
-			args: []string{"catalog", "import", "../../testdata/demo/lenses.csv"}, code: 2, want: []string{"is busy", "nothing was changed", "retry"}},
+			args: []string{"catalog", "import", "../../catalog/demo/lenses.csv"}, code: 2, want: []string{"is busy", "nothing was changed", "retry"}},
 		{name: "db locked by another writer, drawer set", catalog: dbLocked, vars: map[string]string{"CARDINAL_LOCK_WAIT": "0.1"},
 			args: []string{"drawer", "set", "DEMO:PCX-50", "--quantity", "4"}, code: 2, want: []string{"is busy", "nothing was changed", "retry"}},
 		{name: "lock wait a word", vars: map[string]string{"CARDINAL_LOCK_WAIT": "soon"}, args: []string{"catalog", "list"}, code: 2, want: []string{"CARDINAL_LOCK_WAIT", "0 to 3600"}},
