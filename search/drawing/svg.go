@@ -14,7 +14,7 @@ import (
 )
 
 // Colours and sizes of the drawing, our own choice; rays are drawn in the
-// colour of their wavelength (WavelengthColour).
+// colour of their wavelength (wavecolour.Of).
 const (
 	colourGlass    = "#cfe3f3"
 	colourSurface  = "#1d3b57"

@@ -46,7 +46,7 @@ var (
 // across the pupil, meridional solid and sagittal dashed. An afocal
 // solution has no focus: its rows show the output directions and the
 // direction errors. Each wavelength is drawn in its own colour
-// (WavelengthColour), every tick label in one number format (tickLabel).
+// (wavecolour.Of), every tick label in one number format (tickLabel).
 func (sp Spots) WritePlot(w io.Writer, title, format string) error {
 	cols := 3
 	if sp.Angular {

@@ -71,11 +71,11 @@ func encodeSRGB(c float64) float64 {
 // brighter colour keeps its hue and is darkened to it (our choice).
 const maxInk = 0.3
 
-// Of is the colour that light of a wavelength is drawn
-// with in every plot and drawing. A visible wavelength (380-780 nm) gets
-// its own hue: its CIE 1931 colour (cieXYZ) in sRGB, brought into the
-// sRGB gamut by clipping the negative primaries (the spectral colours lie
-// outside it), at full strength, darkened where needed to at most maxInk luminance. An
+// Of is the colour that light of a wavelength is drawn with in every plot
+// and drawing. A visible wavelength (380-780 nm) gets its own hue: its CIE
+// 1931 colour (cieXYZ) in sRGB, brought into the sRGB gamut by clipping
+// the negative primaries (the spectral colours lie outside it), at full
+// strength, darkened where needed to at most maxInk luminance. An
 // ultraviolet or infrared wavelength gets a grey, darker the further it
 // lies from the visible band (UV darker than IR at the same distance),
 // and Visible tells the keys to name it.
