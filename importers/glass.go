@@ -146,11 +146,12 @@ func (g Glass) checkCount() string {
 	return ""
 }
 
-// checkIndex samples the formula over its range (the F to C band when none
-// is stated) and refuses an index that is not a finite number >= 1, or a
-// Sellmeier pole inside the band.
+// checkIndex refuses a Sellmeier pole inside the glass's band (the F to C
+// band when none is stated, or the 400-750 nm an abbe fit holds over), and
+// an index that is not a finite number >= 1 anywhere in it (indexProblem
+// proves that, where sampling would miss a dip between samples).
 func (g Glass) checkIndex() string {
-	lo, hi := g.MinNm, g.MaxNm
+	lo, hi := g.Medium().Range()
 	if lo == 0 && hi == 0 {
 		lo, hi = optics.LineF, optics.LineC
 	}
@@ -161,14 +162,7 @@ func (g Glass) checkIndex() string {
 			}
 		}
 	}
-	m := g.Medium()
-	for k := 0; k <= 8; k++ {
-		wl := lo + (hi-lo)*float64(k)/8
-		if n := m.Index(wl); !(n >= 1) || math.IsInf(n, 0) {
-			return fmt.Sprintf("the index at %.1f nm is %.6g, not a number >= 1; check the coefficients and their order", wl, n)
-		}
-	}
-	return ""
+	return g.indexProblem(lo, hi)
 }
 
 // ReadGlasses reads a glass CSV (columns name, formula, coefficients,

@@ -82,7 +82,7 @@ func TestReadGlassesErrors(t *testing.T) {
 		{"pole inside the range", "g,sellmeier,1.03 0.25,400,1100,",
 			[]string{"g.csv:2: coefficients: C1 = 0.25 um^2 puts a pole of the formula at 500.0 nm, inside 400-1100 nm; check the order B1 C1 B2 C2 ..."}},
 		{"index below 1", "g,cauchy,0.5,,,",
-			[]string{"g.csv:2: coefficients: the index at 486.1 nm is 0.5, not a number >= 1; check the coefficients and their order"}},
+			[]string{"g.csv:2: coefficients: the index at 552.4 nm is 0.5, not a number from 1 to 10; check the coefficients and their order"}},
 		{"half a range", "g,constant,1.5,400,,",
 			[]string{"g.csv:2: max_nm: the range 400-0 nm must satisfy 0 < min_nm < max_nm (leave both empty for none)"}},
 		{"reserved names", "air,constant,1,,,\n517642,constant,1.5,,,",
