@@ -202,3 +202,30 @@ func TestRunDrawSpotObjectHeight(t *testing.T) {
 	mustContain(t, errs, "object height 5 mm, 587.6 nm: RMS")
 	checkFieldUnits(t, errs, "object height ", " mm, ")
 }
+
+// A field edge past the range a requirement's own takes is the user's
+// input: exit 2, naming the flag and the range, for draw and report alike
+// (a field angle reaches 90 degrees only at grazing incidence: geometry).
+func TestRunDrawFieldRange(t *testing.T) {
+	db := savedCatalog(t)
+	dir := t.TempDir()
+	for _, tc := range []struct {
+		args []string
+		want string
+	}{
+		{[]string{"draw", "1", "--pick", "1", "--field", "100", "-o", filepath.Join(dir, "a.svg")}, "--field 100: want 0 to 89.9 degrees"},
+		{[]string{"draw", "1", "--pick", "1", "--field-angle", "-90", "--spot", "-o", filepath.Join(dir, "a.png")}, "--field-angle -90: want 0 to 89.9 degrees"},
+		{[]string{"draw", "2", "--pick", "1", "--object-height", "200000", "-o", filepath.Join(dir, "b.svg")}, "--object-height 200000: want 0 to 100000 mm"},
+		{[]string{"report", "1", "--pick", "1", "--field", "360", "-o", filepath.Join(dir, "r.html")}, "--field 360: want 0 to 89.9 degrees"},
+	} {
+		t.Run(strings.Join(tc.args[:5], " "), func(t *testing.T) {
+			_, errs, code := cmdRun(t, db, tc.args...)
+			if code != 2 || !strings.Contains(unwrapped(errs), tc.want) {
+				t.Errorf("exit %d, %q; want exit 2 and %q", code, errs, tc.want)
+			}
+			if _, err := os.Stat(tc.args[len(tc.args)-1]); err == nil {
+				t.Errorf("%s was written", tc.args[len(tc.args)-1])
+			}
+		})
+	}
+}
