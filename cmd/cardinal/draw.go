@@ -141,8 +141,7 @@ func drawSpots(o *drawOptions, s solution.Solution, field float64, title string)
 		return err
 	}
 	for k, set := range sp.Sets {
-		notef(e, "%s, %.1f nm: RMS spot radius %.3g %s (%d rays, %d lost)\n",
-			sp.FieldText(k/len(sp.Wavelengths)), set.Wavelength, set.RMS, sp.Unit(), set.Passed+set.Lost, set.Lost)
+		notef(e, "%s, %.1f nm: %s\n", sp.FieldText(k/len(sp.Wavelengths)), set.Wavelength, set.Summary(sp.Unit()))
 	}
 	if sp.Airy > 0 {
 		notef(e, "Airy radius at %.1f nm: %.3g %s\n", sp.Wavelengths[0], sp.Airy, sp.Unit())

@@ -7,6 +7,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"cardinal/search/finite"
 	"cardinal/search/present"
 	"cardinal/search/purchase"
 )
@@ -100,6 +101,9 @@ func runRequest(o *requestOptions) error {
 // CSV through the injection-safe writer, table and md with the notes
 // (requirement, spacings, cautions) above the table.
 func writeRequest(e *env, w io.Writer, format string, rq purchase.Request) error {
+	if err := finite.Check("the purchase request", rq); err != nil {
+		return err
+	}
 	switch format {
 	case "json":
 		return render(e, w, outputFlags{Format: format}, present.Table{}, rq)

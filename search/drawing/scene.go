@@ -27,7 +27,7 @@ type DrawOptions struct {
 // from the first vertex and y up, in mm: what the SVG drawing shows, kept
 // apart from the SVG so that tests can read it.
 type Scene struct {
-	Solution   solution.Solution
+	Solution   solution.Solution `finite:"-"` // the input: a flat surface's radius is +Inf by convention
 	Wavelength float64
 	// Field is the chief ray's field point (mm or degrees, see
 	// DrawOptions); FieldGiven is false when the drawing chose it.
@@ -44,9 +44,12 @@ type Scene struct {
 	// PartSurfaces[i] is the index of part i's first surface.
 	PartSurfaces []int
 	// ObjectZ is the object plane's z (-Inf at infinity); ImageZ the image
-	// plane's z from the first vertex (NaN for an afocal solution).
-	ObjectZ, ImageZ float64
-	Rays            []SceneRay
+	// plane's z from the first vertex (NaN for an afocal solution). Both
+	// are sentinels the drawing tests before it draws a plane, so the
+	// finite guard (search/finite) passes them over.
+	ObjectZ float64 `finite:"-"`
+	ImageZ  float64 `finite:"-"`
+	Rays    []SceneRay
 	// Marks are the cardinal points on the drawing; OffDrawing those too
 	// far away to draw, listed in the legend instead.
 	Marks, OffDrawing []Mark

@@ -20,7 +20,8 @@ type BeamEnvelope struct {
 	// Waist is the output beam's waist radius, mm, and WaistZ where it
 	// lies (z from the first vertex); NaN when it lies before the last
 	// vertex (a diverging output).
-	Waist, WaistZ float64
+	Waist  float64
+	WaistZ float64 `finite:"-"` // a sentinel, tested before it is drawn
 }
 
 // beamEnvelope computes the envelope from the lead-in to the image plane

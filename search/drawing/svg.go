@@ -8,6 +8,7 @@ import (
 	"math"
 	"strings"
 
+	"cardinal/search/finite"
 	"cardinal/search/present"
 	"cardinal/search/solution"
 	"cardinal/search/wavecolour"
@@ -42,6 +43,9 @@ type svgDoc struct {
 // optical axis is y = 0. The SVG has no ids, scripts, style sheets or
 // external references, so that several can sit in one HTML page.
 func (sc *Scene) WriteSVG(w io.Writer, o DrawOptions) error {
+	if err := finite.Check("the drawing", sc); err != nil {
+		return err
+	}
 	d := &svgDoc{sc: sc, fs: fontSize(*sc)}
 	d.sw = d.fs / 14
 	x0, x1 := d.extent()
@@ -69,6 +73,9 @@ func (sc *Scene) WriteSVG(w io.Writer, o DrawOptions) error {
 	d.scaleBar(x0, last+1.5*d.fs)
 	d.writeLegend(legend, x0, last+3.2*d.fs)
 	d.b.WriteString("</svg>\n")
+	if err := finite.Attributes("the drawing", d.b.Bytes()); err != nil {
+		return err // a number worked out while drawing, such as a label's place
+	}
 	_, err := w.Write(d.b.Bytes())
 	return err
 }

@@ -13,6 +13,7 @@ import (
 	"gonum.org/v1/plot/vg/vgsvg"
 
 	"cardinal/search"
+	"cardinal/search/finite"
 )
 
 // Colours of the build-study histograms: slate bars, the 95 % range in
@@ -32,6 +33,9 @@ const histBins = 30
 // after compensation (right), each with its 95 % range, the right one over
 // the requirement's tolerance band. format is "svg" or "png".
 func WriteStudyPlot(w io.Writer, req search.Requirement, st search.Study, title, format string) error {
+	if err := finite.Check("the build-study plot", st); err != nil {
+		return err
+	}
 	width, height := 2*panel, panel+8*vg.Millimeter
 	var c vg.CanvasWriterTo
 	switch format {
@@ -66,14 +70,16 @@ func WriteStudyPlot(w io.Writer, req search.Requirement, st search.Study, title,
 	}
 	tiles := draw.Tiles{Rows: 1, Cols: 2, PadX: 6 * vg.Millimeter, PadY: 2 * vg.Millimeter,
 		PadTop: 4 * vg.Millimeter, PadBottom: 2 * vg.Millimeter, PadLeft: 2 * vg.Millimeter, PadRight: 4 * vg.Millimeter}
+	if err := checkAxes("the build-study plot", left, right); err != nil {
+		return err
+	}
 	grid := [][]*plot.Plot{{left, right}}
 	for i, row := range plot.Align(grid, tiles, dc) {
 		for j, cv := range row {
 			grid[i][j].Draw(cv)
 		}
 	}
-	_, err = c.WriteTo(w)
-	return err
+	return writeCanvas(w, c, "the build-study plot", format)
 }
 
 func adjustLabel(c search.Compensator) string {

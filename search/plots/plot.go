@@ -16,6 +16,7 @@ import (
 	"gonum.org/v1/plot/vg/vgimg"
 	"gonum.org/v1/plot/vg/vgsvg"
 
+	"cardinal/search/finite"
 	"cardinal/search/present"
 	"cardinal/search/wavecolour"
 )
@@ -48,6 +49,9 @@ var (
 // direction errors. Each wavelength is drawn in its own colour
 // (wavecolour.Of), every tick label in one number format (tickLabel).
 func (sp Spots) WritePlot(w io.Writer, title, format string) error {
+	if err := finite.Check("the spot plot", sp); err != nil {
+		return err
+	}
 	cols := 3
 	if sp.Angular {
 		cols = 2
@@ -75,6 +79,9 @@ func (sp Spots) WritePlot(w io.Writer, title, format string) error {
 		if grid[i], notes[i], err = sp.row(i); err != nil {
 			return err
 		}
+		if err := checkAxes("the spot plot", grid[i]...); err != nil {
+			return err
+		}
 	}
 	tiles := draw.Tiles{Rows: rows, Cols: cols, PadX: vg.Millimeter * 6, PadY: vg.Millimeter * 5,
 		PadTop: head.height, PadBottom: vg.Millimeter * 2, PadLeft: vg.Millimeter * 2, PadRight: vg.Millimeter * 4}
@@ -85,8 +92,7 @@ func (sp Spots) WritePlot(w io.Writer, title, format string) error {
 		}
 	}
 	head.draw(dc, height)
-	_, err := c.WriteTo(w)
-	return err
+	return writeCanvas(w, c, "the spot plot", format)
 }
 
 // row makes the panels of field point i, with the words written on each.
@@ -176,16 +182,30 @@ func (sp Spots) spotPanel(i int) (*plot.Plot, []string, error) {
 		p.Add(rim)
 	}
 	square(p)
-	rms := sp.RMSAt(i*n, sp.BestFocus)
-	note := fmt.Sprintf("RMS %s %s", present.Figure(rms), u)
-	if sp.Airy > 0 {
-		note += fmt.Sprintf(" = %s× Airy", present.Figure(rms/sp.Airy))
-	}
-	lines := []string{note}
+	lines := []string{spotNote(sp, i*n)}
 	if i == 0 && sp.Verdict != "" {
 		lines = append(lines, strings.SplitN(strings.TrimPrefix(sp.Verdict, "the search's verdict: "), " (", 2)[0])
 	}
 	return p, lines, nil
+}
+
+// spotNote is what the spot panel says of set k: its RMS radius at best
+// focus against the Airy radius, with the rays lost, or that no ray
+// reached the image.
+func spotNote(sp Spots, k int) string {
+	set := sp.Sets[k]
+	if !set.Reached() {
+		return "no ray reached the image"
+	}
+	rms := sp.RMSAt(k, sp.BestFocus)
+	note := fmt.Sprintf("RMS %s %s", present.Figure(rms), sp.Unit())
+	if sp.Airy > 0 {
+		note += fmt.Sprintf(" = %s× Airy", present.Figure(rms/sp.Airy))
+	}
+	if set.Lost > 0 {
+		note += fmt.Sprintf(" (%d of %d rays)", set.Passed, set.Passed+set.Lost)
+	}
+	return note
 }
 
 // focusPanel is field point i's RMS radius through focus, one line per
@@ -195,6 +215,9 @@ func (sp Spots) focusPanel(i int) (*plot.Plot, error) {
 	n := len(sp.Wavelengths)
 	top := 0.0
 	for j := n - 1; j >= 0; j-- { // the reference wavelength drawn last, on top
+		if !sp.Sets[i*n+j].Reached() {
+			continue // no spot: no curve, rather than one along zero
+		}
 		dz, rms := sp.ThroughFocus(i*n + j)
 		xy := make(plotter.XYs, len(dz))
 		for m := range dz {

@@ -56,8 +56,9 @@ type Spots struct {
 	Angular bool
 	// AtInfinity is true when the fields are angles (object at infinity).
 	AtInfinity bool
-	// ImageZ is the image plane from the last vertex (NaN when angular).
-	ImageZ float64
+	// ImageZ is the image plane from the last vertex (NaN when angular, a
+	// sentinel the finite guard passes over).
+	ImageZ float64 `finite:"-"`
 	// Airy is the radius of the Airy disc at the reference wavelength, in
 	// the figures' unit (0 where it cannot be found).
 	Airy        float64

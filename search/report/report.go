@@ -12,6 +12,7 @@ import (
 
 	"cardinal/search"
 	"cardinal/search/drawing"
+	"cardinal/search/finite"
 	"cardinal/search/plots"
 	"cardinal/search/present"
 	"cardinal/search/purchase"
@@ -31,7 +32,7 @@ type ReportInput struct {
 	// Results are the search's ranked results, all of them.
 	Results []search.Result
 	// Picks are the chosen results rebuilt, in the order asked.
-	Picks   []solution.Solution
+	Picks   []solution.Solution `finite:"-"` // the input, flat radii infinite; each page is checked as drawn
 	Request purchase.Request
 	Draw    drawing.DrawOptions
 	Plot    plots.PlotOptions
@@ -78,7 +79,7 @@ type reportPage struct {
 
 var reportFuncs = template.FuncMap{
 	"figure":   present.Figure,
-	"rmsAt":    rmsAt,
+	"spotAt":   spotAt,
 	"timefmt":  func(t time.Time) string { return t.UTC().Format("2006-01-02 15:04 UTC") },
 	"imageRow": func(sp plots.Spots) bool { return !sp.Angular },
 	"swatch":   func(nm float64) template.CSS { return template.CSS("background:" + wavecolour.Hex(wavecolour.Of(nm))) },
@@ -106,6 +107,9 @@ func WriteReport(w io.Writer, in ReportInput) error {
 		}
 		page.Picked[s.Result.Rank] = true
 		page.Pages = append(page.Pages, p)
+	}
+	if err := finite.Check("the report", page); err != nil {
+		return err
 	}
 	return reportTmpl.Execute(w, page)
 }
@@ -191,8 +195,9 @@ func notesWithoutBuilds(ns [][2]string) [][2]string {
 	return out
 }
 
-// rmsAt is the RMS radius of field i at wavelength j.
-func rmsAt(sp plots.Spots, i, j int) float64 { return sp.Sets[i*len(sp.Wavelengths)+j].RMS }
+// spotAt is the RMS radius of field i at wavelength j as a table shows it
+// (SpotSet.Cell): no number where no ray reached the image.
+func spotAt(sp plots.Spots, i, j int) string { return sp.Sets[i*len(sp.Wavelengths)+j].Cell() }
 
 // rankedTable is the ranked results as find describes them (one
 // presentation model: present.Results), the default columns with the Airy

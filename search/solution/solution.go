@@ -25,10 +25,10 @@ type Solution struct {
 	Gaps []float64
 	// ObjectZ is the object plane from the first vertex (negative), or
 	// -Inf for an object at infinity.
-	ObjectZ float64
+	ObjectZ float64 `finite:"-"`
 	// ImageZ is the image (or focal) plane from the last vertex; NaN for an
-	// afocal solution.
-	ImageZ float64
+	// afocal solution. Both are sentinels, passed over by the finite guard.
+	ImageZ float64 `finite:"-"`
 }
 
 // New rebuilds a result from the catalog entries, keyed by
