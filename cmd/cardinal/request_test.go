@@ -1,9 +1,11 @@
 package main
 
 import (
+	"bytes"
 	"context"
 	"encoding/csv"
 	"encoding/json"
+	"errors"
 	"math"
 	"os"
 	"path/filepath"
@@ -14,6 +16,7 @@ import (
 
 	"cardinal/catalog"
 	"cardinal/search"
+	"cardinal/search/finite"
 	"cardinal/search/purchase"
 )
 
@@ -269,5 +272,26 @@ func TestRunRequestErrors(t *testing.T) {
 	b, _ := os.ReadFile(file)
 	if !strings.HasPrefix(string(b), "supplier,part,") {
 		t.Errorf("the forced file holds %.40q", b)
+	}
+}
+
+// A purchase request never holds NaN or an infinity (IEEE Std 754-2019,
+// section 3.4; common practice): in every format, one with a total that is
+// not finite is refused with an error naming it, and nothing is written.
+func TestWriteRequestRefusesNonFinite(t *testing.T) {
+	rq := purchase.Request{Search: 3, Totals: []purchase.Money{{Currency: "XTS", Amount: math.Inf(1)}}}
+	for _, format := range []string{"table", "md", "csv", "json"} {
+		t.Run(format, func(t *testing.T) {
+			e, _, _ := testEnv()
+			var b bytes.Buffer
+			err := writeRequest(e, &b, format, rq)
+			var fe *finite.Error
+			if !errors.As(err, &fe) || fe.Path != "Totals[0].Amount" || b.Len() > 0 {
+				t.Fatalf("got %v and %d bytes, want a *finite.Error at Totals[0].Amount and nothing written", err, b.Len())
+			}
+			if _, code := describe(err); code != 1 {
+				t.Errorf("exit %d: a non-finite figure reaching a writer is a fault of the program (exit 1)", code)
+			}
+		})
 	}
 }
