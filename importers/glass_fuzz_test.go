@@ -102,7 +102,7 @@ func FuzzGlassNumbers(f *testing.F) {
 			}
 			text += formatFloat(c)
 		}
-		row := "name,formula,coefficients,min_nm,max_nm\ng," + Formulas[int(formula)%len(Formulas)] + "," + text + "," + optionalFloat(lo) + "," + optionalFloat(hi) + "\n"
+		row := "name,formula,coefficients,min_nm,max_nm\ng," + Formulas()[int(formula)%len(Formulas())] + "," + text + "," + optionalFloat(lo) + "," + optionalFloat(hi) + "\n"
 		glasses, err := ReadGlasses(bytes.NewReader([]byte(row)), "fuzz.csv")
 		if err != nil {
 			return
