@@ -213,10 +213,10 @@ func TestRunDrawFieldRange(t *testing.T) {
 		args []string
 		want string
 	}{
-		{[]string{"draw", "1", "--pick", "1", "--field", "100", "-o", filepath.Join(dir, "a.svg")}, "--field 100: want 0 to 89.9 degrees"},
-		{[]string{"draw", "1", "--pick", "1", "--field-angle", "-90", "--spot", "-o", filepath.Join(dir, "a.png")}, "--field-angle -90: want 0 to 89.9 degrees"},
-		{[]string{"draw", "2", "--pick", "1", "--object-height", "200000", "-o", filepath.Join(dir, "b.svg")}, "--object-height 200000: want 0 to 100000 mm"},
-		{[]string{"report", "1", "--pick", "1", "--field", "360", "-o", filepath.Join(dir, "r.html")}, "--field 360: want 0 to 89.9 degrees"},
+		{[]string{"draw", "1", "--pick", "1", "--field", "100", "-o", filepath.Join(dir, "a.svg")}, "--field 100 is outside 0 to 89.9 degrees"},
+		{[]string{"draw", "1", "--pick", "1", "--field-angle", "-90", "--spot", "-o", filepath.Join(dir, "a.png")}, "--field-angle -90 is outside 0 to 89.9 degrees"},
+		{[]string{"draw", "2", "--pick", "1", "--object-height", "200000", "-o", filepath.Join(dir, "b.svg")}, "--object-height 200000 is outside 0 to 100000 mm"},
+		{[]string{"report", "1", "--pick", "1", "--field", "360", "-o", filepath.Join(dir, "r.html")}, "--field 360 is outside 0 to 89.9 degrees"},
 	} {
 		t.Run(strings.Join(tc.args[:5], " "), func(t *testing.T) {
 			_, errs, code := cmdRun(t, db, tc.args...)
