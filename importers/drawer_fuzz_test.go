@@ -13,7 +13,7 @@ import (
 // supplier, a part and a quantity >= 0, and that what it accepts survives a
 // write and a second read unchanged.
 func FuzzReadDrawer(f *testing.F) {
-	demo, err := os.ReadFile("../testdata/demo/drawer.csv")
+	demo, err := os.ReadFile("../catalog/demo/drawer.csv")
 	if err != nil {
 		f.Fatal(err)
 	}

@@ -13,7 +13,7 @@ import (
 // a finite index of at least 1 across its band and survives a write and a
 // second read unchanged.
 func FuzzReadGlasses(f *testing.F) {
-	demo, err := os.ReadFile("../testdata/demo/glasses.csv")
+	demo, err := os.ReadFile("../catalog/demo/glasses.csv")
 	if err != nil {
 		f.Fatal(err)
 	}

@@ -19,9 +19,9 @@ import (
 )
 
 // fuzzStore is the catalog FuzzRequirement searches: the twenty DEMO parts
-// of testdata/demo/lenses.csv, small so that each run is quick.
+// of catalog/demo/lenses.csv, small so that each run is quick.
 var fuzzStore = sync.OnceValues(func() (*catalog.Store, error) {
-	b, err := os.ReadFile("../testdata/demo/lenses.csv")
+	b, err := os.ReadFile("../catalog/demo/lenses.csv")
 	if err != nil {
 		return nil, err
 	}
