@@ -39,3 +39,11 @@ func (a iv) mag() float64 { return math.Max(math.Abs(a.lo), math.Abs(a.hi)) }
 
 // holdsZero tells whether the interval, widened by margin, contains 0.
 func (a iv) holdsZero(margin float64) bool { return a.lo <= margin && a.hi >= -margin }
+
+// least is the smallest absolute value in the interval: 0 when it holds 0.
+func (a iv) least() float64 {
+	if a.lo <= 0 && a.hi >= 0 {
+		return 0
+	}
+	return math.Min(math.Abs(a.lo), math.Abs(a.hi))
+}

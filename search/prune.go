@@ -14,6 +14,7 @@ type node struct {
 	dMin, dMax   float64 // principal-point separation
 	priceMin     float64
 	awayMin      float64
+	semiMax      float64 // clear semi-aperture
 }
 
 const leafSize = 8
@@ -39,6 +40,7 @@ func (s *search) buildTree(lo, hi int32) int32 {
 	n.pMin, n.pMax, n.ppMin, n.ppMax = math.Inf(1), math.Inf(-1), math.Inf(1), math.Inf(-1)
 	n.lMin, n.dMin, n.dMax = math.Inf(1), math.Inf(1), math.Inf(-1)
 	n.priceMin, n.awayMin = math.Inf(1), math.Inf(1)
+	n.semiMax = math.Inf(-1)
 	for i := lo; i < hi; i++ {
 		c := &s.c[i]
 		n.pMin, n.pMax = math.Min(n.pMin, c.P), math.Max(n.pMax, c.P)
@@ -46,6 +48,7 @@ func (s *search) buildTree(lo, hi int32) int32 {
 		n.lMin = math.Min(n.lMin, c.L)
 		n.dMin, n.dMax = math.Min(n.dMin, c.delta), math.Max(n.dMax, c.delta)
 		n.priceMin, n.awayMin = math.Min(n.priceMin, c.price), math.Min(n.awayMin, c.away)
+		n.semiMax = math.Max(n.semiMax, c.semi)
 	}
 	return id
 }
@@ -57,6 +60,7 @@ func (n *node) bounds(l, r node) {
 	n.lMin = math.Min(l.lMin, r.lMin)
 	n.dMin, n.dMax = math.Min(l.dMin, r.dMin), math.Max(l.dMax, r.dMax)
 	n.priceMin, n.awayMin = math.Min(l.priceMin, r.priceMin), math.Min(l.awayMin, r.awayMin)
+	n.semiMax = math.Max(l.semiMax, r.semiMax)
 }
 
 // margin widens every pruning test so that rounding never prunes a pair
@@ -92,6 +96,9 @@ func (s *search) open(a *cand, n *node) (bool, float64) {
 		return false, rest
 	}
 	f2 := span(1/n.phiLo, 1/n.phiHi)
+	if s.nodeOut(a, n, f2) {
+		return false, rest
+	}
 	var ok bool
 	var gLo, miss float64
 	switch s.req.Kind {

@@ -62,6 +62,9 @@ type search struct {
 	nodes  []node
 	roots  []int32
 	kept   *kept // shared by the workers of one search
+	// beamY is the collimated beam's radius the aperture pruning uses (0
+	// for none) and phi0 the pair's power it assumes (aperture.go).
+	beamY, phi0 float64
 
 	// Counts of this worker, added up by merge.
 	solved     int            // layouts that met the first-order target
@@ -179,6 +182,7 @@ func (s *search) pruned() {
 		return
 	}
 	s.buildForest()
+	s.setAperture()
 	order, lb := s.firstOrder()
 	workers := min(runtime.GOMAXPROCS(0), 4)
 	var next atomic.Int64
@@ -198,6 +202,9 @@ func (s *search) pruned() {
 				i := order[n]
 				if b := w.bound(); lb[i] > b+margin(b) {
 					return // the first parts come by increasing bound
+				}
+				if w.firstOut(&w.c[i]) {
+					continue
 				}
 				w.bestFirst(i, &open)
 			}
@@ -228,7 +235,7 @@ func (s *search) bestFirst(i int32, open *nodeQueue) {
 		nd := &s.nodes[nb.id]
 		if nd.left < 0 {
 			for j := nd.lo; j < nd.hi; j++ {
-				if s.pairBound(a, &s.c[j]) > s.bound()+margin(s.bound()) {
+				if s.pairBound(a, &s.c[j]) > s.bound()+margin(s.bound()) || s.secondOut(a, &s.c[j]) {
 					continue
 				}
 				s.evaluated++
