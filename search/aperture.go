@@ -6,7 +6,9 @@ import "math"
 // passes outside a part's clear aperture fails the aperture check
 // (rayHeights) and is never kept by a search that keeps only the layouts
 // that meet every check; the near-miss search keeps such layouts, so it
-// does not prune this way.
+// does not prune this way. When nothing meets, the counts of the failed
+// checks explain why (why.go): the search then runs again without this
+// pruning (pruned), so that they count what they counted before it.
 //
 // For a collimated input beam of radius y0 (focus and expand) the heights
 // need no solved gap. With the pair's power phi (the target 1/EFL, or 0
@@ -29,10 +31,10 @@ import "math"
 const apertureSlack = 1e-9
 
 // setAperture turns the aperture pruning on where it applies: focus and
-// expand with a beam diameter, in a search that keeps only what meets.
+// expand with a beam diameter, when the search is strict.
 func (s *search) setAperture() {
 	s.beamY = 0
-	if s.misses || !s.req.ChecksAperture() {
+	if !s.req.ChecksAperture() {
 		return
 	}
 	switch s.req.Kind {
@@ -43,10 +45,14 @@ func (s *search) setAperture() {
 	}
 }
 
+// strict tells whether the search may prune layouts that fail a check:
+// it keeps only layouts that meet, and is not counting why none does.
+func (s *search) strict() bool { return !s.misses && !s.lax }
+
 // firstOut tells whether candidate a, as the first part of a pair, passes
 // the beam outside its own clear aperture, whatever follows it.
 func (s *search) firstOut(a *cand) bool {
-	if s.beamY <= 0 {
+	if s.beamY <= 0 || !s.strict() {
 		return false
 	}
 	return s.beamY*math.Max(1, math.Abs(a.m.A)) > a.semi*(1+apertureSlack)
@@ -55,7 +61,7 @@ func (s *search) firstOut(a *cand) bool {
 // secondOut tells whether b after a passes the beam outside b's clear
 // aperture (the heights above, at b's two vertices).
 func (s *search) secondOut(a, b *cand) bool {
-	if s.beamY <= 0 {
+	if s.beamY <= 0 || !s.strict() {
 		return false
 	}
 	y := (s.phi0 - a.phi) / b.phi
@@ -68,7 +74,7 @@ func (s *search) secondOut(a, b *cand) bool {
 // its clear aperture: the least heights over the node's bounds exceed its
 // largest clear semi-aperture.
 func (s *search) nodeOut(a *cand, n *node, f2 iv) bool {
-	if s.beamY <= 0 {
+	if s.beamY <= 0 || !s.strict() {
 		return false
 	}
 	y := f2.mul(pt(s.phi0 - a.phi))
@@ -78,4 +84,97 @@ func (s *search) nodeOut(a *cand, n *node, f2 iv) bool {
 		math.Max(math.Abs(n.ppMin), math.Abs(n.ppMax))*math.Abs(s.phi0)
 	least := math.Max(front.least(), back.least()) - apertureSlack*scale
 	return s.beamY*least > n.semiMax*(1+apertureSlack)
+}
+
+// For an image, a pair's layouts are fixed by e once the track and the
+// magnification m are: with phi = phi1 + phi2 - e phi1 phi2 the pair's
+// power, its principal planes lie e phi2 / phi after a's front one and
+// e phi1 / phi before b's back one (Hecht, Optics, 5th ed., ch. 6), and the
+// object and image lie f (1 - 1/m) and f (1 - m) from them (W. J. Smith,
+// Modern Optical Engineering, 4th ed., ch. 2), so that
+//
+//	wd = (1 - 1/m - e phi2) / phi - P(a)
+//	bc = (1 - m - e phi1) / phi + P'(b).
+//
+// Each is a ratio of functions linear in e and in phi2, monotonic in
+// either while the other is held, so over a box of e and phi2 on which phi
+// keeps its sign its extremes lie at the corners.
+
+// imageWindow is the range of working distances a pair with a first can
+// have and still be solved, a real object within the track, and, when the
+// search is strict, kept: beyond the minimum and, when ray heights are
+// checked, the marginal ray (angle NA from
+// the axial object) and the chief ray (from the field edge, through the
+// first vertex) within a's clear aperture: NA wd <= semi at the first
+// vertex, and at the last, where the heights are NA (A wd + B) and B h / wd,
+// each of the two terms within it. The window holds every working
+// distance that passes, perhaps more.
+func (s *search) imageWindow(a *cand) iv {
+	w := iv{0, s.req.Track}
+	if !s.strict() {
+		return w
+	}
+	w.lo = math.Max(0, s.lim.wdMin)
+	if !s.req.ChecksAperture() {
+		return w
+	}
+	semi := a.semi * (1 + apertureSlack)
+	if na := s.req.NA; na > 0 {
+		w.hi = math.Min(w.hi, semi/na)
+		if A, B := a.m.A, a.m.B; A != 0 {
+			w = w.meet(span((-semi/na-B)/A, (semi/na-B)/A).widen(apertureSlack))
+		} else if math.Abs(B) > semi/na {
+			return iv{1, 0}
+		}
+	}
+	if h := s.req.ObjectHeight; h > 0 {
+		w.lo = math.Max(w.lo, math.Abs(a.m.B)*h/semi*(1-apertureSlack))
+	}
+	return w
+}
+
+// imageOpen tells whether some b in node n, after a, can have a layout
+// with e in the given interval: the relation every image layout satisfies
+// (imageRelation), a working distance in win (imageWindow) and a positive
+// back clearance; when the search is strict, above its minimum and, when
+// ray heights are checked, with the marginal ray, of angle NA / m there,
+// within b's clear aperture at its last vertex.
+func (s *search) imageOpen(a *cand, n *node, e iv, win iv) bool {
+	m := s.req.Mag
+	wd, bc := iv{math.Inf(-1), math.Inf(1)}, iv{math.Inf(-1), math.Inf(1)}
+	var den [4]float64
+	var wq, bq [4]float64
+	k := 0
+	for _, x := range [2]float64{e.lo, e.hi} {
+		for _, p := range [2]float64{n.phiLo, n.phiHi} {
+			den[k] = a.phi + p - x*a.phi*p
+			wq[k] = (1 - 1/m - x*p) / den[k]
+			bq[k] = (1 - m - x*a.phi) / den[k]
+			k++
+		}
+	}
+	if den[0] > 0 && den[1] > 0 && den[2] > 0 && den[3] > 0 || den[0] < 0 && den[1] < 0 && den[2] < 0 && den[3] < 0 {
+		wd = hull(wq).sub(pt(a.P))
+		bc = hull(bq).add(iv{n.ppMin, n.ppMax})
+	}
+	slack := 1e-6 * s.req.Track
+	if wd.hi+slack+1e-6*math.Abs(wd.hi) < win.lo || wd.lo-slack-1e-6*math.Abs(wd.lo) > win.hi {
+		return false
+	}
+	bcLo, bcHi := 0.0, math.Inf(1)
+	if s.strict() {
+		bcLo = math.Max(0, s.lim.bfdMin)
+		if s.req.ChecksAperture() && s.req.NA > 0 {
+			bcHi = math.Abs(m) * n.semiMax * (1 + apertureSlack) / s.req.NA
+		}
+	}
+	if bc.hi+slack+1e-6*math.Abs(bc.hi) < bcLo || bc.lo-slack-1e-6*math.Abs(bc.lo) > bcHi {
+		return false
+	}
+	return s.imageRelation(a, n, e)
+}
+
+// hull is the least interval holding the four values.
+func hull(v [4]float64) iv {
+	return iv{min(v[0], v[1], v[2], v[3]), max(v[0], v[1], v[2], v[3])}
 }

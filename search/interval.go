@@ -17,12 +17,8 @@ func (a iv) add(b iv) iv { return iv{a.lo + b.lo, a.hi + b.hi} }
 func (a iv) sub(b iv) iv { return iv{a.lo - b.hi, a.hi - b.lo} }
 
 func (a iv) mul(b iv) iv {
-	p := [4]float64{a.lo * b.lo, a.lo * b.hi, a.hi * b.lo, a.hi * b.hi}
-	r := iv{p[0], p[0]}
-	for _, x := range p[1:] {
-		r.lo, r.hi = math.Min(r.lo, x), math.Max(r.hi, x)
-	}
-	return r
+	p, q, r, t := a.lo*b.lo, a.lo*b.hi, a.hi*b.lo, a.hi*b.hi
+	return iv{min(p, q, r, t), max(p, q, r, t)}
 }
 
 // sq is the range of x^2 over the interval, tighter than a.mul(a).
@@ -46,4 +42,13 @@ func (a iv) least() float64 {
 		return 0
 	}
 	return math.Min(math.Abs(a.lo), math.Abs(a.hi))
+}
+
+// meet is the intersection of two intervals (empty when lo > hi).
+func (a iv) meet(b iv) iv { return iv{math.Max(a.lo, b.lo), math.Min(a.hi, b.hi)} }
+
+// widen is the interval grown by a relative margin of its magnitude.
+func (a iv) widen(rel float64) iv {
+	m := rel * (1 + a.mag())
+	return iv{a.lo - m, a.hi + m}
 }

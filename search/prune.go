@@ -182,8 +182,10 @@ func (s *search) openExpand(a *cand, n *node, f2 iv, gMin, gMax float64) (bool, 
 // points; Smith, Modern Optical Engineering, 4th ed., ch. 2) and the pair's
 // principal-point separation from Gullstrand's equation (Hecht, Optics,
 // 5th ed., ch. 6). An afocal pair satisfies it too. The node stays open
-// when the interval of h over the node's bounds holds zero; the least e
-// for which it does, found by bisection, bounds the gap from below.
+// when the interval of h over the node's bounds holds zero and the
+// working distance and back clearance can lie within their limits
+// (imageOpen); the least e for which they do, found by bisection, bounds
+// the gap from below.
 func (s *search) openImage(a *cand, n *node, gMin, gMax float64) (bool, float64) {
 	T := s.req.Track
 	// A real object and a real image: both distances are positive.
@@ -192,19 +194,31 @@ func (s *search) openImage(a *cand, n *node, gMin, gMax float64) (bool, float64)
 		return false, 0
 	}
 	e := iv{gMin + n.pMin - a.Pp, gMax + n.pMax - a.Pp}
-	if !s.imageRelation(a, n, e) {
+	lo, ok := s.leastImageE(a, n, e, imageDepth)
+	if !ok {
 		return false, 0
 	}
-	lo, hi := e.lo, e.hi
-	for k := 0; k < 4; k++ {
-		mid := (lo + hi) / 2
-		if s.imageRelation(a, n, iv{lo, mid}) {
-			hi = mid
-		} else {
-			lo = mid
-		}
-	}
 	return true, lo - n.pMax + a.Pp - margin(lo)
+}
+
+// imageDepth is how many times leastImageE halves the interval of e.
+const imageDepth = 6
+
+// leastImageE returns the lower end of the first piece of e, halved depth
+// times, on which imageOpen holds, or false when it holds on none: a lower
+// bound on e over the layouts of a and the node's parts.
+func (s *search) leastImageE(a *cand, n *node, e iv, depth int) (float64, bool) {
+	if !s.imageOpen(a, n, e, s.win) {
+		return 0, false
+	}
+	if depth == 0 {
+		return e.lo, true
+	}
+	mid := (e.lo + e.hi) / 2
+	if lo, ok := s.leastImageE(a, n, iv{e.lo, mid}, depth-1); ok {
+		return lo, true
+	}
+	return s.leastImageE(a, n, iv{mid, e.hi}, depth-1)
 }
 
 // imageRelation tells whether the relation every image layout satisfies

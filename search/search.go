@@ -59,12 +59,16 @@ type search struct {
 	tol    float64 // the requirement's first-order tolerance, for the checks
 	top    int     // results to keep, at least 1: the kept heap never grows past it
 	misses bool    // keep layouts that fail checks too (near-miss search)
+	lax    bool    // prune by no check the pair solvers count (see strict)
 	nodes  []node
 	roots  []int32
 	kept   *kept // shared by the workers of one search
 	// beamY is the collimated beam's radius the aperture pruning uses (0
 	// for none) and phi0 the pair's power it assumes (aperture.go).
 	beamY, phi0 float64
+	// win is the working distances the current first part allows (image;
+	// imageWindow), set by bestFirst in the worker's own copy.
+	win iv
 
 	// Counts of this worker, added up by merge.
 	solved     int            // layouts that met the first-order target
@@ -80,6 +84,7 @@ type kept struct {
 	mu    sync.Mutex
 	heap  layoutHeap
 	bound atomic.Uint64 // math.Float64bits of the bound; +Inf until full
+	met   atomic.Bool   // a layout that meets every check was found
 }
 
 func newSearch(p *prepared, req Requirement, lim limits, top int) *search {
@@ -126,6 +131,7 @@ func (s *search) emit(l *layout) {
 		}
 	} else {
 		s.met++
+		s.kept.met.Store(true)
 	}
 	k := s.kept
 	k.mu.Lock()
@@ -172,8 +178,20 @@ func (s *search) exhaustive() {
 }
 
 // pruned solves every candidate alone, then for each first part walks the
-// power tree and solves only the second parts of the nodes left open.
+// power tree and solves only the second parts of the nodes left open. When
+// no layout meets, it searches again without pruning by the checks
+// (strict), so that the counts of the failed checks say why.
 func (s *search) pruned() {
+	s.prunedOnce()
+	if s.kept.met.Load() || !s.strict() {
+		return
+	}
+	s.lax = true
+	s.solved, s.met, s.evaluated, s.unverified, s.failed = 0, 0, 0, 0, map[uint16]int{}
+	s.prunedOnce()
+}
+
+func (s *search) prunedOnce() {
 	n := int32(len(s.c))
 	for i := int32(0); i < n; i++ {
 		s.singlet(i)
@@ -222,6 +240,11 @@ func (s *search) pruned() {
 func (s *search) bestFirst(i int32, open *nodeQueue) {
 	a := &s.c[i]
 	open.items = open.items[:0]
+	if s.req.Kind == Image {
+		if s.win = s.imageWindow(a); s.win.lo > s.win.hi {
+			return
+		}
+	}
 	for _, r := range s.roots {
 		if ok, lb := s.open(a, &s.nodes[r]); ok {
 			open.push(nodeBound{r, lb})
