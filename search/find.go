@@ -53,9 +53,9 @@ func run(items []Item, req Requirement, prune bool) (Outcome, error) {
 // runPrepared searches the prepared candidates.
 func runPrepared(p *prepared, req Requirement, prune bool) (Outcome, error) {
 	class := twinClasses(p, p.cands)
-	s, ls := firstOrderGroups(p, req, prune, class)
+	s, ls, exact := firstOrderGroups(p, req, prune, class)
 	out := Outcome{Requirement: req, Candidates: len(p.cands), Evaluated: s.evaluated, Solved: s.solved,
-		Met: s.met, MetExact: !s.full()}
+		Met: s.met, MetExact: exact}
 	met, traced := len(ls), 0
 	var js []judgement
 	if req.TracesRays() || req.Gaussian() {
@@ -151,9 +151,16 @@ func (s *search) laserOf(p *prepared, ls []layout, cs []collimation, k int, r *R
 // firstOrderGroups runs the first-order search until it keeps layouts of
 // at least survivors(req) distinct part sets (twins as one; group.go), or
 // all that meet, widening the number kept fourfold at a time (up to 256
-// times); it returns the search and the kept layouts of the first
-// survivors(req) part sets, best first.
-func firstOrderGroups(p *prepared, req Requirement, prune bool, class []int32) (*search, []layout) {
+// times); it returns the search, the kept layouts of the first
+// survivors(req) part sets, best first, and whether the search kept every
+// layout that meets (so that its count of them is exact).
+//
+// The layouts a search keeps are the best of all by the ranking order,
+// which is total (better), so the first k of a search that keeps more are
+// what a search keeping k keeps: one search keeping 16 times as many
+// answers for the first three widths, and each further search for the
+// next one.
+func firstOrderGroups(p *prepared, req Requirement, prune bool, class []int32) (*search, []layout, bool) {
 	want := survivors(req)
 	if !req.TracesRays() {
 		// The build study reorders the first maxStudied rows whatever N
@@ -169,34 +176,47 @@ func firstOrderGroups(p *prepared, req Requirement, prune bool, class []int32) (
 		} else {
 			s.exhaustive()
 		}
-		return s, s.sorted()
+		return s, s.sorted(), !s.full()
 	}
+	run := min(16*keep, 256*want)
 	for {
-		s := newSearch(p, req, limitsOf(req), keep)
+		s := newSearch(p, req, limitsOf(req), run)
 		if prune {
 			s.pruned()
 		} else {
 			s.exhaustive()
 		}
-		ls := s.sorted()
-		if keep == 0 || len(ls) < keep || keep >= 256*want || s.countGroups(class, ls) >= want {
-			if want > 0 {
-				var kept []layout
-				for i, g := range s.groups(class, ls) {
-					if i == want {
-						break
+		all := s.sorted()
+		for ; capped(keep) <= capped(run); keep *= 4 {
+			ls := all[:min(capped(keep), len(all))]
+			if keep == 0 || len(ls) < keep || keep >= 256*want || s.countGroups(class, ls) >= want {
+				if want > 0 {
+					var kept []layout
+					for i, g := range s.groups(class, ls) {
+						if i == want {
+							break
+						}
+						for _, k := range g {
+							kept = append(kept, ls[k])
+						}
 					}
-					for _, k := range g {
-						kept = append(kept, ls[k])
-					}
+					sortLayouts(s, kept)
+					ls = kept
 				}
-				sortLayouts(s, kept)
-				ls = kept
+				return s, ls, len(all) < capped(keep)
 			}
-			return s, ls
 		}
-		keep *= 4
+		run = keep
 	}
+}
+
+// capped is the number of layouts a search asked to keep k keeps
+// (newSearch).
+func capped(k int) int {
+	if k < 1 || k > MaxShown {
+		return MaxShown
+	}
+	return k
 }
 
 // sortLayouts puts layouts in the ranking order.
