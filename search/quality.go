@@ -3,10 +3,8 @@ package search
 import (
 	"fmt"
 	"math"
-	"runtime"
 	"sort"
 	"strings"
-	"sync"
 
 	"cardinal/optics"
 )
@@ -218,18 +216,7 @@ const maxTraced = 1000
 func (s *search) judge(p *prepared, ls []layout) ([]layout, []judgement, int) {
 	js := make([]judgement, len(ls))
 	n := min(len(ls), maxTraced)
-	workers := min(runtime.GOMAXPROCS(0), 4)
-	var wg sync.WaitGroup
-	for k := 0; k < workers; k++ {
-		wg.Add(1)
-		go func(k int) {
-			defer wg.Done()
-			for i := k; i < n; i += workers {
-				js[i] = s.assess(p, &ls[i])
-			}
-		}(k)
-	}
-	wg.Wait()
+	copy(js, s.assessAll(p, ls[:n]))
 	idx := make([]int, len(ls))
 	for i := range idx {
 		idx[i] = i
@@ -254,10 +241,9 @@ func (s *search) judgedBefore(x, y *layout, jx, jy *judgement) bool {
 	return s.better(x, y)
 }
 
-// assess traces one layout.
-func (s *search) assess(p *prepared, l *layout) judgement {
-	c := s.req.Conditions(l.wd, l.bc)
-	q, err := s.system(p, l).Assess(c)
+// verdictOf is the judgement of layout l from its real-ray figures q
+// under conditions c (or the error of tracing it).
+func (s *search) verdictOf(l *layout, c optics.Conditions, q optics.Quality, err error) judgement {
 	if err != nil {
 		return judgement{err: err}
 	}
