@@ -9,6 +9,7 @@ import (
 	"reflect"
 	"sort"
 	"strings"
+	"unicode"
 	"unicode/utf8"
 )
 
@@ -205,7 +206,7 @@ func specFields() map[string]specField {
 func wantOf(key string, t reflect.Type) string {
 	switch key {
 	case "kind":
-		return `"focus", "image" or "expand"`
+		return `"focus", "image", "expand" or "match"`
 	case "form":
 		return `"keplerian" or "galilean"`
 	case "prefer":
@@ -237,11 +238,14 @@ func wantOf(key string, t reflect.Type) string {
 // checkEnum checks the words a key may hold.
 func checkEnum(key string, v reflect.Value) string {
 	ok := map[string][]string{
-		"kind":   {string(Focus), string(Image), string(Expand)},
+		"kind":   {string(Focus), string(Image), string(Expand), string(Match)},
 		"form":   {string(AnyForm), string(Keplerian), string(Galilean)},
 		"prefer": {string(Balanced), string(PreferDraw), string(PreferShort), string(PreferCheap), string(PreferSharp), string(PreferRobust)},
 	}[key]
 	if ok == nil {
+		if v.Kind() == reflect.String {
+			return controlText(v.String())
+		}
 		return ""
 	}
 	s := v.String()
@@ -260,4 +264,15 @@ func knownKeys(fs map[string]specField) string {
 	}
 	sort.Strings(ks)
 	return strings.Join(ks, ", ")
+}
+
+// controlText refuses a text value holding a control character (NUL,
+// escape, ...), which no supplier name needs.
+func controlText(s string) string {
+	for i, c := range []rune(s) {
+		if unicode.IsControl(c) {
+			return fmt.Sprintf("holds the control character U+%04X at character %d; write plain text", c, i+1)
+		}
+	}
+	return ""
 }

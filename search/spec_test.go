@@ -16,7 +16,7 @@ func TestReadSpecErrors(t *testing.T) {
 		{"string for a number", "{\n  \"kind\": \"focus\",\n  \"efl_mm\": \"fifty\"\n}",
 			`f.json:3:13: "efl_mm": expected a number (0.1 to 100000 mm)`},
 		{"unknown kind", `{"kind": "banana", "efl_mm": 50}`,
-			`f.json:1:10: "kind": "banana" is not known; expected "focus", "image" or "expand"`},
+			`f.json:1:10: "kind": "banana" is not known; expected "focus", "image", "expand" or "match"`},
 		{"misspelt key", "{\"kind\": \"focus\",\n \"efl\": 50}",
 			`f.json:2:2: "efl": is not a requirement key; expected one of `},
 		{"cut short", `{"kind": "focus", "efl_mm": 5`,
@@ -35,6 +35,7 @@ func TestReadSpecErrors(t *testing.T) {
 		{"band of words", `{"kind": "focus", "band_nm": ["red"]}`, `f.json:1:30: "band_nm": expected an array of numbers`},
 		{"unknown preference in a saved search", "{\"requirement\": {\"kind\": \"focus\",\n\"prefer\": \"fast\"}, \"results\": []}",
 			`f.json:2:11: "prefer": "fast" is not known`},
+		{"NUL in a supplier", `{"kind": "focus", "efl_mm": 50, "supplier": "A\u0000B"}`, `f.json:1:45: "supplier": holds the control character U+0000 at character 2; write plain text`},
 		{"multi-byte characters before", "{\"supplier\": \"Ünïcødé\", \"kind\": 5}", `f.json:1:33: "kind": expected "focus"`},
 	}
 	for _, tt := range tests {
@@ -48,5 +49,21 @@ func TestReadSpecErrors(t *testing.T) {
 				t.Errorf("error\n  %s\nwant it to begin\n  %s", err, tt.want)
 			}
 		})
+	}
+}
+
+// A mode-matching requirement, as find writes it in its JSON, reads back
+// from a spec file (kind "match").
+func TestReadSpecMatch(t *testing.T) {
+	doc := `{"kind": "match", "waist_in_mm": 0.5, "waist_out_mm": 0.05, "wavelength_nm": 1064}`
+	req, err := ReadSpec(strings.NewReader(doc), "m.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if req.Kind != Match {
+		t.Errorf("kind %q, want match", req.Kind)
+	}
+	if err := req.Validate(); err != nil {
+		t.Errorf("the requirement read does not validate: %v", err)
 	}
 }

@@ -167,6 +167,7 @@ func TestBadInputs(t *testing.T) {
 		{name: "spec key of another kind", args: []string{"find", "--spec", "{dir}/r.json"}, files: map[string]string{"r.json": `{"kind":"focus","efl_mm":50,"track_mm":200}`}, code: 2, want: []string{`"track_mm"`, "focus"}},
 		{name: "spec efl 1e308", args: []string{"find", "--spec", "{dir}/r.json"}, files: map[string]string{"r.json": `{"kind":"focus","efl_mm":1e308}`}, code: 2, want: []string{`"efl_mm"`, "0.1 to 100000 mm"}},
 		{name: "spec efl 1e999", args: []string{"find", "--spec", "{dir}/r.json"}, files: map[string]string{"r.json": `{"kind":"focus","efl_mm":1e999}`}, code: 2, want: []string{"r.json:1:", `"efl_mm"`}},
+		{name: "spec NUL in a supplier", args: []string{"find", "--spec", "{dir}/r.json"}, files: map[string]string{"r.json": `{"kind":"focus","efl_mm":50,"supplier":"A\u0000B"}`}, code: 2, want: []string{"r.json:1:", `"supplier"`, "control character"}},
 		{name: "spec missing", args: []string{"find", "--spec", "{dir}/none.json"}, code: 3, want: []string{"none.json", "no such file"}},
 
 		// Catalog files.
