@@ -39,8 +39,11 @@ type Ghost struct {
 	Z float64
 	// Radius is the 1/e^2 radius there.
 	Radius float64
-	// Reflectance is the product of the reflectances met.
+	// Reflectance is the product of the reflectances met; Coated says, for
+	// each of Surfaces, whether its reflectance is the coating's as stated
+	// (System.Reflectances) rather than the Fresnel value from the indices.
 	Reflectance float64
+	Coated      []bool
 	// Concentration is Reflectance times (beam radius at the first vertex
 	// over Radius)^2: the peak irradiance of the ghost against the input
 	// beam's peak at the first part (transmission losses ignored, so it
@@ -54,14 +57,6 @@ type Ghost struct {
 	Surface int
 }
 
-// GhostSettings say how to find ghosts. The zero value uses the Fresnel
-// reflectance of every surface.
-type GhostSettings struct {
-	// Reflectance[i] is the power reflectance of surface i (a coating);
-	// a missing or zero entry means the Fresnel value from the indices.
-	Reflectance []float64
-}
-
 // leg is one straight stretch of a ghost's path: from vertex at z0 going
 // dir (+1 or -1) for length (Inf for the last) in index n.
 type leg struct {
@@ -71,11 +66,12 @@ type leg struct {
 // Ghosts finds every single-reflection ghost (one per surface, back toward
 // the source) and every double-reflection ghost (one per pair of surfaces,
 // on toward the image) of the beam given at the first vertex in object
-// space. Each reflection acts as a mirror of power -2 n c (Reflection),
+// space. A surface reflects as s.Reflectances states, or else as the
+// Fresnel formula gives from its indices. Each reflection acts as a mirror of power -2 n c (Reflection),
 // each refraction as in the forward system; the beam's q is carried through
 // every leg of the unfolded path and its waists found where Re q = 0 within
 // a leg (Siegman 1986, ch. 20 on the ABCD law).
-func (s System) Ghosts(in GaussianBeam, set GhostSettings) []Ghost {
+func (s System) Ghosts(in GaussianBeam) []Ghost {
 	n := s.Indices(in.Wavelength)
 	if math.Abs(in.N-n[0]) > 1e-9 {
 		panic(fmt.Sprintf("optics: beam in index %g, object space has %g", in.N, n[0]))
@@ -84,7 +80,7 @@ func (s System) Ghosts(in GaussianBeam, set GhostSettings) []Ghost {
 	for i := 1; i < len(vz); i++ {
 		vz[i] = vz[i-1] + s.Gaps[i-1]
 	}
-	g := ghostFinder{s: s, n: n, vz: vz, set: set, in: in}
+	g := ghostFinder{s: s, n: n, vz: vz, in: in}
 	var out []Ghost
 	for k := range s.Surfaces {
 		out = append(out, g.single(k))
@@ -98,18 +94,19 @@ func (s System) Ghosts(in GaussianBeam, set GhostSettings) []Ghost {
 }
 
 type ghostFinder struct {
-	s   System
-	n   []float64
-	vz  []float64
-	set GhostSettings
-	in  GaussianBeam
+	s  System
+	n  []float64
+	vz []float64
+	in GaussianBeam
 }
 
-func (g *ghostFinder) reflectance(k int) float64 {
-	if k < len(g.set.Reflectance) && g.set.Reflectance[k] > 0 {
-		return g.set.Reflectance[k]
+// reflectance is surface k's power reflectance and whether it is a
+// coating's as stated.
+func (g *ghostFinder) reflectance(k int) (float64, bool) {
+	if r := g.s.Reflectances; k < len(r) && !math.IsNaN(r[k]) {
+		return r[k], true
 	}
-	return FresnelReflectance(g.n[k], g.n[k+1])
+	return FresnelReflectance(g.n[k], g.n[k+1]), false
 }
 
 func (g *ghostFinder) power(k int) float64 {
@@ -149,7 +146,8 @@ func (g *ghostFinder) single(k int) Ghost {
 	var legs []leg
 	var qs []GaussianBeam
 	g.back(b, k, -1, &legs, &qs)
-	return g.focus(Ghost{Surfaces: []int{k + 1}, Reflectance: g.reflectance(k)}, legs, qs)
+	r, coated := g.reflectance(k)
+	return g.focus(Ghost{Surfaces: []int{k + 1}, Reflectance: r, Coated: []bool{coated}}, legs, qs)
 }
 
 // double is the ghost of reflection at surface j, then at surface i < j
@@ -169,8 +167,10 @@ func (g *ghostFinder) double(j, i int) Ghost {
 		b = b.Propagate(g.s.Gaps[m]).Through(Refraction(g.power(m+1)), g.n[m+2])
 	}
 	legs, qs = append(legs, leg{g.vz[last], 1, math.Inf(1), g.n[last+1]}), append(qs, b)
+	rj, cj := g.reflectance(j)
+	ri, ci := g.reflectance(i)
 	return g.focus(Ghost{Surfaces: []int{j + 1, i + 1}, Forward: true,
-		Reflectance: g.reflectance(j) * g.reflectance(i)}, legs, qs)
+		Reflectance: rj * ri, Coated: []bool{cj, ci}}, legs, qs)
 }
 
 // focus finds the tightest waist along the legs and fills the ghost's

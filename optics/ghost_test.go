@@ -27,7 +27,7 @@ func TestGhostBiconvexSecondSurface(t *testing.T) {
 	// lies 0.73866 / 0.076590 = 9.644 mm in front of the first vertex.
 	p := singlet(50, -50, 5, 1.517, 25)
 	in := NewGaussianBeam(632.8, 2, 0, 1) // zR 20 m: geometric focus
-	gs := p.System(nil, nil).Ghosts(in, GhostSettings{})
+	gs := p.System(nil, nil).Ghosts(in)
 	if len(gs) != 3 {
 		t.Fatalf("%d ghosts, want 2 single and 1 double", len(gs))
 	}
@@ -63,19 +63,20 @@ func TestGhostDoubleFlatPlate(t *testing.T) {
 	// extra passes of the plate's reduced thickness toward a converging
 	// waist; Gerrard and Burch, ch. III).
 	plate := System{Surfaces: []Surface{{}, {}}, Gaps: []float64{6}, Media: []Medium{Constant{"n", 1.5}}}
-	for _, g := range plate.Ghosts(NewGaussianBeam(1064, 1.5, 0, 1), GhostSettings{}) {
+	for _, g := range plate.Ghosts(NewGaussianBeam(1064, 1.5, 0, 1)) {
 		if g.Concentration > g.Reflectance*(1+1e-9) {
 			t.Errorf("ghost %v of a plate in a collimated beam concentrates %g, reflectance %g", g.Surfaces, g.Concentration, g.Reflectance)
 		}
 	}
 	in := NewGaussianBeam(1064, 0.02, -50, 1) // waist 50 mm past the first face
-	gs := plate.Ghosts(in, GhostSettings{Reflectance: []float64{0.01, 0.02}})
+	plate.Reflectances = []float64{0.01, 0.02}
+	gs := plate.Ghosts(in)
 	main := 50 + 6*(1-1/1.5) // main waist from the first face (plate shift t (1 - 1/n))
 	d := gs[2]
 	if !d.Forward || d.Surfaces[0] != 2 || d.Surfaces[1] != 1 {
 		t.Fatalf("double ghost %+v", d)
 	}
 	checkNear(t, "double ghost z", d.Z, main-2*6/1.5, 1e-9, 1e-9)
-	checkNear(t, "reflectances from the settings", d.Reflectance, 0.0002, 0, 1e-12)
+	checkNear(t, "reflectances as the system states them", d.Reflectance, 0.0002, 0, 1e-12)
 	checkNear(t, "waist kept by plane mirrors", d.Radius, 0.02, 0, 1e-9)
 }

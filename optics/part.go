@@ -20,6 +20,9 @@ type Part struct {
 	Thickness []float64
 	// Media[i] is the material between surface i and surface i+1.
 	Media []Medium
+	// Coating is the stated residual reflectance of the surfaces that
+	// border air; the zero value states none (coating.go).
+	Coating Coating
 }
 
 // ID returns SUPPLIER:NAME.
@@ -130,6 +133,9 @@ func (p Part) Validate() error {
 		if m == nil {
 			add(fmt.Sprintf("glass%d", i+1), "no material")
 		}
+	}
+	if err := p.Coating.Validate(); err != nil {
+		ps = append(ps, err.(Problem))
 	}
 	if len(ps) > 0 || !(p.Diameter > 0) {
 		return ps

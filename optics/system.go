@@ -1,6 +1,9 @@
 package optics
 
-import "fmt"
+import (
+	"fmt"
+	"math"
+)
 
 // A System is a sequence of refracting surfaces between an object-space and
 // an image-space medium: one part, or several parts with the gaps between
@@ -16,6 +19,11 @@ type System struct {
 	// SemiApertures[i] is the clear semi-aperture of surface i in mm, for
 	// the real-ray tracer; nil or zero means unlimited.
 	SemiApertures []float64
+	// Reflectances[i] is the power reflectance (a fraction) of surface i as
+	// coated; NaN, or an entry past the end (nil: all), means the Fresnel
+	// reflectance from the indices on either side. Assemble fills it from
+	// the parts' coatings.
+	Reflectances []float64
 }
 
 // System returns the part alone between the given media (nil for air).
@@ -42,7 +50,35 @@ func Assemble(objectMedium, imageMedium Medium, parts []Part, gaps []float64) Sy
 			s.SemiApertures = append(s.SemiApertures, p.Aperture()/2)
 		}
 	}
+	s.Reflectances = reflectancesOf(parts)
 	return s
+}
+
+// reflectancesOf puts the parts' coated reflectances in a row, NaN for
+// every surface without one; nil when no part states a coating.
+func reflectancesOf(parts []Part) []float64 {
+	var r []float64
+	for k, p := range parts {
+		pr := p.Reflectances()
+		if pr == nil && r == nil {
+			continue
+		}
+		if r == nil {
+			for _, q := range parts[:k] {
+				for range q.Surfaces {
+					r = append(r, math.NaN())
+				}
+			}
+		}
+		for i := range p.Surfaces {
+			if pr == nil {
+				r = append(r, math.NaN())
+			} else {
+				r = append(r, pr[i])
+			}
+		}
+	}
+	return r
 }
 
 // Length is the axial distance from the first to the last vertex.

@@ -36,6 +36,10 @@ type GhostFocus struct {
 	// part (reflectance times the ratio of beam area to ghost area).
 	Reflectance   float64 `json:"reflectance"`
 	Concentration float64 `json:"concentration"`
+	// ReflectanceFrom says where the reflectances come from: "indices"
+	// (Fresnel), "coating" (the parts' stated residual reflectance) or
+	// "coating and indices" for a double reflection with one of each.
+	ReflectanceFrom string `json:"reflectance_from"`
 	// Peak is the estimated peak irradiance of the ghost with the
 	// requirement's power, W/cm^2: 2 P R / (pi w^2) (the peak of a
 	// Gaussian beam of power P R; Siegman, Lasers, 1986, ch. 17); nil
@@ -51,18 +55,19 @@ func (g GhostFocus) Flagged() bool { return len(g.Flags) > 0 }
 // concentrated first, and the number of ghosts whose reflected beam only
 // diverges (a virtual focus, not listed). in is the laser's beam at the
 // first vertex (Requirement.InputBeam, or for mode matching the input
-// waist at the working distance); reflectance gives each surface's power
-// reflectance (0 for the Fresnel value from the indices).
-func Ghosts(sys optics.System, req Requirement, in optics.GaussianBeam, reflectance []float64) ([]GhostFocus, int) {
+// waist at the working distance). Each surface reflects as its part's
+// coating states (sys.Reflectances, filled by optics.Assemble), else as
+// the Fresnel formula gives from the indices.
+func Ghosts(sys optics.System, req Requirement, in optics.GaussianBeam) ([]GhostFocus, int) {
 	var out []GhostFocus
 	virtual := 0
-	for _, g := range sys.Ghosts(in, optics.GhostSettings{Reflectance: reflectance}) {
+	for _, g := range sys.Ghosts(in) {
 		if !g.Real {
 			virtual++
 			continue
 		}
 		f := GhostFocus{Surfaces: g.Surfaces, Direction: "back", Z: g.Z, Radius: 1000 * g.Radius,
-			Reflectance: g.Reflectance, Concentration: g.Concentration}
+			Reflectance: g.Reflectance, Concentration: g.Concentration, ReflectanceFrom: reflectanceFrom(g.Coated)}
 		if g.Forward {
 			f.Direction = "forward"
 		}
@@ -84,6 +89,23 @@ func Ghosts(sys optics.System, req Requirement, in optics.GaussianBeam, reflecta
 	return out, virtual
 }
 
+// reflectanceFrom names where a ghost's reflectances come from.
+func reflectanceFrom(coated []bool) string {
+	n := 0
+	for _, c := range coated {
+		if c {
+			n++
+		}
+	}
+	switch n {
+	case 0:
+		return "indices"
+	case len(coated):
+		return "coating"
+	}
+	return "coating and indices"
+}
+
 // ghostSummary puts the most concentrated ghost and the number flagged
 // into a result's laser figures.
 func ghostSummary(f *LaserFigures, gs []GhostFocus) {
@@ -100,7 +122,7 @@ func ghostSummary(f *LaserFigures, gs []GhostFocus) {
 // GhostNotes are the lines that go with ghost figures wherever they are
 // printed: what they are and are not.
 func GhostNotes(req Requirement) []string {
-	n := []string{"ghost foci are paraxial Gaussian-beam estimates with Fresnel reflectances at normal incidence, aberrations and transmission losses ignored (so concentrations err high); they do not replace a safety assessment: ask your laser safety officer and follow local rules"}
+	n := []string{"ghost foci are paraxial Gaussian-beam estimates at normal incidence, each surface reflecting as its part's stated coating says or else as the Fresnel formula gives from the indices, aberrations and transmission losses ignored (so concentrations err high); they do not replace a safety assessment: ask your laser safety officer and follow local rules"}
 	if req.LaserExit == 0 {
 		n = append(n, "ghosts are not checked against the laser's exit: give --laser-exit (its distance before the first vertex)")
 	}

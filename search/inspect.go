@@ -220,7 +220,7 @@ func InspectGhosts(e record.Entry, s InspectSetting, req Requirement) PartGhosts
 	}
 	sys := p.System(s.In, s.Out)
 	beam := req.inputBeamIn(sys.Indices(req.Lambda())[0])
-	gs, virtual := Ghosts(sys, req, beam, nil)
+	gs, virtual := Ghosts(sys, req, beam)
 	if gs == nil {
 		gs = []GhostFocus{}
 	}

@@ -233,12 +233,8 @@ func (s *search) laserResult(p *prepared, l *layout, r *Result, c *collimation) 
 		f = s.matchFigures(l)
 		in = optics.NewGaussianBeam(s.req.Lambda(), s.req.WaistIn, l.wd, 1)
 	}
-	gs, _ := Ghosts(s.system(p, l), s.req, in, s.reflectances(p, l))
+	gs, _ := Ghosts(s.system(p, l), s.req, in)
 	ghostSummary(&f, gs)
 	r.Gaussian = &f
 	r.Reason += f.reason(s.req.Kind)
 }
-
-// reflectances are the power reflectances of the layout's surfaces: 0
-// everywhere (the Fresnel value from the indices).
-func (s *search) reflectances(p *prepared, l *layout) []float64 { return nil }
