@@ -35,6 +35,7 @@ var headerWords = map[string][]string{
 	"notes":             {"notes", "note", "comments", "comment", "remarks"},
 	"shape":             {"shape", "type", "lens type", "lens shape", "form"},
 	"stated_wavelength": {"wavelength", "design wavelength", "lambda"},
+	CoatingColumn:       {"residual reflectance", "reflectance", "reflectance per surface", "coating reflectance", "ravg", "r avg"},
 }
 
 // indexedWords are the words of fields numbered by surface or element.

@@ -399,7 +399,7 @@ func (rc *rowConverter) convert(values map[string]mappedCell, cells []string) {
 			set(f, rc.asphere(v))
 		case strings.HasPrefix(f, "glass"):
 			set(f, rc.glass(v))
-		case isIndexed(f, "conic") || f == "stated_wavelength" || f == "price":
+		case isIndexed(f, "conic") || f == "stated_wavelength" || f == "price" || f == CoatingColumn:
 			set(f, rc.number(v))
 		default:
 			set(f, strings.TrimSpace(v.text))

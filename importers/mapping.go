@@ -124,7 +124,7 @@ func listMappingFields() []string {
 	for i := 1; i <= MaxSurfaces; i++ {
 		f = append(f, col("conic", i), col("asph", i))
 	}
-	return append(f, "efl", "bfd", "edge_thickness", "stated_wavelength", "price", "currency", "url", "notes", "shape")
+	return append(f, "efl", "bfd", "edge_thickness", "stated_wavelength", "price", "currency", "url", "notes", CoatingColumn, "shape")
 }
 
 // ReadMapping reads a column-mapping file. The error, when not nil, is a

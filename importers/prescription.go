@@ -30,7 +30,8 @@ var prescriptionSchema = schema{
 		case "supplier", "part", "description", "diameter", "clear_aperture",
 			"efl", "bfd", "edge_thickness", "stated_wavelength",
 			"price", "currency", "url", "notes",
-			"efl_tolerance", "thickness_tolerance", "index_tolerance", "radius_tolerance":
+			"efl_tolerance", "thickness_tolerance", "index_tolerance", "radius_tolerance",
+			CoatingColumn:
 			return true
 		}
 		for _, p := range []struct {
@@ -270,6 +271,7 @@ func parseStated(r *row, e *record.Entry) {
 	e.URL = r.text("url")
 	e.Notes = r.text("notes")
 	parseTolerances(r, e)
+	parseCoating(r, &e.Part)
 }
 
 // parseTolerances reads the part's stated manufacturing tolerances (empty

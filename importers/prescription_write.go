@@ -15,7 +15,8 @@ import (
 // warnings aside, which the reader sets): numbers in the shortest form that
 // parses back to the same float, flats as inf, zero optional values as
 // empty cells. Conic and asphere columns appear only up to the last surface
-// that uses them, tolerance columns only when some entry states one.
+// that uses them, tolerance and coating columns only when some entry
+// states one.
 // Glasses are written by name, so the reader's glass table
 // must know every glass the entries use.
 func WritePrescriptions(w io.Writer, entries []record.Entry) error {
@@ -34,14 +35,18 @@ func WritePrescriptions(w io.Writer, entries []record.Entry) error {
 			}
 		}
 	}
-	tols := false
+	tols, coats := false, false
 	for _, e := range entries {
 		tols = tols || e.Tolerances != (optics.Tolerances{})
+		coats = coats || e.Part.Coating.Stated
 	}
 	cw := csv.NewWriter(w)
 	h := prescriptionHeader(n, nConic, nAsph)
 	if tols {
 		h = append(h, "efl_tolerance", "thickness_tolerance", "index_tolerance", "radius_tolerance")
+	}
+	if coats {
+		h = append(h, CoatingColumn)
 	}
 	cw.Write(h)
 	for _, e := range entries {
@@ -49,6 +54,9 @@ func WritePrescriptions(w io.Writer, entries []record.Entry) error {
 		if tols {
 			t := e.Tolerances
 			row = append(row, optionalFloat(t.EFLPct), optionalFloat(t.Thickness), optionalFloat(t.Index), optionalFloat(t.RadiusPct))
+		}
+		if coats {
+			row = append(row, coatingCell(e.Part.Coating))
 		}
 		cw.Write(row)
 	}
