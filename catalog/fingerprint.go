@@ -59,6 +59,11 @@ func fingerprint(e record.Entry, otherWarnings []string) string {
 			num(v)
 		}
 	}
+	if c := p.Coating; c.Stated {
+		// Only when stated, as the tolerances.
+		b.WriteString("|c")
+		num(c.ResidualPct)
+	}
 	for _, w := range otherWarnings {
 		str(w)
 	}

@@ -71,7 +71,7 @@ func writeNewParts(ctx context.Context, w *txWriter, parts []newPart, glasses op
 	ins := []*batch{
 		newBatch(w, `INSERT INTO parts (id, supplier, part, description, diameter_mm, clear_aperture_mm, kind,
 			stated_efl_mm, stated_bfd_mm, stated_edge_mm, stated_wavelength_nm, price, currency, url, notes, fingerprint,
-			efl_tol_pct, thickness_tol_mm, index_tol, radius_tol_pct)`, 20),
+			efl_tol_pct, thickness_tol_mm, index_tol, radius_tol_pct, residual_reflectance_pct)`, 21),
 		newBatch(w, `INSERT INTO surfaces (part_id, idx, radius_mm, conic, a4, a6, a8, a10, a12, a14, a16, thickness_mm, glass)`, 13),
 		newBatch(w, `INSERT INTO warnings (part_id, seq, message, computed)`, 4),
 		newBatch(w, `INSERT INTO computed (part_id, reversed, wavelength_nm, power_per_mm, efl_mm, bfd_mm, ffd_mm,
@@ -89,7 +89,7 @@ func writeNewParts(ctx context.Context, w *txWriter, parts []newPart, glasses op
 			nullIfZero(e.StatedEFL), nullIfZero(e.StatedBFD), nullIfZero(e.StatedEdge),
 			nullIfZero(e.StatedWavelength), nullIfZero(e.Price), e.Currency, e.URL, e.Notes, e.fingerprint,
 			nullIfZero(e.Tolerances.EFLPct), nullIfZero(e.Tolerances.Thickness), nullIfZero(e.Tolerances.Index),
-			nullIfZero(e.Tolerances.RadiusPct)); err != nil {
+			nullIfZero(e.Tolerances.RadiusPct), coatingValue(p.Coating)); err != nil {
 			return err
 		}
 		for k, s := range p.Surfaces {

@@ -95,6 +95,12 @@ func TestIndexKeptInStep(t *testing.T) {
 	changed.Price = 99
 	mustImport(t, s, []record.Entry{changed})
 	sameAsRebuilt(t, s, "part updated")
+	coated := es[2]
+	coated.Part.Coating = optics.Coating{Stated: true, ResidualPct: 0.4}
+	if rep := mustImport(t, s, []importers.Entry{coated}); len(rep.Updated) != 1 {
+		t.Errorf("a coating stated: %+v, want the part updated", rep)
+	}
+	sameAsRebuilt(t, s, "coating stated")
 	if _, err := s.SetDrawer(ctx, "TEST:DCX-20", 3, "A1", false); err != nil {
 		t.Fatal(err)
 	}

@@ -93,19 +93,24 @@ func sortByID(entries []record.Entry, ids []int64) {
 }
 
 func readPartRows(ctx context.Context, q querier, where string, args []any) ([]record.Entry, []int64, error) {
-	// A migration before the tolerance columns existed (0005) may read
-	// parts too (the search index rebuild of 0002): they read as not stated.
-	var hasTols int
-	if err := q.QueryRowContext(ctx, "SELECT COUNT(*) FROM pragma_table_info('parts') WHERE name = 'efl_tol_pct'").Scan(&hasTols); err != nil {
+	// A migration before the tolerance (0005) or coating (0006) columns
+	// existed may read parts too (the search index rebuild of 0002): they
+	// read as not stated.
+	has, err := partColumns(ctx, q)
+	if err != nil {
 		return nil, nil, err
 	}
 	tols := "NULL, NULL, NULL, NULL"
-	if hasTols > 0 {
+	if has["efl_tol_pct"] {
 		tols = "p.efl_tol_pct, p.thickness_tol_mm, p.index_tol, p.radius_tol_pct"
+	}
+	coat := ", NULL"
+	if has["residual_reflectance_pct"] {
+		coat = ", p.residual_reflectance_pct"
 	}
 	rows, err := q.QueryContext(ctx, `SELECT p.id, p.supplier, p.part, p.description, p.diameter_mm,
 		p.clear_aperture_mm, p.stated_efl_mm, p.stated_bfd_mm, p.stated_edge_mm, p.stated_wavelength_nm,
-		p.price, p.currency, p.url, p.notes, `+tols+filteredParts+"WHERE "+where+" ORDER BY p.id", args...)
+		p.price, p.currency, p.url, p.notes, `+tols+coat+filteredParts+"WHERE "+where+" ORDER BY p.id", args...)
 	if err != nil {
 		return nil, nil, err
 	}
@@ -115,18 +120,37 @@ func readPartRows(ctx context.Context, q querier, where string, args []any) ([]r
 	for rows.Next() {
 		var e record.Entry
 		var id int64
-		var efl, bfd, edge, wl, price, tEFL, tThick, tIndex, tRadius sql.NullFloat64
+		var efl, bfd, edge, wl, price, tEFL, tThick, tIndex, tRadius, coating sql.NullFloat64
 		p := &e.Part
 		if err := rows.Scan(&id, &p.Supplier, &p.Name, &p.Description, &p.Diameter, &p.ClearAperture,
-			&efl, &bfd, &edge, &wl, &price, &e.Currency, &e.URL, &e.Notes, &tEFL, &tThick, &tIndex, &tRadius); err != nil {
+			&efl, &bfd, &edge, &wl, &price, &e.Currency, &e.URL, &e.Notes, &tEFL, &tThick, &tIndex, &tRadius, &coating); err != nil {
 			return nil, nil, err
 		}
 		e.Tolerances = optics.Tolerances{EFLPct: tEFL.Float64, Thickness: tThick.Float64, Index: tIndex.Float64, RadiusPct: tRadius.Float64}
+		p.Coating = optics.Coating{Stated: coating.Valid, ResidualPct: coating.Float64}
 		e.StatedEFL, e.StatedBFD, e.StatedEdge = efl.Float64, bfd.Float64, edge.Float64
 		e.StatedWavelength, e.Price = wl.Float64, price.Float64
 		entries, ids = append(entries, e), append(ids, id)
 	}
 	return entries, ids, rows.Err()
+}
+
+// partColumns is the set of the parts table's column names.
+func partColumns(ctx context.Context, q querier) (map[string]bool, error) {
+	rows, err := q.QueryContext(ctx, "SELECT name FROM pragma_table_info('parts')")
+	if err != nil {
+		return nil, err
+	}
+	defer rows.Close()
+	has := map[string]bool{}
+	for rows.Next() {
+		var n string
+		if err := rows.Scan(&n); err != nil {
+			return nil, err
+		}
+		has[n] = true
+	}
+	return has, rows.Err()
 }
 
 // readSurfaces fills in the surfaces, thicknesses and media of the parts

@@ -40,12 +40,12 @@ func writePart(ctx context.Context, tx *txWriter, id int64, e storedEntry, glass
 		nullIfZero(e.StatedEFL), nullIfZero(e.StatedBFD), nullIfZero(e.StatedEdge),
 		nullIfZero(e.StatedWavelength), nullIfZero(e.Price), e.Currency, e.URL, e.Notes, e.fingerprint,
 		nullIfZero(e.Tolerances.EFLPct), nullIfZero(e.Tolerances.Thickness), nullIfZero(e.Tolerances.Index),
-		nullIfZero(e.Tolerances.RadiusPct)}
+		nullIfZero(e.Tolerances.RadiusPct), coatingValue(p.Coating)}
 	if id == 0 {
 		res, err := tx.exec(ctx, `INSERT INTO parts (supplier, part, description, diameter_mm,
 			clear_aperture_mm, kind, stated_efl_mm, stated_bfd_mm, stated_edge_mm, stated_wavelength_nm,
-			price, currency, url, notes, fingerprint, efl_tol_pct, thickness_tol_mm, index_tol, radius_tol_pct)
-			VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
+			price, currency, url, notes, fingerprint, efl_tol_pct, thickness_tol_mm, index_tol, radius_tol_pct,
+			residual_reflectance_pct) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
 			append([]any{p.Supplier, p.Name}, cols...)...)
 		if err != nil {
 			return 0, err
@@ -57,8 +57,8 @@ func writePart(ctx context.Context, tx *txWriter, id int64, e storedEntry, glass
 		_, err := tx.exec(ctx, `UPDATE parts SET description = ?, diameter_mm = ?,
 			clear_aperture_mm = ?, kind = ?, stated_efl_mm = ?, stated_bfd_mm = ?, stated_edge_mm = ?,
 			stated_wavelength_nm = ?, price = ?, currency = ?, url = ?, notes = ?, fingerprint = ?,
-			efl_tol_pct = ?, thickness_tol_mm = ?, index_tol = ?, radius_tol_pct = ?
-			WHERE id = ?`, append(cols, id)...)
+			efl_tol_pct = ?, thickness_tol_mm = ?, index_tol = ?, radius_tol_pct = ?,
+			residual_reflectance_pct = ? WHERE id = ?`, append(cols, id)...)
 		if err != nil {
 			return 0, err
 		}
@@ -161,6 +161,15 @@ func nullIfZero(v float64) any {
 		return nil
 	}
 	return v
+}
+
+// coatingValue stores a coating not stated as NULL, a stated one (0
+// included) as its percentage.
+func coatingValue(c optics.Coating) any {
+	if !c.Stated {
+		return nil
+	}
+	return c.ResidualPct
 }
 
 // radiusValue stores a plane (radius 0 or infinite) as NULL.

@@ -29,6 +29,9 @@ func richEntries(t *testing.T, table optics.GlassTable) []record.Entry {
 	air.Part.Surfaces = append(air.Part.Surfaces, optics.Surface{Radius: -80})
 	air.Part.Thickness = append(air.Part.Thickness, 4)
 	air.Part.Media = append(air.Part.Media, air.Part.Media[0])
+	// Coatings: one stated, one stated as 0 % (not the same as none).
+	asph.Part.Coating = optics.Coating{Stated: true, ResidualPct: 0.25}
+	air.Part.Coating = optics.Coating{Stated: true}
 	return append(es, asph, u, air)
 }
 
@@ -99,6 +102,8 @@ func entryDiff(a, b record.Entry) string {
 		return "price, currency, url or notes"
 	case len(a.Warnings) != len(b.Warnings):
 		return "warnings"
+	case pa.Coating != pb.Coating:
+		return "coating"
 	}
 	for i := range pa.Surfaces {
 		sa, sb := pa.Surfaces[i], pb.Surfaces[i]
