@@ -40,7 +40,10 @@ type Inspection struct {
 	// program's defaults where not (StatedTolerances says which).
 	Tolerances       optics.Tolerances `json:"tolerances"`
 	StatedTolerances bool              `json:"tolerances_stated"`
-	Warnings         []string          `json:"warnings"`
+	// ResidualReflectancePct is the stated coating (the reflectance of
+	// each surface bordering air, %); null when not stated.
+	ResidualReflectancePct *float64 `json:"residual_reflectance_pct"`
+	Warnings               []string `json:"warnings"`
 	// ImageQuality holds the real-ray figures, its keys inline; nil
 	// unless a real-ray setting is asked and the part can be traced.
 	*ImageQuality
@@ -127,6 +130,9 @@ func Inspect(e record.Entry, s InspectSetting) Inspection {
 	}
 	r.Tolerances = e.Tolerances.Or(optics.DefaultTolerances)
 	r.StatedTolerances = e.Tolerances != (optics.Tolerances{})
+	if p.Coating.Stated {
+		r.ResidualReflectancePct = &p.Coating.ResidualPct
+	}
 	r.Warnings = warnings
 	if s.Rays.Traces() {
 		s.Rays.judge(&r, sys, c, wl)

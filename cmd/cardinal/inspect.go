@@ -325,6 +325,11 @@ func figureTable(r search.Inspection) present.Table {
 	t := r.Tolerances
 	add("tolerances (build study)", fmt.Sprintf("EFL +-%s %%, thickness +-%s mm, index +-%s", present.Fixed(t.EFLPct, 2),
 		present.Fixed(t.Thickness, 3), strconv.FormatFloat(t.Index, 'g', -1, 64)), from)
+	if c := r.ResidualReflectancePct; c != nil {
+		add("coating, residual reflectance", strconv.FormatFloat(*c, 'g', -1, 64), "% per face in air")
+	} else {
+		add("coating, residual reflectance", "not stated", "Fresnel from the indices")
+	}
 	return textTable([]string{"figure", "value", "unit"}, append(rows, qualityRows(r)...))
 }
 

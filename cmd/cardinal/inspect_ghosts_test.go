@@ -3,7 +3,9 @@ package main
 import (
 	"encoding/json"
 	"math"
+	"os"
 	"path/filepath"
+	"slices"
 	"strings"
 	"testing"
 )
@@ -103,6 +105,86 @@ func TestInspectGhostPeak(t *testing.T) {
 		want := 2 * 2 * g.Reflectance / (math.Pi * w * w)
 		if math.Abs(g.Peak-want) > 1e-9*want {
 			t.Errorf("peak %g W/cm^2, want %g", g.Peak, want)
+		}
+	}
+}
+
+// A coated part's ghosts lie where the bare part's do, and each is as
+// concentrated as the bare one times the stated reflectance over the
+// Fresnel one, ((n - 1)/(n + 1))^2 at normal incidence (Hecht, Optics, 5th
+// ed., sec. 4.6.2), for every reflection met: the product of the two for a
+// double ghost. The coated part says so in inspect's table.
+func TestInspectGhostsCoated(t *testing.T) {
+	const header = "supplier,part,diameter,r1,r2,r3,t1,t2,glass1,glass2,residual_reflectance\n"
+	dir := t.TempDir()
+	file := filepath.Join(dir, "coated.csv")
+	if err := os.WriteFile(file, []byte(header+
+		"TEST,BARE,25.4,50,-50,,5,,517642,,\n"+
+		"TEST,COATED,25.4,50,-50,,5,,517642,,0.5%\n"+
+		"TEST,ACH-C,25.4,60,-40,-150,6,2,517642,620364,0.25\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	type ghost struct {
+		Surfaces      []int   `json:"surfaces"`
+		Z             float64 `json:"z_mm"`
+		Reflectance   float64 `json:"reflectance"`
+		Concentration float64 `json:"concentration"`
+		From          string  `json:"reflectance_from"`
+	}
+	ghostsOf := func(part string) []ghost {
+		e, out, _ := testEnv()
+		o := ghostOpts(e, "json", part)
+		o.File = file
+		if err := runInspect(o); err != nil {
+			t.Fatal(err)
+		}
+		var got []struct {
+			Ghosts []ghost `json:"ghosts"`
+		}
+		if err := json.Unmarshal(out.Bytes(), &got); err != nil {
+			t.Fatal(err)
+		}
+		return got[0].Ghosts
+	}
+	bare, coated := ghostsOf("TEST:BARE"), ghostsOf("TEST:COATED")
+	if len(bare) == 0 || len(bare) != len(coated) {
+		t.Fatalf("%d ghosts bare, %d coated", len(bare), len(coated))
+	}
+	for i := range bare {
+		b, c := bare[i], coated[i]
+		// The bare part's reflectance per reflection is the Fresnel value at
+		// 1064 nm (optics' TestFresnelReflectance checks the formula); the
+		// coated part's is the stated 0.5 % per reflection.
+		want := math.Pow(0.005, float64(len(c.Surfaces)))
+		if math.Abs(c.Reflectance-want) > 1e-15 || c.From != "coating" || b.From != "indices" {
+			t.Errorf("ghost %v: reflectance %g from %q (bare from %q), want %g from the coating", c.Surfaces, c.Reflectance, c.From, b.From, want)
+		}
+		if math.Abs(c.Z-b.Z) > 1e-9 {
+			t.Errorf("ghost %v moved with the coating: %g against %g mm", c.Surfaces, c.Z, b.Z)
+		}
+		if r := c.Concentration / b.Concentration; math.Abs(r-want/b.Reflectance) > 1e-9*r {
+			t.Errorf("ghost %v: concentration ratio %g, want %g", c.Surfaces, r, want/b.Reflectance)
+		}
+	}
+	// In a cemented doublet the cemented face is not coated: a double
+	// ghost between an outer face and the cemented one mixes the two.
+	for _, g := range ghostsOf("TEST:ACH-C") {
+		cemented := slices.Contains(g.Surfaces, 2)
+		switch {
+		case cemented && len(g.Surfaces) == 2 && g.From != "coating and indices",
+			cemented && len(g.Surfaces) == 1 && g.From != "indices",
+			!cemented && g.From != "coating":
+			t.Errorf("ghost %v: reflectance from %q", g.Surfaces, g.From)
+		}
+	}
+	e, out, _ := testEnv()
+	o := inspectOpts(e, func(o *inspectOptions) { o.File, o.Parts = file, []string{"TEST:COATED", "TEST:BARE"} })
+	if err := runInspect(o); err != nil {
+		t.Fatal(err)
+	}
+	for _, want := range []string{"coating, residual reflectance   0.5", "coating, residual reflectance   not stated"} {
+		if !strings.Contains(out.String(), want) {
+			t.Errorf("inspect's table lacks %q:\n%s", want, out.String())
 		}
 	}
 }
