@@ -3,7 +3,7 @@ package catalog
 import (
 	"testing"
 
-	"cardinal/importers"
+	"cardinal/catalog/record"
 	"cardinal/optics"
 )
 
@@ -17,8 +17,8 @@ func TestPartCoatingStored(t *testing.T) {
 	b := lens(t, "DEMO", "C0", 100, -100, 5, 25, "517642")
 	b.Part.Coating = optics.Coating{Stated: true}
 	c := lens(t, "DEMO", "BARE", 100, -100, 5, 25, "517642")
-	mustImport(t, s, []importers.Entry{a, b, c})
-	for _, want := range []importers.Entry{a, b, c} {
+	mustImport(t, s, []record.Entry{a, b, c})
+	for _, want := range []record.Entry{a, b, c} {
 		back, err := s.Part(ctx, want.Part.ID())
 		if err != nil {
 			t.Fatal(err)
@@ -29,7 +29,7 @@ func TestPartCoatingStored(t *testing.T) {
 	}
 	for _, change := range []optics.Coating{{Stated: true, ResidualPct: 0.5}, {}} {
 		a.Part.Coating = change
-		if rep := mustImport(t, s, []importers.Entry{a}); len(rep.Updated) != 1 {
+		if rep := mustImport(t, s, []record.Entry{a}); len(rep.Updated) != 1 {
 			t.Errorf("coating changed to %+v: %+v, want one part updated", change, rep)
 		}
 	}

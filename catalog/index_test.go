@@ -97,7 +97,7 @@ func TestIndexKeptInStep(t *testing.T) {
 	sameAsRebuilt(t, s, "part updated")
 	coated := es[2]
 	coated.Part.Coating = optics.Coating{Stated: true, ResidualPct: 0.4}
-	if rep := mustImport(t, s, []importers.Entry{coated}); len(rep.Updated) != 1 {
+	if rep := mustImport(t, s, []record.Entry{coated}); len(rep.Updated) != 1 {
 		t.Errorf("a coating stated: %+v, want the part updated", rep)
 	}
 	sameAsRebuilt(t, s, "coating stated")
