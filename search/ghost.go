@@ -89,6 +89,28 @@ func Ghosts(sys optics.System, req Requirement, in optics.GaussianBeam) ([]Ghost
 	return out, virtual
 }
 
+// ghostInput is the laser's beam at the first vertex that ghosts are
+// judged with: the requirement's input beam, or for mode matching its
+// input waist wd before the first vertex (the layout's working distance).
+func (r Requirement) ghostInput(wd float64) optics.GaussianBeam {
+	if r.Kind == Match {
+		return optics.NewGaussianBeam(r.Lambda(), r.WaistIn, wd, 1)
+	}
+	return r.InputBeam()
+}
+
+// ResultGhosts are every ghost focus of a result of a laser requirement
+// (the ones its worst ghost was chosen from), most concentrated first, and
+// the number of virtual ones; sys is the result's layout as built
+// (optics.Assemble of its parts, turned as the result says, at its gap).
+func ResultGhosts(sys optics.System, req Requirement, r Result) ([]GhostFocus, int) {
+	wd := 0.0
+	if r.WorkingDistance != nil {
+		wd = *r.WorkingDistance
+	}
+	return Ghosts(sys, req, req.ghostInput(wd))
+}
+
 // reflectanceFrom names where a ghost's reflectances come from.
 func reflectanceFrom(coated []bool) string {
 	n := 0

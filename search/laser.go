@@ -217,7 +217,6 @@ func (f *LaserFigures) reason(kind Kind) string {
 // and for every kind the most concentrated ghost.
 func (s *search) laserResult(p *prepared, l *layout, r *Result, c *collimation) {
 	var f LaserFigures
-	in := s.req.InputBeam()
 	switch s.req.Kind {
 	case Focus:
 		f = s.focusFigures(l)
@@ -231,9 +230,8 @@ func (s *search) laserResult(p *prepared, l *layout, r *Result, c *collimation) 
 		}
 	case Match:
 		f = s.matchFigures(l)
-		in = optics.NewGaussianBeam(s.req.Lambda(), s.req.WaistIn, l.wd, 1)
 	}
-	gs, _ := Ghosts(s.system(p, l), s.req, in)
+	gs, _ := Ghosts(s.system(p, l), s.req, s.req.ghostInput(l.wd))
 	ghostSummary(&f, gs)
 	r.Gaussian = &f
 	r.Reason += f.reason(s.req.Kind)
