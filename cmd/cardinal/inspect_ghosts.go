@@ -3,7 +3,6 @@ package main
 import (
 	"fmt"
 	"math"
-	"strings"
 
 	"github.com/spf13/pflag"
 
@@ -69,13 +68,15 @@ func (g ghostOptions) requirement(ro rayOptions, wl float64) search.Requirement 
 func writeGhosts(o *inspectOptions, entries []record.Entry, in, out optics.Medium) error {
 	req := o.Ghosts.requirement(o.Rays, o.Wavelength)
 	var all []search.PartGhosts
-	t := ghostTable()
+	var lists []present.GhostList
 	for _, e := range entries {
 		pg := search.InspectGhosts(e, search.InspectSetting{Reverse: o.Reverse, Wavelength: o.Wavelength, In: in, Out: out}, req)
 		all = append(all, pg)
-		for _, g := range pg.Ghosts {
-			t.Add(append([]present.Cell{present.Int(len(t.Rows) + 1)}, ghostRow(pg, g)...)...)
+		name := pg.Supplier + ":" + pg.Part
+		if pg.Reversed {
+			name += " (reversed)"
 		}
+		lists = append(lists, present.GhostList{Name: name, Ghosts: pg.Ghosts})
 		if pg.Virtual > 0 {
 			fmt.Fprintf(o.env.Err, "note: %s: %d %s (virtual focus), not listed\n", e.Part.ID(), pg.Virtual,
 				map[bool]string{true: "reflected beam only diverges", false: "reflected beams only diverge"}[pg.Virtual == 1])
@@ -85,35 +86,5 @@ func writeGhosts(o *inspectOptions, entries []record.Entry, in, out optics.Mediu
 		fmt.Fprintln(o.env.Err, "note:", n)
 	}
 	writeCautions(o.env, req)
-	return render(o.env, o.env.Out, outputFlags{Format: o.Format}, t, all)
-}
-
-func ghostTable() present.Table {
-	return present.Table{Columns: []present.Column{
-		{Key: "ghost", Label: "#"},
-		{Key: "part", Label: "part"},
-		{Key: "surfaces", Label: "reflections"},
-		{Key: "direction", Label: "goes"},
-		{Key: "z_mm", Label: "focus at", Unit: "mm"},
-		{Key: "radius_um", Label: "radius", Unit: "µm"},
-		{Key: "reflectance", Label: "reflectance", Unit: "%"},
-		{Key: "concentration", Label: "concentration"},
-		{Key: "peak_w_per_cm2", Label: "peak", Unit: "W/cm²"},
-		{Key: "flags", Label: "flags", Note: true},
-	}}
-}
-
-func ghostRow(pg search.PartGhosts, g search.GhostFocus) []present.Cell {
-	id := pg.Supplier + ":" + pg.Part
-	if pg.Reversed {
-		id += " (reversed)"
-	}
-	surf := make([]string, len(g.Surfaces))
-	for i, s := range g.Surfaces {
-		surf[i] = fmt.Sprint(s)
-	}
-	flags := strings.Join(g.Flags, "; ")
-	return []present.Cell{present.Text(id), present.Text("surface " + strings.Join(surf, ", then ")), present.Text(g.Direction),
-		present.Num(g.Z, 2), present.Num(g.Radius, 2), present.Num(100*g.Reflectance, 3), present.Num(g.Concentration, 1),
-		present.OptNum(g.Peak, 0), {Text: flags, Raw: flags}}
+	return render(o.env, o.env.Out, outputFlags{Format: o.Format}, present.Ghosts(lists, true), all)
 }
