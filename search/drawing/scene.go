@@ -53,6 +53,10 @@ type Scene struct {
 	// Marks are the cardinal points on the drawing; OffDrawing those too
 	// far away to draw, listed in the legend instead.
 	Marks, OffDrawing []Mark
+	// Ghosts are the ghost foci marked for a laser requirement (each
+	// flagged one and the most concentrated); OffGhosts those too far
+	// away to draw, listed in the legend.
+	Ghosts, OffGhosts []GhostMark
 	Dims              []Dim
 	// XMin and XMax bound the drawing along z; YMax is the largest height
 	// of a part or a ray.
@@ -105,6 +109,7 @@ func NewScene(s solution.Solution, o DrawOptions) (Scene, error) {
 	}
 	sc.bounds()
 	sc.marks(sys)
+	sc.ghosts(sys)
 	sc.dims(env)
 	return sc, nil
 }

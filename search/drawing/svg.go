@@ -36,6 +36,10 @@ type svgDoc struct {
 	sw float64 // stroke width, mm
 	// dimLabels are the dimensions as placed (placeDims).
 	dimLabels []dimLabel
+	// ghostLabels are the ghost marks' labels as placed, in ghostRows
+	// rows (placeGhosts).
+	ghostLabels []ghostLabel
+	ghostRows   int
 }
 
 // WriteSVG writes the scene as a self-contained SVG drawing to scale: one
@@ -49,9 +53,10 @@ func (sc *Scene) WriteSVG(w io.Writer, o DrawOptions) error {
 	d := &svgDoc{sc: sc, fs: fontSize(*sc)}
 	d.sw = d.fs / 14
 	x0, x1 := d.extent()
+	d.placeGhosts(x0+0.2*d.fs, x1-0.2*d.fs)
 	title := wrapText(d.title(o), runesIn(x1-x0-2*d.fs, titleSize*d.fs))
 	legend := d.legendRows(runesIn(x1-x0-legendIndent*d.fs-d.fs, legendSize*d.fs))
-	top := sc.YMax + (5+1.4*float64(len(title)-1))*d.fs
+	top := sc.YMax + (5+1.4*float64(len(title)-1))*d.fs + d.ghostBand()
 	d.placeDims(x0+0.2*d.fs, x1-0.2*d.fs)
 	last := d.dimY(max(d.lastDimRow(), 2))
 	bottom := last + 2.5*d.fs + float64(len(legend))*1.5*d.fs
@@ -69,6 +74,7 @@ func (sc *Scene) WriteSVG(w io.Writer, o DrawOptions) error {
 	d.envelope()
 	d.rays()
 	d.marks()
+	d.ghosts()
 	d.dims()
 	d.scaleBar(x0, last+1.5*d.fs)
 	d.writeLegend(legend, x0, last+3.2*d.fs)

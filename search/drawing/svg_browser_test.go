@@ -19,7 +19,7 @@ import (
 // every drawing it takes the box the browser rendered (getBBox, in the
 // drawing's user units, with the fonts the browser really has) and lists
 // each one that reaches outside the drawing's viewBox, and each dimension
-// label whose box overlaps another text's.
+// or ghost label whose box overlaps another text's.
 const measureScript = `<script>
 const out = [];
 let n = 0;
@@ -37,7 +37,7 @@ for (const svg of document.querySelectorAll("svg.cardinal-layout")) {
 const clash = [];
 for (const svg of document.querySelectorAll("svg.cardinal-layout")) {
   const texts = [...svg.querySelectorAll("text")];
-  for (const a of svg.querySelectorAll("text.dim-label")) {
+  for (const a of svg.querySelectorAll("text.dim-label, text.ghost-label")) {
     const p = a.getBBox();
     for (const t of texts) {
       if (t === a) continue;
@@ -83,8 +83,9 @@ func preText(t *testing.T, dom, id string) string {
 
 // Every text of the layout drawings, the legend's long lines and the laser
 // caution among them, lies inside the drawing as a real browser renders
-// it, and no dimension label overlaps another text (a short gap beside a
-// long back clearance on a 300 mm track among them).
+// it, and no dimension or ghost label overlaps another text (a short gap
+// beside a long back clearance on a 300 mm track among them, and laser
+// layouts with several flagged ghosts).
 func TestSVGTextInsideTheDrawing(t *testing.T) {
 	bin := solutiontest.Chromium(t)
 	drawings := map[string][]byte{}
@@ -95,6 +96,12 @@ func TestSVGTextInsideTheDrawing(t *testing.T) {
 		}
 	}
 	drawings["short gap on a long track"] = shortGapDrawing(t)
+	ghosts := solutiontest.Requirements()["focus"]
+	ghosts.LaserExit = 25
+	for i, s := range solutiontest.Solve(t, ghosts) {
+		_, drawings[fmt.Sprintf("ghosts %d", i+1)] = drawBytes(t, s, DrawOptions{})
+	}
+	_, drawings["ghost at the laser's exit"] = drawBytes(t, biconvexLaser(t), DrawOptions{})
 	long := solutiontest.Solve(t, solutiontest.Requirements()["focus"])[0]
 	_, drawings["long title"] = drawBytes(t, long, DrawOptions{Title: strings.Repeat("a long title that goes on, ", 12)})
 	page := filepath.Join(t.TempDir(), "drawings.html")

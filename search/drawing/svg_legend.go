@@ -6,6 +6,7 @@ import (
 	"sort"
 	"strings"
 
+	"cardinal/search"
 	"cardinal/search/present"
 	"cardinal/search/solution"
 	"cardinal/search/wavecolour"
@@ -14,7 +15,7 @@ import (
 // A legendLine is one line of the drawing's legend: a sample (a ray's
 // line, a mark's glyph, or nothing) and its words.
 type legendLine struct {
-	sample string // "marginal", "chief", "rim", "part", "system", "caution" (words in colour, no sample), "build" (no sample), ""
+	sample string // "marginal", "chief", "rim", "part", "system", "caution" (words in colour, no sample), "build" (no sample), "ghost", ""
 	text   string
 }
 
@@ -52,6 +53,7 @@ func (d *svgDoc) legend() []legendLine {
 		ls = append(ls, legendLine{"system", "cardinal points of the whole system, below the axis"})
 	}
 	ls = append(ls, legendLine{"", "in air the nodal points N, N′ coincide with the principal points P, P′"})
+	ls = append(ls, d.ghostLegend()...)
 	if off := offDrawing(sc.OffDrawing); off != "" {
 		ls = append(ls, legendLine{"", "off the drawing: " + off})
 	}
@@ -135,6 +137,10 @@ func (d *svgDoc) writeLegend(rows []legendLine, x, y float64) {
 			}
 			d.glyph(Mark{Kind: "F", Z: x + 0.5*d.fs}, colour, yy)
 			fmt.Fprintf(&d.b, `<rect x="%s" y="%s" width="%s" height="%s" fill="%s"/>`+"\n", f4(x+1.3*d.fs), f4(yy-0.6*d.fs), f4(d.sw*2.5), f4(1.2*d.fs), colour)
+		}
+		if l.sample == "ghost" {
+			d.ghostGlyph(GhostMark{GhostFocus: search.GhostFocus{Direction: "forward", Z: x + 0.5*d.fs}}, yy, 0.5*d.fs)
+			d.ghostGlyph(GhostMark{GhostFocus: search.GhostFocus{Direction: "back", Z: x + 1.6*d.fs}}, yy, 0.5*d.fs)
 		}
 		colour := "#000000"
 		if l.sample == "caution" {
