@@ -56,6 +56,9 @@ type reportPick struct {
 	Sens       [][]string
 	StudyPlot  template.URL
 	Warnings   []string
+	// Ghosts is the ghost-focus section of a laser requirement's pick;
+	// nil otherwise.
+	Ghosts *reportGhosts
 }
 
 // reportPage is the template's data.
@@ -118,7 +121,8 @@ func WriteReport(w io.Writer, in ReportInput) error {
 func pickPage(s solution.Solution, in ReportInput) (reportPick, error) {
 	p := reportPick{Rank: s.Result.Rank, Parts: solution.DescribeParts(s.Result.Parts),
 		Spacings: solution.DescribeSpacings(in.Requirement.Kind, s.Result), Figures: qualityFigures(s.Result), Warnings: s.Verify(),
-		Build: s.Build().Rows(solution.SidesOf(in.Requirement.Kind)), Names: template.HTML(present.PartsHTML(s.Result.Parts))}
+		Build: s.Build().Rows(solution.SidesOf(in.Requirement.Kind)), Names: template.HTML(present.PartsHTML(s.Result.Parts)),
+		Ghosts: ghostSection(s)}
 	sc, err := drawing.NewScene(s, in.Draw)
 	if err != nil {
 		return p, fmt.Errorf("solution %d: %w", p.Rank, err)
