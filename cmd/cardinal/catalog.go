@@ -105,33 +105,21 @@ func runCatalogImport(co *catalogImportOptions) error {
 	}
 	o := co.importOptions
 	ctx := context.Background()
-	data, err := readInputFile(o.File, o.env)
+	data, t, err := openImport(ctx, o)
 	if err != nil {
 		return err
 	}
-	s, err := openForImport(o.DB, o.env, o.DryRun)
-	if err != nil {
-		return err
-	}
-	glasses := optics.BuiltinGlasses()
-	if s != nil {
-		defer s.Close()
-		if glasses, err = s.Glasses(ctx); err != nil {
-			return err
-		}
-	}
-	f, err := importers.ReadPrescriptionFile(bytes.NewReader(data), o.File, glasses)
+	defer t.Close()
+	f, err := importers.ReadPrescriptionFile(bytes.NewReader(data), o.File, t.glasses)
 	if err != nil {
 		return usageErrorf("%s cannot be imported; nothing was changed. Fix these lines and import again:\n%v", o.File, err)
 	}
 	for _, w := range f.Warnings {
 		notef(o.env, "cardinal: warning: %v\n", w)
 	}
-	if s == nil { // a new catalog, created only now that the file reads
-		if s, err = o.env.stores().Write(o.DB, true); err != nil {
-			return err
-		}
-		defer s.Close()
+	s, err := t.store()
+	if err != nil {
+		return err
 	}
 	var rep catalog.ImportReport
 	err = waitNotice(o.env, s.Path(), func() (err error) {
@@ -146,6 +134,55 @@ func runCatalogImport(co *catalogImportOptions) error {
 	}
 	printChanges(o.env, s.Path(), o.File, "parts", rep.Added, rep.Updated, len(rep.Unchanged), len(rep.Warnings), o.DryRun)
 	return nil
+}
+
+// An importTarget is the catalog an import of parts writes to, with the
+// glass table its rows are read against: the catalog's, or the built-in
+// glasses while there is no catalog yet.
+type importTarget struct {
+	o       *importOptions
+	s       *catalog.Store // nil until store() while there is no catalog yet
+	glasses optics.GlassTable
+}
+
+// openImport reads the file to import and opens the catalog it goes to
+// (openForImport); Close the target when done.
+func openImport(ctx context.Context, o *importOptions) ([]byte, *importTarget, error) {
+	data, err := readInputFile(o.File, o.env)
+	if err != nil {
+		return nil, nil, err
+	}
+	s, err := openForImport(o.DB, o.env, o.DryRun)
+	if err != nil {
+		return nil, nil, err
+	}
+	t := &importTarget{o: o, s: s, glasses: optics.BuiltinGlasses()}
+	if s != nil {
+		if t.glasses, err = s.Glasses(ctx); err != nil {
+			s.Close()
+			return nil, nil, err
+		}
+	}
+	return data, t, nil
+}
+
+// store is the catalog to write to, created now (once the file has read
+// without error) when there was none.
+func (t *importTarget) store() (*catalog.Store, error) {
+	if t.s == nil {
+		s, err := t.o.env.stores().Write(t.o.DB, true)
+		if err != nil {
+			return nil, err
+		}
+		t.s = s
+	}
+	return t.s, nil
+}
+
+func (t *importTarget) Close() {
+	if t.s != nil {
+		t.s.Close()
+	}
 }
 
 // openForImport opens the catalog an import writes to. It returns nil

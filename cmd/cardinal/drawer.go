@@ -129,29 +129,16 @@ func runDrawerSet(o *drawerSetOptions) error {
 }
 
 // drawerListOptions are the flags of `drawer list`.
-type drawerListOptions struct {
-	env    *env
-	DB     string
-	Format string
-}
+type drawerListOptions struct{ listOptions }
 
 func newDrawerListCmd(e *env, run func(*drawerListOptions) error) *cobra.Command {
-	o := &drawerListOptions{env: e}
-	cmd := &cobra.Command{
-		Use:     "list",
-		Short:   "List the parts in the drawer with their focal lengths",
-		Example: `  cardinal drawer list --format csv > drawer.csv`,
-		Args:    cobra.NoArgs,
-		RunE: func(cmd *cobra.Command, _ []string) error {
-			o.DB = dbFlag(cmd)
-			if err := checkFormat(o.Format); err != nil {
-				return err
-			}
-			return run(o)
-		},
-	}
-	cmd.Flags().StringVar(&o.Format, "format", "table", "output format: table, json, csv or md (csv is a drawer CSV that 'drawer import' reads)")
-	return cmd
+	o := &drawerListOptions{}
+	return newListCmd(e, listCommand{
+		Use:        "list",
+		Short:      "List the parts in the drawer with their focal lengths",
+		Example:    `  cardinal drawer list --format csv > drawer.csv`,
+		FormatHelp: "output format: table, json, csv or md (csv is a drawer CSV that 'drawer import' reads)",
+	}, &o.listOptions, func() error { return run(o) })
 }
 
 // A drawerEntry is one row of `drawer list --format json`.

@@ -79,15 +79,13 @@ func runGlassImport(o *importOptions) error {
 
 // glassListOptions are the flags of `glass list`.
 type glassListOptions struct {
-	env    *env
-	DB     string
-	User   bool // only the user's glasses
-	Format string
+	listOptions
+	User bool // only the user's glasses
 }
 
 func newGlassListCmd(e *env, run func(*glassListOptions) error) *cobra.Command {
-	o := &glassListOptions{env: e}
-	cmd := &cobra.Command{
+	o := &glassListOptions{}
+	cmd := newListCmd(e, listCommand{
 		Use:   "list",
 		Short: "List the built-in glasses and yours, with nd and Vd",
 		Long: `List every named glass with its index nd at the d line (587.5618 nm) and its
@@ -95,17 +93,8 @@ Abbe number Vd = (nd - 1)/(nF - nC). Six-digit glass codes need no entry.
 With --user --format csv the output is a glass CSV that 'glass import' reads.`,
 		Example: `  cardinal glass list
   cardinal glass list --user --format csv > my-glasses.csv`,
-		Args: cobra.NoArgs,
-		RunE: func(cmd *cobra.Command, _ []string) error {
-			o.DB = dbFlag(cmd)
-			if err := checkFormat(o.Format); err != nil {
-				return err
-			}
-			return run(o)
-		},
-	}
+	}, &o.listOptions, func() error { return run(o) })
 	cmd.Flags().BoolVar(&o.User, "user", false, "only your own glasses")
-	cmd.Flags().StringVar(&o.Format, "format", "table", "output format: table, json, csv or md")
 	return cmd
 }
 

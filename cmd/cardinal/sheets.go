@@ -46,23 +46,13 @@ func runMappedImport(o *catalogImportOptions) error {
 	if o.Sheet != "" {
 		m.Sheet = o.Sheet
 	}
-	data, err := readInputFile(o.File, o.env)
+	data, t, err := openImport(ctx, o.importOptions)
 	if err != nil {
 		return err
 	}
-	s, err := openForImport(o.DB, o.env, o.DryRun)
-	if err != nil {
-		return err
-	}
-	glasses := optics.BuiltinGlasses()
-	if s != nil {
-		defer s.Close()
-		if glasses, err = s.Glasses(ctx); err != nil {
-			return err
-		}
-	}
+	defer t.Close()
 	f, err := importers.ReadMapped(importers.Source{Name: o.File, Data: data}, m,
-		importers.MapOptions{Glasses: glasses, Progress: progress(o.env, o.File)})
+		importers.MapOptions{Glasses: t.glasses, Progress: progress(o.env, o.File)})
 	where := sheetWhere(o.File, f.Sheet)
 	if err != nil && o.DryRun && len(f.Rows) > 0 {
 		if perr := writePreview(o, m, f); perr != nil {
@@ -76,11 +66,9 @@ func runMappedImport(o *catalogImportOptions) error {
 	for _, w := range f.Warnings {
 		notef(o.env, "cardinal: warning: %v\n", w)
 	}
-	if s == nil {
-		if s, err = o.env.stores().Write(o.DB, true); err != nil {
-			return err
-		}
-		defer s.Close()
+	s, err := t.store()
+	if err != nil {
+		return err
 	}
 	if o.DryRun {
 		if err := writePreview(o, m, f); err != nil {
@@ -475,29 +463,15 @@ func runGlassAlias(o *glassAliasOptions) error {
 }
 
 // glassAliasesOptions are the flags of `glass aliases`.
-type glassAliasesOptions struct {
-	env    *env
-	DB     string
-	Format string
-}
+type glassAliasesOptions struct{ listOptions }
 
 func newGlassAliasesCmd(e *env, run func(*glassAliasesOptions) error) *cobra.Command {
-	o := &glassAliasesOptions{env: e}
-	cmd := &cobra.Command{
+	o := &glassAliasesOptions{}
+	return newListCmd(e, listCommand{
 		Use:     "aliases",
 		Short:   "List your glass aliases and the glass each stands for",
 		Example: `  cardinal glass aliases --format csv`,
-		Args:    cobra.NoArgs,
-		RunE: func(cmd *cobra.Command, _ []string) error {
-			o.DB = dbFlag(cmd)
-			if err := checkFormat(o.Format); err != nil {
-				return err
-			}
-			return run(o)
-		},
-	}
-	cmd.Flags().StringVar(&o.Format, "format", "table", "output format: table, json, csv or md")
-	return cmd
+	}, &o.listOptions, func() error { return run(o) })
 }
 
 // A listedAlias is one alias in `glass aliases --format json`.
