@@ -241,34 +241,13 @@ func (m *Mapping) setting(name, value string) string {
 			m.FirstDataRow = v
 		}
 	case "blank row":
-		switch low {
-		case "skip":
-			m.StopAtBlank = false
-		case "stop":
-			m.StopAtBlank = true
-		default:
-			return fmt.Sprintf("blank row: %q; write skip or stop", value)
-		}
+		return choose(&m.StopAtBlank, name, value, "skip or stop", map[string]bool{"skip": false, "stop": true})
 	case "lengths":
-		switch low {
-		case "mm":
-			m.Unit = Millimetre
-		case "cm":
-			m.Unit = Centimetre
-		case "inch", "in", "inches":
-			m.Unit = Inch
-		default:
-			return fmt.Sprintf("lengths: %q; write mm, cm or inch", value)
-		}
+		return choose(&m.Unit, name, value, "mm, cm or inch",
+			map[string]LengthUnit{"mm": Millimetre, "cm": Centimetre, "inch": Inch, "in": Inch, "inches": Inch})
 	case "radii":
-		switch low {
-		case "signed":
-			m.Magnitudes = false
-		case "magnitudes":
-			m.Magnitudes = true
-		default:
-			return fmt.Sprintf("radii: %q; write signed (as cardinal signs them) or magnitudes (the shape gives the signs)", value)
-		}
+		return choose(&m.Magnitudes, name, value, "signed (as cardinal signs them) or magnitudes (the shape gives the signs)",
+			map[string]bool{"signed": false, "magnitudes": true})
 	case "flat":
 		m.setFlat = true
 		m.Flat = nil
@@ -278,28 +257,26 @@ func (m *Mapping) setting(name, value string) string {
 			}
 		}
 	case "delimiter":
-		switch low {
-		case ",", "comma":
-			m.Delimiter = ','
-		case ";", "semicolon":
-			m.Delimiter = ';'
-		case "tab", `\t`:
-			m.Delimiter = '\t'
-		default:
-			return fmt.Sprintf("delimiter: %q; write comma, semicolon or tab", value)
-		}
+		return choose(&m.Delimiter, name, value, "comma, semicolon or tab",
+			map[string]rune{",": ',', "comma": ',', ";": ';', "semicolon": ';', "tab": '\t', `\t`: '\t'})
 	case "decimal":
-		switch low {
-		case "point", ".":
-			m.DecimalComma = false
-		case "comma", ",":
-			m.DecimalComma = true
-		default:
-			return fmt.Sprintf("decimal: %q; write point or comma", value)
-		}
+		return choose(&m.DecimalComma, name, value, "point or comma",
+			map[string]bool{"point": false, ".": false, "comma": true, ",": true})
 	default:
 		return fmt.Sprintf("%q is not a setting; the settings are sheet, header row, first data row, blank row, lengths, radii, flat, delimiter, decimal", name)
 	}
+	return ""
+}
+
+// choose sets *dst to the value the word value names (case ignored), or
+// says what to write instead: the one shape of every setting that takes one
+// word of a few.
+func choose[T any](dst *T, name, value, write string, words map[string]T) string {
+	v, ok := words[strings.ToLower(value)]
+	if !ok {
+		return fmt.Sprintf("%s: %q; write %s", name, value, write)
+	}
+	*dst = v
 	return ""
 }
 

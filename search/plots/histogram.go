@@ -9,8 +9,6 @@ import (
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
-	"gonum.org/v1/plot/vg/vgimg"
-	"gonum.org/v1/plot/vg/vgsvg"
 
 	"cardinal/search"
 	"cardinal/search/finite"
@@ -37,18 +35,7 @@ func WriteStudyPlot(w io.Writer, req search.Requirement, st search.Study, title,
 		return err
 	}
 	width, height := 2*panel, panel+8*vg.Millimeter
-	var c vg.CanvasWriterTo
-	switch format {
-	case "png":
-		c = vgimg.PngCanvas{Canvas: vgimg.NewWith(vgimg.UseWH(width, height), vgimg.UseDPI(plotDPI))}
-	case "svg":
-		c = vgsvg.New(width, height)
-	default:
-		panic(fmt.Sprintf("plots: plot format %q: want png or svg", format))
-	}
-	dc := draw.New(c)
-	dc.SetColor(color.White)
-	dc.Fill(dc.Rectangle.Path())
+	c, dc := newPage(width, height, format)
 	left, err := studyPanel(st.Adjust, st.AdjustLow, st.AdjustHigh, adjustLabel(st.Compensator), 0, 0)
 	if err != nil {
 		return err

@@ -38,6 +38,24 @@ var (
 	noteColor = color.Gray{Y: 0x30}
 )
 
+// newPage is a white page of the given size to draw on, "png" (at
+// plotDPI) or "svg".
+func newPage(width, height vg.Length, format string) (vg.CanvasWriterTo, draw.Canvas) {
+	var c vg.CanvasWriterTo
+	switch format {
+	case "png":
+		c = vgimg.PngCanvas{Canvas: vgimg.NewWith(vgimg.UseWH(width, height), vgimg.UseDPI(plotDPI))}
+	case "svg":
+		c = vgsvg.New(width, height)
+	default:
+		panic(fmt.Sprintf("plots: plot format %q: want png or svg", format))
+	}
+	dc := draw.New(c)
+	dc.SetColor(color.White)
+	dc.Fill(dc.Rectangle.Path())
+	return c, dc
+}
+
 // WritePlot draws the page of spot figures, as "png" or "svg", with
 // gonum.org/v1/plot. The page is laid out for a builder: a header with
 // the key, best focus and the search's verdict, then one row per field
@@ -60,18 +78,7 @@ func (sp Spots) WritePlot(w io.Writer, title, format string) error {
 	width := 3 * panel
 	head := sp.newHeader(title, width)
 	height := vg.Length(rows)*panel + head.height
-	var c vg.CanvasWriterTo
-	switch format {
-	case "png":
-		c = vgimg.PngCanvas{Canvas: vgimg.NewWith(vgimg.UseWH(width, height), vgimg.UseDPI(plotDPI))}
-	case "svg":
-		c = vgsvg.New(width, height)
-	default:
-		panic(fmt.Sprintf("plots: plot format %q: want png or svg", format))
-	}
-	dc := draw.New(c)
-	dc.SetColor(color.White)
-	dc.Fill(dc.Rectangle.Path())
+	c, dc := newPage(width, height, format)
 	grid := make([][]*plot.Plot, rows)
 	notes := make([][][]string, rows)
 	for i := range grid {
