@@ -4,7 +4,6 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
-	"os"
 	"path/filepath"
 	"testing"
 
@@ -100,41 +99,6 @@ func BenchmarkImportSynth(b *testing.B) {
 				b.StopTimer()
 				s.Close()
 				b.StartTimer()
-			}
-		})
-	}
-}
-
-// BenchmarkSearchIndex reads the search index of a synthetic catalog file
-// (seed 1), with the drawer and the glass table: the loading stage of
-// find. $CARDINAL_BENCH_DIR keeps the files (synth-N.db) between runs.
-func BenchmarkSearchIndex(b *testing.B) {
-	for _, n := range []int{5000, 50000, 200000} {
-		b.Run(fmt.Sprint(n), func(b *testing.B) {
-			dir := os.Getenv("CARDINAL_BENCH_DIR")
-			if dir == "" {
-				dir = b.TempDir()
-			}
-			path := filepath.Join(dir, fmt.Sprintf("synth-%d.db", n))
-			_, statErr := os.Stat(path)
-			s, err := Open(path)
-			if err != nil {
-				b.Fatal(err)
-			}
-			defer s.Close()
-			if statErr != nil {
-				if _, err := s.Import(ctx, synth.Catalog(1, n), false); err != nil {
-					b.Fatal(err)
-				}
-			}
-			b.ReportAllocs()
-			b.ResetTimer()
-			for b.Loop() {
-				ix, err := s.SearchIndex(ctx, IndexOptions{})
-				if err != nil {
-					b.Fatal(err)
-				}
-				ix.Close()
 			}
 		})
 	}

@@ -1,38 +1,15 @@
 package main
 
 import (
-	"context"
 	"fmt"
-	"os"
-	"path/filepath"
 	"testing"
 
-	"cardinal/catalog"
-	"cardinal/catalog/synth"
+	"cardinal/catalog/synth/synthtest"
 )
 
-// benchCatalog is a catalog file of n synthetic parts: $CARDINAL_BENCH_DIR
-// keeps them between runs (building 50,000 parts takes tens of seconds),
-// otherwise a temporary directory.
-func benchCatalog(b *testing.B, n int) string {
-	dir := os.Getenv("CARDINAL_BENCH_DIR")
-	if dir == "" {
-		dir = b.TempDir()
-	}
-	path := filepath.Join(dir, fmt.Sprintf("synth-%d.db", n))
-	if _, err := os.Stat(path); err == nil {
-		return path
-	}
-	st, err := catalog.Open(path)
-	if err != nil {
-		b.Fatal(err)
-	}
-	defer st.Close()
-	if _, err := st.Import(context.Background(), synth.Catalog(1, n), false); err != nil {
-		b.Fatal(err)
-	}
-	return path
-}
+// benchCatalog is a catalog file of n synthetic parts (synthtest keeps
+// them in $CARDINAL_BENCH_DIR between runs).
+func benchCatalog(b *testing.B, n int) string { return synthtest.CatalogFile(b, n) }
 
 // BenchmarkFindCommand is the whole command: open the catalog, load every
 // part and the drawer, search, save the run, print the table.
