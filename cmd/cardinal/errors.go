@@ -10,6 +10,7 @@ import (
 	"cardinal/catalog"
 	"cardinal/importers"
 	"cardinal/search"
+	"cardinal/search/plots"
 )
 
 // Exit codes, one place for all commands.
@@ -131,6 +132,7 @@ func describe(err error) (string, int) {
 		be *catalog.BusyError
 		rf *catalog.RefError
 		pe *fs.PathError
+		fd *plots.FieldError
 	)
 	switch {
 	case err == nil:
@@ -155,6 +157,8 @@ func describe(err error) (string, int) {
 	case errors.As(err, &be), errors.As(err, &rf):
 		return err.Error(), exitUsage
 	case errors.As(err, &ie), errors.As(err, &le):
+		return err.Error(), exitUsage
+	case errors.As(err, &fd):
 		return err.Error(), exitUsage
 	case errors.As(err, &pe):
 		// The system refused a file operation (a full disk, a closed

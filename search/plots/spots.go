@@ -162,9 +162,55 @@ func chiefAt(sys optics.System, s solution.Solution, field, wl float64) (optics.
 	}
 	p := sys.Tracer(wl).Trace(b.Rays[0], imagePlane(s))
 	if p.Status != optics.Passed {
-		return optics.Path{}, fmt.Errorf("spot diagram: the chief ray at %s: %w", solution.FieldText(math.IsInf(s.ObjectZ, -1), field), p.Err())
+		return optics.Path{}, &FieldError{AtInfinity: math.IsInf(s.ObjectZ, -1), Field: field, Stopped: p.Err(),
+			Widest: widestChief(sys, s, field, wl)}
 	}
 	return p, nil
+}
+
+// A FieldError is a field point whose chief ray does not pass the layout:
+// the field asked for is wider than the layout takes, which is the user's
+// choice of field, not a fault.
+type FieldError struct {
+	AtInfinity bool
+	Field      float64 // degrees or mm
+	Stopped    error   // where and why the chief ray stopped
+	// Widest is about the widest field whose chief ray passes (0: none
+	// off axis).
+	Widest float64
+}
+
+func (e *FieldError) Error() string {
+	flag := "--object-height"
+	if e.AtInfinity {
+		flag = "--field-angle"
+	}
+	s := fmt.Sprintf("spot diagram: the chief ray at %s does not pass the layout (%v)", solution.FieldText(e.AtInfinity, e.Field), e.Stopped)
+	if e.Widest > 0 {
+		return s + fmt.Sprintf("; chief rays pass up to about %s: give a smaller %s", solution.FieldText(e.AtInfinity, e.Widest), flag)
+	}
+	return s + ": give a smaller " + flag
+}
+
+// widestChief finds, by bisection between the axis and field, about the
+// widest field whose chief ray passes (to 1 % of field); 0 when none does.
+func widestChief(sys optics.System, s solution.Solution, field, wl float64) float64 {
+	passes := func(f float64) bool {
+		b, err := sys.Bundle(s.Object(), f, wl, []optics.PupilPoint{{}})
+		return err == nil && sys.Tracer(wl).Trace(b.Rays[0], imagePlane(s)).Status == optics.Passed
+	}
+	lo, hi := 0.0, field
+	if !passes(lo) {
+		return 0
+	}
+	for hi-lo > 0.01*math.Abs(field) {
+		if mid := (lo + hi) / 2; passes(mid) {
+			lo = mid
+		} else {
+			hi = mid
+		}
+	}
+	return lo
 }
 
 // imagePlane is where the spots are taken: the solution's image plane, or

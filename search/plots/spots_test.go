@@ -3,9 +3,11 @@ package plots
 import (
 	"bytes"
 	"encoding/xml"
+	"errors"
 	"image/png"
 	"math"
 	"slices"
+	"strings"
 	"testing"
 
 	"cardinal/optics"
@@ -172,5 +174,27 @@ func TestFieldText(t *testing.T) {
 				t.Errorf("%q, want %q", got, tc.want)
 			}
 		})
+	}
+}
+
+// A field wider than the layout passes is the user's choice, said as a
+// FieldError naming about the widest field that passes: a spot diagram at
+// that field is drawn, and one 2 % of the asked field wider is refused.
+func TestSpotsFieldTooWide(t *testing.T) {
+	s := solutiontest.Solve(t, solutiontest.Requirements()["focus"])[0]
+	const asked = 80.0 // degrees: no stock layout passes a chief ray this steep
+	_, err := NewSpots(s, PlotOptions{Rings: 2, Field: asked})
+	var fe *FieldError
+	if !errors.As(err, &fe) {
+		t.Fatalf("err = %v, want a *FieldError", err)
+	}
+	if !strings.Contains(fe.Error(), "--field-angle") || fe.Widest <= 0 || fe.Widest >= asked {
+		t.Fatalf("FieldError %q, widest %g", fe.Error(), fe.Widest)
+	}
+	if _, err := NewSpots(s, PlotOptions{Rings: 2, Field: fe.Widest}); err != nil {
+		t.Errorf("at the widest field said to pass, %g°: %v", fe.Widest, err)
+	}
+	if _, err := NewSpots(s, PlotOptions{Rings: 2, Field: fe.Widest + 0.02*asked}); !errors.As(err, &fe) {
+		t.Errorf("2 %% wider than the widest said to pass: err = %v, want a *FieldError", err)
 	}
 }
