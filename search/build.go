@@ -100,6 +100,10 @@ type model struct {
 	tol    float64 // absolute tolerance of the target
 	params []Param
 	deps   []optics.Departure // scratch space of departures
+	// parts are the setup's parts, and rays the real-ray spot's settings
+	// (spot.go), nil when the requirement traces no rays.
+	parts []optics.Part
+	rays  *spotRays
 }
 
 // A Param is one toleranced quantity of a build.
@@ -176,6 +180,7 @@ func newModel(req Requirement, su Setup) (*model, error) {
 		m.plane = su.WorkingDistance + env + su.BackClearance
 	}
 	m.params = m.list(b.SpacingTol)
+	m.parts, m.rays = su.Parts, newSpotRays(req)
 	return m, nil
 }
 
@@ -267,6 +272,14 @@ func (m *model) departures(d draw) (deps []optics.Departure, gap, wd, plane opti
 type trial struct {
 	adjust, figure optics.Dual
 	ok             bool
+	// at is where the compensated build stands, for the real-ray spot
+	// (spot.go): its gap and working distance, and its image plane from
+	// the last vertex (the paraxial focus when refocus is true, the fixed
+	// plane otherwise).
+	at struct {
+		gap, wd, imageZ float64
+		refocus         bool
+	}
 }
 
 // eval solves the compensator of one build exactly with the ray-transfer
@@ -317,7 +330,9 @@ func (m *model) evalFocus(at func(optics.Dual) optics.DMat, k optics.DMat, place
 			return trial{}
 		}
 		phi := at(g).C.Neg()
-		return trial{adjust: g.Sub(optics.Const(m.gap)), figure: optics.Const(1).Div(phi), ok: phi.V != 0}
+		t := trial{adjust: g.Sub(optics.Const(m.gap)), figure: optics.Const(1).Div(phi), ok: phi.V != 0}
+		t.at.gap, t.at.imageZ = g.V, plane.V-length.V-g.V
+		return t
 	}
 	s := at(placed)
 	phi := s.C.Neg()
@@ -326,10 +341,13 @@ func (m *model) evalFocus(at func(optics.Dual) optics.DMat, k optics.DMat, place
 	}
 	focus := length.Add(placed).Add(s.A.Div(phi)) // from the first vertex
 	t := trial{figure: optics.Const(1).Div(phi), ok: true}
+	t.at.gap = placed.V
 	if m.comp == CompensateNone {
 		t.adjust = focus.Sub(plane)
+		t.at.imageZ = plane.V - length.V - placed.V
 	} else {
 		t.adjust = focus.Sub(optics.Const(m.plane))
+		t.at.imageZ, t.at.refocus = s.A.V/phi.V, true
 	}
 	return t
 }
@@ -353,7 +371,9 @@ func (m *model) evalImage(at func(optics.Dual) optics.DMat, k optics.DMat, place
 			return trial{}
 		}
 		_, sd := withObject(at(g))
-		return trial{adjust: g.Sub(optics.Const(m.gap)), figure: optics.Const(1).Div(sd), ok: sd.V != 0}
+		t := trial{adjust: g.Sub(optics.Const(m.gap)), figure: optics.Const(1).Div(sd), ok: sd.V != 0}
+		t.at.gap, t.at.wd, t.at.imageZ = g.V, wd.V, plane.V-wd.V-length.V-g.V
+		return t
 	}
 	sb, sd := withObject(at(placed))
 	if sd.V == 0 {
@@ -361,10 +381,13 @@ func (m *model) evalImage(at func(optics.Dual) optics.DMat, k optics.DMat, place
 	}
 	image := wd.Add(length).Add(placed).Sub(sb.Div(sd)) // from the object plane
 	t := trial{figure: optics.Const(1).Div(sd), ok: true}
+	t.at.gap, t.at.wd = placed.V, wd.V
 	if m.comp == CompensateNone {
 		t.adjust = image.Sub(plane)
+		t.at.imageZ = plane.V - wd.V - length.V - placed.V
 	} else {
 		t.adjust = image.Sub(optics.Const(m.plane))
+		t.at.imageZ, t.at.refocus = -sb.V/sd.V, true
 	}
 	return t
 }

@@ -301,16 +301,26 @@ func (s *search) studyBuilds(p *prepared, ls []layout, rs []Result) ([]Result, e
 	// Only the studied results are ordered again: the rest follow them
 	// (maxStudied is below maxTraced, so every studied result was traced
 	// where rays are traced, and traced results keep coming first).
-	st := rs[:n]
-	sort.SliceStable(st, func(i, j int) bool {
-		if st[i].Meets != st[j].Meets {
-			return st[i].Meets
+	order := make([]int, n)
+	for k := range order {
+		order[k] = k
+	}
+	sort.SliceStable(order, func(i, j int) bool {
+		a, b := &rs[order[i]], &rs[order[j]]
+		if a.Meets != b.Meets {
+			return a.Meets
 		}
-		return st[i].Score < st[j].Score
+		return a.Score < b.Score
 	})
+	sorted := make([]Result, n)
+	for k, i := range order {
+		sorted[k] = rs[i]
+	}
+	copy(rs, sorted)
 	if len(rs) > s.req.Shown() {
 		rs = rs[:s.req.Shown()]
 	}
+	s.shownSpots(rs, sus, order)
 	for k := range rs {
 		rs[k].Rank = k + 1
 		for i := range rs[k].Arrangements {
@@ -318,6 +328,30 @@ func (s *search) studyBuilds(p *prepared, ls []layout, rs []Result) ([]Result, e
 		}
 	}
 	return rs, nil
+}
+
+// shownSpots adds the spot figures of a cheap real-ray trace of the first
+// builds (spot.go) to the shown rows that real rays judged; order[k] is
+// the setup of studied row k.
+func (s *search) shownSpots(rs []Result, sus []Setup, order []int) {
+	if !s.req.TracesRays() {
+		return
+	}
+	var pick []Setup
+	var rows []int
+	for k := range rs {
+		if k < len(order) && rs[k].Build != nil && rs[k].ImageQuality != nil {
+			pick, rows = append(pick, sus[order[k]]), append(rows, k)
+		}
+	}
+	for i, st := range findSpots(s.req, pick) {
+		if st == nil {
+			continue
+		}
+		b := *rs[rows[i]].Build
+		b.SpotBuilds, b.SpotLow, b.SpotMedian, b.SpotHigh, b.SpotLost = st.SpotBuilds, st.SpotLow, st.SpotMedian, st.SpotHigh, st.SpotLost
+		rs[rows[i]].Build = &b
+	}
 }
 
 // setup is a layout as it is built: its parts turned as used, their stated

@@ -35,6 +35,18 @@ type BuildFigures struct {
 	// Dominant names the tolerance that moves the target figure most (or,
 	// where the compensator absorbs them all, the compensator).
 	Dominant string `json:"dominant"`
+	// SpotBuilds is how many compensated builds were traced with real rays
+	// for the spot figures (spot.go): every build in the tolerance
+	// command, the first FindSpotBuilds of the shown rows in find, none
+	// when the requirement traces no rays. SpotLow, SpotMedian and
+	// SpotHigh are the 2.5th, 50th and 97.5th percentiles of their on-axis
+	// RMS spot radius at the compensated focus, um; SpotLost counts the
+	// traced builds no ray of which reached the image.
+	SpotBuilds int     `json:"spot_builds,omitempty"`
+	SpotLow    float64 `json:"spot_low_um,omitempty"`
+	SpotMedian float64 `json:"spot_median_um,omitempty"`
+	SpotHigh   float64 `json:"spot_high_um,omitempty"`
+	SpotLost   int     `json:"spot_lost,omitempty"`
 }
 
 // A Sensitivity is the derivative of the target figure and of the
@@ -76,11 +88,27 @@ type Study struct {
 	// target figure, in trial order.
 	Adjust []float64 `json:"-"`
 	Figure []float64 `json:"-"`
+	// Spot holds the RMS spot of each traced build, um (spot.go).
+	Spot []float64 `json:"-"`
 }
 
 // StudyBuild simulates the build of one result of the requirement with the
-// requirement's build settings, and computes its sensitivities.
+// requirement's build settings, and computes its sensitivities. Where the
+// requirement traces real rays, every compensated build is traced for its
+// spot (spot.go).
 func StudyBuild(req Requirement, su Setup) (Study, error) {
+	m, err := newModel(req, su)
+	if err != nil {
+		return Study{}, err
+	}
+	st := m.study(req.Build, streamOf(su))
+	m.spots(req.Build, streamOf(su), -1, &st)
+	return st, nil
+}
+
+// studyFirstOrder is StudyBuild without the real rays: what find runs
+// for every result it ranks.
+func studyFirstOrder(req Requirement, su Setup) (Study, error) {
 	m, err := newModel(req, su)
 	if err != nil {
 		return Study{}, err
@@ -117,11 +145,8 @@ func (m *model) study(b BuildSettings, stream uint64) Study {
 	met := 0
 	st.Adjust, st.Figure = make([]float64, 0, n), make([]float64, 0, n)
 	for i := 0; i < n; i++ {
-		for j, p := range m.params {
-			d[j] = optics.Const(p.Tol * unitDraw(rng, b.Distribution))
-		}
-		t := m.eval(d)
-		if !t.ok || math.IsNaN(t.figure.V) || math.IsInf(t.figure.V, 0) || math.IsNaN(t.adjust.V) {
+		t, ok := m.build(rng, b.Distribution, d)
+		if !ok {
 			st.Failed++
 			continue
 		}
@@ -141,6 +166,16 @@ func (m *model) study(b BuildSettings, stream uint64) Study {
 	}
 	st.Dominant = dominant(st.Sensitivities, m.tol)
 	return st
+}
+
+// build draws one build's departures into d and compensates it; ok is
+// false when the compensator has no solution.
+func (m *model) build(rng *rand.Rand, dist Distribution, d draw) (t trial, ok bool) {
+	for j, p := range m.params {
+		d[j] = optics.Const(p.Tol * unitDraw(rng, dist))
+	}
+	t = m.eval(d)
+	return t, t.ok && !math.IsNaN(t.figure.V) && !math.IsInf(t.figure.V, 0) && !math.IsNaN(t.adjust.V)
 }
 
 // FigureRange is the target figure's 95 % range after compensation in
@@ -273,7 +308,7 @@ func studyAll(req Requirement, sus []Setup) []*Study {
 		go func(k int) {
 			defer wg.Done()
 			for i := k; i < len(sus); i += workers {
-				if st, err := StudyBuild(req, sus[i]); err == nil {
+				if st, err := studyFirstOrder(req, sus[i]); err == nil {
 					out[i] = &st
 				}
 			}

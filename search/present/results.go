@@ -387,7 +387,7 @@ func buildColumns(rs []search.Result) []resultColumn {
 			return f(r.Build)
 		}
 	}
-	return []resultColumn{
+	cols := []resultColumn{
 		{Column{Key: "yield_pct", Keep: 5, Label: "yield", Unit: "%"},
 			b(func(f *search.BuildFigures) Cell { return Num(f.Yield, 0) })},
 		{Column{Key: "adjust_range_mm", Keep: 4, Label: "adjust", Unit: "mm", TextOnly: true},
@@ -407,6 +407,22 @@ func buildColumns(rs []search.Result) []resultColumn {
 		{Column{Key: "dominant", Label: "matters most", Optional: true},
 			b(func(f *search.BuildFigures) Cell { return Text(f.Dominant) })},
 	}
+	if !slices.ContainsFunc(rs, func(r search.Result) bool { return r.Build != nil && r.Build.SpotBuilds > 0 }) {
+		return cols
+	}
+	spot := func(v func(*search.BuildFigures) float64) func(search.Result) Cell {
+		return b(func(f *search.BuildFigures) Cell {
+			if f.SpotBuilds == 0 {
+				return Cell{Text: Missing}
+			}
+			return Num(v(f), 2)
+		})
+	}
+	return append(cols,
+		resultColumn{Column{Key: "spot_median_um", Label: "built spot", Unit: "um", Optional: true},
+			spot(func(f *search.BuildFigures) float64 { return f.SpotMedian })},
+		resultColumn{Column{Key: "spot_high_um", Label: "built spot high", Unit: "um", Optional: true},
+			spot(func(f *search.BuildFigures) float64 { return f.SpotHigh })})
 }
 
 // adjustText is an adjustment range in mm: two decimals below a

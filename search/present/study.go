@@ -52,6 +52,17 @@ func StudySummary(req search.Requirement, st search.Study) Table {
 		{"linear estimate", fmt.Sprintf("standard deviation of the %s %s, of the compensator %s mm (builds: %s, %s mm)",
 			name, sig(st.LinearTargetSD), sig(st.LinearAdjustSD), sig(st.TargetSD), sig(st.AdjustSD))},
 	}
+	if st.SpotBuilds > 0 {
+		where := "at the best focus after refocusing"
+		if st.Compensator != search.CompensateImage {
+			where = "on the fixed image plane"
+		}
+		rows = append(rows, [2]string{"RMS spot on axis", fmt.Sprintf("median %s um, 95 %% of builds %s..%s um, %s (%d builds traced with real rays)",
+			sig(st.SpotMedian), sig(st.SpotLow), sig(st.SpotHigh), where, st.SpotBuilds)})
+	}
+	if st.SpotLost > 0 {
+		rows = append(rows, [2]string{"no spot", fmt.Sprintf("in %d builds no ray reached the image", st.SpotLost)})
+	}
 	if st.Failed > 0 {
 		rows = append(rows, [2]string{"no solution", fmt.Sprintf("%d builds could not be compensated (counted as missing the target)", st.Failed)})
 	}
