@@ -136,7 +136,6 @@ func TestSpotOfAPerturbedPlanoConvex(t *testing.T) {
 	}
 }
 
-
 func TestStudyTracesEveryBuild(t *testing.T) {
 	for _, c := range tracedSetups(t)[:2] {
 		t.Run(c.name, func(t *testing.T) {
