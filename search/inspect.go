@@ -37,9 +37,12 @@ type Inspection struct {
 	AntiNodalPrimeMm     *float64 `json:"antinodal_prime_mm"`
 	EdgeThicknessMm      float64  `json:"edge_thickness_mm"`
 	// Tolerances are the part's manufacturing tolerances: as stated, the
-	// program's defaults where not (StatedTolerances says which).
+	// defaults where not (InspectSetting.Defaults); StatedTolerances is
+	// true when the part states any, TolerancesFrom says for each
+	// ("stated", or what the defaults are called) by its JSON key.
 	Tolerances       optics.Tolerances `json:"tolerances"`
 	StatedTolerances bool              `json:"tolerances_stated"`
+	TolerancesFrom   map[string]string `json:"tolerances_from"`
 	// ResidualReflectancePct is the stated coating (the reflectance of
 	// each surface bordering air, %); null when not stated.
 	ResidualReflectancePct *float64 `json:"residual_reflectance_pct"`
@@ -68,6 +71,11 @@ type InspectSetting struct {
 	Wavelength float64
 	In, Out    optics.Medium // object and image space
 	Rays       RaySetting    // zero traces nothing
+	// Defaults are the tolerances of a part that states none (the
+	// catalog's, for a catalog part) and DefaultsFrom what they are called
+	// ("catalog default"); zero: optics.DefaultTolerances, "default".
+	Defaults     optics.Tolerances
+	DefaultsFrom string
 }
 
 // A RaySetting is how a part is traced with real rays when inspected. The
@@ -128,8 +136,7 @@ func Inspect(e record.Entry, s InspectSetting) Inspection {
 		r.PrincipalMm, r.PrincipalPrimeMm, r.NodalMm, r.NodalPrimeMm = v(c.P), v(c.PPrime), v(c.N), v(c.NPrime)
 		r.AntiPrincipalMm, r.AntiPrincipalPrimeMm, r.AntiNodalMm, r.AntiNodalPrimeMm = v(c.AP), v(c.APPrime), v(c.AN), v(c.ANPrime)
 	}
-	r.Tolerances = e.Tolerances.Or(optics.DefaultTolerances)
-	r.StatedTolerances = e.Tolerances != (optics.Tolerances{})
+	r.setTolerances(e.Tolerances, s)
 	if p.Coating.Stated {
 		r.ResidualReflectancePct = &p.Coating.ResidualPct
 	}
@@ -231,4 +238,23 @@ func InspectGhosts(e record.Entry, s InspectSetting, req Requirement) PartGhosts
 		gs = []GhostFocus{}
 	}
 	return PartGhosts{Supplier: p.Supplier, Part: p.Name, Reversed: s.Reverse, Ghosts: gs, Virtual: virtual}
+}
+
+// setTolerances fills the part's tolerances: each one the part states,
+// the setting's defaults for the rest, and which is which.
+func (r *Inspection) setTolerances(stated optics.Tolerances, s InspectSetting) {
+	word := s.DefaultsFrom
+	if word == "" {
+		word = "default"
+	}
+	r.Tolerances = stated.Or(s.Defaults).Or(optics.DefaultTolerances)
+	r.StatedTolerances = stated != (optics.Tolerances{})
+	from := func(v float64) string {
+		if v != 0 {
+			return "stated"
+		}
+		return word
+	}
+	r.TolerancesFrom = map[string]string{"efl_pct": from(stated.EFLPct), "thickness_mm": from(stated.Thickness),
+		"index": from(stated.Index), "radius_pct": from(stated.RadiusPct)}
 }

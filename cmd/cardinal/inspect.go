@@ -148,6 +148,9 @@ func runInspect(o *inspectOptions) error {
 		return writeGhosts(o, entries, in, out)
 	}
 	set := search.InspectSetting{Reverse: o.Reverse, Wavelength: o.Wavelength, In: in, Out: out, Rays: o.Rays.setting()}
+	if set.Defaults, set.DefaultsFrom, err = o.inspectTolerances(); err != nil {
+		return err
+	}
 	results := make([]search.Inspection, len(entries))
 	for i, e := range entries {
 		results[i] = search.Inspect(e, set)
@@ -318,13 +321,7 @@ func figureTable(r search.Inspection) present.Table {
 		}
 		add(where, present.Fixed(r.Indices[i], 6), m.Name())
 	}
-	from := "default"
-	if r.StatedTolerances {
-		from = "as stated, default where not"
-	}
-	t := r.Tolerances
-	add("tolerances (build study)", fmt.Sprintf("EFL +-%s %%, thickness +-%s mm, index +-%s", present.Fixed(t.EFLPct, 2),
-		present.Fixed(t.Thickness, 3), strconv.FormatFloat(t.Index, 'g', -1, 64)), from)
+	rows = append(rows, toleranceRows(r)...)
 	if c := r.ResidualReflectancePct; c != nil {
 		add("coating, residual reflectance", strconv.FormatFloat(*c, 'g', -1, 64), "% per face in air")
 	} else {

@@ -124,3 +124,58 @@ func TestInspectNamesResolveAlike(t *testing.T) {
 		})
 	}
 }
+
+// inspect shows the tolerances the build study gives a catalog part: its
+// own where its row states them, the catalog's defaults (set with
+// 'catalog tolerances', not the program's) for the rest, and says which.
+func TestInspectCatalogTolerances(t *testing.T) {
+	db := filepath.Join(t.TempDir(), "c.db")
+	e, out, errb := storeEnv(t, map[string]string{"CARDINAL_DB": db})
+	part := writeFile(t, "p.csv", "supplier,part,diameter,r1,r2,t1,glass1,efl_tolerance\n"+
+		"LAB,OWN,25.4,51.68,inf,3.6,517642,0.5\nLAB,NONE,25.4,51.68,inf,3.6,517642,\n")
+	if code := runCLI(e, "catalog", "import", part); code != 0 {
+		t.Fatalf("import: %s", errb)
+	}
+	if code := runCLI(e, "catalog", "tolerances", "--efl-tol", "2%", "--thickness-tol", "0.25"); code != 0 {
+		t.Fatalf("catalog tolerances: %s", errb)
+	}
+	out.Reset()
+	if code := runCLI(e, "inspect", "LAB:OWN", "LAB:NONE", "--format", "json"); code != 0 {
+		t.Fatalf("inspect: %s", errb)
+	}
+	var rows []struct {
+		Part string `json:"part"`
+		Tol  struct {
+			EFL       float64 `json:"efl_pct"`
+			Thickness float64 `json:"thickness_mm"`
+			Index     float64 `json:"index"`
+		} `json:"tolerances"`
+		Stated bool              `json:"tolerances_stated"`
+		From   map[string]string `json:"tolerances_from"`
+	}
+	if err := json.Unmarshal(out.Bytes(), &rows); err != nil || len(rows) != 2 {
+		t.Fatalf("%v: %s", err, out)
+	}
+	own, none := rows[0], rows[1]
+	if own.Tol.EFL != 0.5 || own.From["efl_pct"] != "stated" || !own.Stated {
+		t.Errorf("OWN: EFL tolerance %g %% from %q, stated %v; want its own 0.5 %%", own.Tol.EFL, own.From["efl_pct"], own.Stated)
+	}
+	for _, r := range rows {
+		if r.Tol.Thickness != 0.25 || r.From["thickness_mm"] != "catalog default" || r.Tol.Index != 0.001 || r.From["index"] != "catalog default" {
+			t.Errorf("%s: thickness %g mm from %q, index %g from %q; want the catalog's 0.25 mm and 0.001", r.Part, r.Tol.Thickness,
+				r.From["thickness_mm"], r.Tol.Index, r.From["index"])
+		}
+	}
+	if none.Tol.EFL != 2 || none.From["efl_pct"] != "catalog default" || none.Stated {
+		t.Errorf("NONE: EFL tolerance %g %% from %q, stated %v; want the catalog's 2 %%", none.Tol.EFL, none.From["efl_pct"], none.Stated)
+	}
+	out.Reset()
+	if code := runCLI(e, "inspect", "LAB:OWN"); code != 0 {
+		t.Fatalf("inspect: %s", errb)
+	}
+	for _, want := range []string{"+-0.50  % (stated)", "+-0.250  mm (catalog default)"} {
+		if !strings.Contains(strings.Join(strings.Fields(out.String()), " "), strings.Join(strings.Fields(want), " ")) {
+			t.Errorf("the table lacks %q:\n%s", want, out)
+		}
+	}
+}

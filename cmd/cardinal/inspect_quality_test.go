@@ -93,7 +93,7 @@ func TestInspectRaysGolden(t *testing.T) {
 func TestInspectRaysJSON(t *testing.T) {
 	base := []string{"supplier", "part", "reversed", "wavelength_nm", "length_mm", "efl_mm", "f_front_mm", "f_back_mm", "ffd_mm", "bfd_mm",
 		"focal_mm", "focal_prime_mm", "principal_mm", "principal_prime_mm", "nodal_mm", "nodal_prime_mm",
-		"antiprincipal_mm", "antiprincipal_prime_mm", "antinodal_mm", "antinodal_prime_mm", "edge_thickness_mm", "tolerances", "tolerances_stated", "residual_reflectance_pct", "warnings"}
+		"antiprincipal_mm", "antiprincipal_prime_mm", "antinodal_mm", "antinodal_prime_mm", "edge_thickness_mm", "tolerances", "tolerances_stated", "tolerances_from", "residual_reflectance_pct", "warnings"}
 	always := []string{"rms_spot_um", "airy_radius_um", "wavefront_rms_waves", "diffraction_limited", "best_focus_shift_mm",
 		"diffraction_limited_why", "wavefront_worst_rms_waves", "verdict_plane_mm"}
 	tests := []struct {

@@ -201,7 +201,7 @@ func inspectJSON(t *testing.T, mod func(*inspectOptions)) []map[string]any {
 func TestInspectJSONKeys(t *testing.T) {
 	want := []string{"supplier", "part", "reversed", "wavelength_nm", "length_mm", "efl_mm", "f_front_mm", "f_back_mm", "ffd_mm", "bfd_mm",
 		"focal_mm", "focal_prime_mm", "principal_mm", "principal_prime_mm", "nodal_mm", "nodal_prime_mm",
-		"antiprincipal_mm", "antiprincipal_prime_mm", "antinodal_mm", "antinodal_prime_mm", "edge_thickness_mm", "tolerances", "tolerances_stated", "residual_reflectance_pct", "warnings"}
+		"antiprincipal_mm", "antiprincipal_prime_mm", "antinodal_mm", "antinodal_prime_mm", "edge_thickness_mm", "tolerances", "tolerances_stated", "tolerances_from", "residual_reflectance_pct", "warnings"}
 	slices.Sort(want)
 	for _, r := range inspectJSON(t, nil) {
 		var keys []string
