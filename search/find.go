@@ -330,16 +330,20 @@ func (s *search) studyBuilds(p *prepared, ls []layout, rs []Result) ([]Result, e
 	return rs, nil
 }
 
+// maxSpotRows bounds the rows find traces builds for: the default top 10
+// (--top 0 shows every result; the rest go without spot figures).
+const maxSpotRows = 10
+
 // shownSpots adds the spot figures of a cheap real-ray trace of the first
-// builds (spot.go) to the shown rows that real rays judged; order[k] is
-// the setup of studied row k.
+// builds (spot.go) to the first maxSpotRows shown rows that real rays
+// judged; order[k] is the setup of studied row k.
 func (s *search) shownSpots(rs []Result, sus []Setup, order []int) {
 	if !s.req.TracesRays() {
 		return
 	}
 	var pick []Setup
 	var rows []int
-	for k := range rs {
+	for k := range rs[:min(len(rs), maxSpotRows)] {
 		if k < len(order) && rs[k].Build != nil && rs[k].ImageQuality != nil {
 			pick, rows = append(pick, sus[order[k]]), append(rows, k)
 		}
