@@ -277,6 +277,9 @@ func (s *search) studyBuilds(p *prepared, ls []layout, rs []Result) ([]Result, e
 		// a first-order target.
 		return rs, nil
 	}
+	if s.req.noBuildStudy {
+		return s.keepShown(rs), nil
+	}
 	n := min(len(ls), maxStudied)
 	if err := s.fetchParts(p, ls[:n]); err != nil {
 		return nil, err
@@ -317,17 +320,23 @@ func (s *search) studyBuilds(p *prepared, ls []layout, rs []Result) ([]Result, e
 		sorted[k] = rs[i]
 	}
 	copy(rs, sorted)
+	rs = s.keepShown(rs)
+	s.shownSpots(rs, sus, order)
+	return rs, nil
+}
+
+// keepShown keeps the requirement's top N results and numbers them.
+func (s *search) keepShown(rs []Result) []Result {
 	if len(rs) > s.req.Shown() {
 		rs = rs[:s.req.Shown()]
 	}
-	s.shownSpots(rs, sus, order)
 	for k := range rs {
 		rs[k].Rank = k + 1
 		for i := range rs[k].Arrangements {
 			rs[k].Arrangements[i].Rank = k + 1
 		}
 	}
-	return rs, nil
+	return rs
 }
 
 // maxSpotRows bounds the rows find traces builds for: the default top 10

@@ -100,6 +100,9 @@ type Requirement struct {
 
 	// Build says how every ranked result is simulated as built (build.go).
 	Build BuildSettings `json:"build,omitzero"`
+	// noBuildStudy leaves the build study out, for the benchmark that
+	// measures what it adds to find (BenchmarkFindStudyAdded).
+	noBuildStudy bool
 
 	// Laser beams (laser.go): a laser requirement (IsLaser) treats the
 	// input as a Gaussian beam.
