@@ -1,6 +1,8 @@
 package main
 
 import (
+	"bytes"
+	"encoding/json"
 	"fmt"
 	"path/filepath"
 	"strings"
@@ -26,6 +28,7 @@ type toleranceOptions struct {
 	Seed         uint64
 	Plot         string
 	Force        bool
+	Bins         string
 	out          outputFlags
 
 	set        func(string) bool // whether a flag was given
@@ -79,6 +82,7 @@ same figures find printed. --plot writes the histograms as SVG or PNG.`,
 	f.Uint64Var(&o.Seed, "seed", 0, "seed of the random numbers (default: the search's)")
 	f.StringVar(&o.Plot, "plot", "", "write the histograms to this .svg or .png file")
 	f.BoolVar(&o.Force, "force", false, "overwrite the plot file if it exists")
+	f.StringVar(&o.Bins, "bins", "", "print only one histogram's bins as rows, in any --format: adjust, figure or spot")
 	addOutputFlags(f, &o.out, false)
 	return cmd
 }
@@ -105,6 +109,11 @@ func (o *toleranceOptions) validate() error {
 	case "", "image", "gap", "none":
 	default:
 		return usageErrorf("--compensator %q: use image, gap or none", o.Compensator)
+	}
+	switch o.Bins {
+	case "", "adjust", "figure", "spot":
+	default:
+		return usageErrorf("--bins %q: use adjust, figure or spot", o.Bins)
 	}
 	switch ext := strings.ToLower(filepath.Ext(o.Plot)); {
 	case o.Plot == "":
@@ -145,17 +154,19 @@ func (o *toleranceOptions) settings(saved search.BuildSettings) search.BuildSett
 
 // toleranceOutput is the JSON document of a study.
 type toleranceOutput struct {
-	Search      int64                `json:"search"`
-	Rank        int                  `json:"rank"`
-	Parts       []search.PartUse     `json:"parts"`
-	Build       search.BuildSettings `json:"build"`
-	Figure      string               `json:"figure"`
-	Unit        string               `json:"unit,omitempty"`
-	Study       search.Study         `json:"study"`
-	AdjustHist  search.Histogram     `json:"adjust_histogram_mm"`
-	FigureHist  search.Histogram     `json:"figure_histogram"`
-	Cautions    []string             `json:"cautions,omitempty"`
-	Requirement search.Requirement   `json:"requirement"`
+	Search int64                `json:"search"`
+	Rank   int                  `json:"rank"`
+	Parts  []search.PartUse     `json:"parts"`
+	Build  search.BuildSettings `json:"build"`
+	Figure string               `json:"figure"`
+	Unit   string               `json:"unit,omitempty"`
+	Study  search.Study         `json:"study"`
+	// Histograms are the study's histograms by name with unit
+	// (adjust_mm, efl_mm, magnification, expansion, spot_um), each a list
+	// of bins: their edges and the builds in them.
+	Histograms  map[string]json.RawMessage `json:"histograms"`
+	Cautions    []string                   `json:"cautions,omitempty"`
+	Requirement search.Requirement         `json:"requirement"`
 }
 
 // histogramBins is the number of bins of the printed histograms.
@@ -181,9 +192,18 @@ func runTolerance(o *toleranceOptions) error {
 			return err
 		}
 	}
+	hists := present.StudyHistograms(req, st, histogramBins)
+	if o.Bins != "" {
+		return renderBins(o, hists)
+	}
 	doc := toleranceOutput{Search: sv.Search.ID, Rank: s.Result.Rank, Parts: s.Result.Parts, Build: req.Build,
 		Figure: name, Unit: unit, Study: st, Requirement: req, Cautions: solution.Cautions(req, s.Result),
-		AdjustHist: search.NewHistogram(st.Adjust, histogramBins), FigureHist: search.NewHistogram(st.Figure, histogramBins)}
+		Histograms: map[string]json.RawMessage{}}
+	for _, h := range hists {
+		if doc.Histograms[h.Key], err = jsonRows(h.Table); err != nil {
+			return err
+		}
+	}
 	switch o.out.Format {
 	case "json":
 		return render(e, e.Out, o.out, present.Table{}, doc)
@@ -201,8 +221,12 @@ func runTolerance(o *toleranceOptions) error {
 	}{
 		{"Build study", present.StudySummary(req, st)},
 		{"Sensitivities (most important first)", present.Sensitivities(req, st)},
-		{"Compensator's move in the builds", present.HistogramTable(doc.AdjustHist, "move", "mm")},
-		{name + " after compensation in the builds", present.HistogramTable(doc.FigureHist, name, unit)},
+	}
+	for _, h := range hists {
+		blocks = append(blocks, struct {
+			head string
+			t    present.Table
+		}{h.Title, h.Table})
 	}
 	for _, b := range blocks {
 		if o.out.Format == "md" {
@@ -215,6 +239,29 @@ func runTolerance(o *toleranceOptions) error {
 		}
 	}
 	return nil
+}
+
+// renderBins prints the bins of the one histogram --bins names, in the
+// chosen format: rows of the bin's edges and its builds.
+func renderBins(o *toleranceOptions, hists []present.StudyHistogram) error {
+	i := map[string]int{"adjust": 0, "figure": 1, "spot": 2}[o.Bins]
+	if i >= len(hists) {
+		return usageErrorf("--bins spot: this search traces no real rays, so its builds have no spot; find traces them with --beam (focus) or --na (image)")
+	}
+	return render(o.env, o.env.Out, o.out, hists[i].Table, nil)
+}
+
+// jsonRows is a table's rows as JSON objects, its data columns only.
+func jsonRows(t present.Table) (json.RawMessage, error) {
+	t, err := t.Select(nil, true, true)
+	if err != nil {
+		return nil, err
+	}
+	var b bytes.Buffer
+	if err := present.WriteJSON(&b, t); err != nil {
+		return nil, err
+	}
+	return b.Bytes(), nil
 }
 
 // writeStudyPlot writes the histograms to the --plot file.

@@ -1,14 +1,17 @@
 package main
 
 import (
+	"encoding/csv"
 	"encoding/json"
 	"encoding/xml"
 	"os"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"testing"
 
 	"cardinal/search"
+	"cardinal/search/present"
 )
 
 func TestToleranceFlags(t *testing.T) {
@@ -40,6 +43,7 @@ func TestToleranceFlags(t *testing.T) {
 		{"unknown compensator", []string{"last", "--pick", "1", "--compensator", "lens"}, nil, "use image, gap or none"},
 		{"unknown distribution", []string{"last", "--pick", "1", "--distribution", "gauss"}, nil, "use uniform or normal"},
 		{"bad format", []string{"last", "--pick", "1", "--format", "xml"}, nil, "xml"},
+		{"unknown bins", []string{"last", "--pick", "1", "--bins", "gap"}, nil, "use adjust, figure or spot"},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			e, _, _ := testEnv()
@@ -86,12 +90,18 @@ func TestToleranceRepeatsFind(t *testing.T) {
 	if n := len(doc.Study.Sensitivities); n < 5 {
 		t.Errorf("%d sensitivities for a pair", n)
 	}
-	sum := 0
-	for _, c := range doc.AdjustHist.Counts {
-		sum += c
-	}
-	if sum != doc.Study.Trials-doc.Study.Failed {
-		t.Errorf("the histogram holds %d builds of %d", sum, doc.Study.Trials)
+	for key, want := range map[string]int{"adjust_mm": doc.Study.Trials - doc.Study.Failed, "spot_um": doc.Study.SpotBuilds} {
+		var bins []map[string]float64
+		if err := json.Unmarshal(doc.Histograms[key], &bins); err != nil {
+			t.Fatalf("%s: %v", key, err)
+		}
+		sum := 0
+		for _, b := range bins {
+			sum += int(b["builds"])
+		}
+		if sum != want || want == 0 {
+			t.Errorf("the %s histogram holds %d builds of %d", key, sum, want)
+		}
 	}
 }
 
@@ -112,6 +122,53 @@ func TestRunToleranceGolden(t *testing.T) {
 			}
 			checkGolden(t, filepath.Join("..", "..", "testdata", "tolerance", tc.name+".golden"), "-- stdout --\n"+out+"-- stderr --\n"+errs)
 		})
+	}
+}
+
+// --bins prints one histogram's bins as rows in every format: CSV through
+// the safe writer with the unit in each key, the edges meeting bin to bin,
+// every traced build counted once.
+func TestToleranceBins(t *testing.T) {
+	db := savedCatalog(t)
+	out, errs, code := cmdRun(t, db, "tolerance", "1", "--pick", "1", "--bins", "spot", "--format", "csv")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	recs, err := csv.NewReader(strings.NewReader(out)).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got := strings.Join(recs[0], ","); got != "spot_from_um,spot_to_um,builds" {
+		t.Fatalf("header %s", got)
+	}
+	sum, prev := 0, ""
+	for _, r := range recs[1:] {
+		if prev != "" && r[0] != prev {
+			t.Errorf("bin from %s does not start where the last ended (%s)", r[0], prev)
+		}
+		n, _ := strconv.Atoi(r[2])
+		sum, prev = sum+n, r[1]
+	}
+	if len(recs) != 16 || sum != search.DefaultTrials {
+		t.Errorf("%d bins holding %d builds, want 15 holding %d", len(recs)-1, sum, search.DefaultTrials)
+	}
+	for _, tc := range []struct {
+		args []string
+		want string
+	}{
+		{[]string{"--bins", "adjust", "--format", "json"}, `"adjust_from_mm"`},
+		{[]string{"--bins", "figure", "--format", "md"}, "| EFL from mm | to mm | builds |"},
+		{[]string{"--bins", "figure", "--format", "csv"}, "efl_from_mm,efl_to_mm,builds"},
+	} {
+		out, errs, code := cmdRun(t, db, append([]string{"tolerance", "1", "--pick", "1"}, tc.args...)...)
+		if code != 0 || !strings.Contains(out, tc.want) {
+			t.Errorf("%v: exit %d, %s%s; want %q", tc.args, code, out, errs, tc.want)
+		}
+	}
+	e, _, _ := testEnv()
+	err = renderBins(&toleranceOptions{env: e, Bins: "spot", out: outputFlags{Format: "csv"}}, make([]present.StudyHistogram, 2))
+	if err == nil || !strings.Contains(err.Error(), "no spot") {
+		t.Errorf("spot bins of a study without rays: %v", err)
 	}
 }
 

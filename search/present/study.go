@@ -128,11 +128,50 @@ func SigCell(v float64) Cell {
 	return Cell{Text: sig(v), Raw: v}
 }
 
-// HistogramTable lists a histogram's bins with a bar of # for people.
-func HistogramTable(h search.Histogram, label, unit string) Table {
+// A StudyHistogram is one histogram of a build study with its bins as
+// rows: Key names it with its unit as JSON does ("adjust_mm", "efl_mm",
+// "magnification", "spot_um"), Title heads it for people.
+type StudyHistogram struct {
+	Key, Title string
+	Table      Table
+}
+
+// StudyHistograms are the study's histograms of bins equal in width: the
+// compensator's move, the target figure after compensation and, where
+// builds were traced with real rays, their RMS spot.
+func StudyHistograms(req search.Requirement, st search.Study, bins int) []StudyHistogram {
+	name, unit := search.FigureName(req.Kind)
+	fig := strings.ToLower(name)
+	move := "Compensator's move in the builds"
+	if st.Compensator == search.CompensateNone {
+		move = "Error left in the builds (no compensator)"
+	}
+	hs := []StudyHistogram{
+		{withUnit("adjust", "mm"), move, HistogramTable(search.NewHistogram(st.Adjust, bins), "adjust", "move", "mm")},
+		{withUnit(fig, unit), name + " after compensation in the builds", HistogramTable(search.NewHistogram(st.Figure, bins), fig, name, unit)},
+	}
+	if st.SpotBuilds > 0 {
+		hs = append(hs, StudyHistogram{withUnit("spot", "um"), "RMS spot at the compensated focus in the builds",
+			HistogramTable(search.NewHistogram(st.Spot, bins), "spot", "spot", "um")})
+	}
+	return hs
+}
+
+// withUnit is a key with its unit, as JSON keys carry them.
+func withUnit(key, unit string) string {
+	if unit == "" {
+		return key
+	}
+	return key + "_" + unit
+}
+
+// HistogramTable lists a histogram's bins, one row each: the bin's edges
+// (keys from key and unit: adjust_from_mm, adjust_to_mm), the number of
+// builds in it, and a bar of # for people.
+func HistogramTable(h search.Histogram, key, label, unit string) Table {
 	t := Table{Columns: []Column{
-		{Key: "from", Label: label + " from", Unit: unit},
-		{Key: "to", Label: "to", Unit: unit},
+		{Key: withUnit(key+"_from", unit), Label: label + " from", Unit: unit},
+		{Key: withUnit(key+"_to", unit), Label: "to", Unit: unit},
 		{Key: "builds", Label: "builds"},
 		{Key: "bar", Label: "", TextOnly: true},
 	}}
