@@ -324,7 +324,7 @@ func TestGoldenInspectSpots(t *testing.T) {
 		// 7th ed., sec. 8.5.2); the real ray's sine differs from D/2f by
 		// the spherical aberration, under 1 % here.
 		airy := 1.22 * optics.LineD * 1e-3 * figureOf(t, out, "EFL", 0) / 5
-		near(t, "Airy radius um", figureOf(t, out, "Airy radius, 1.22 lambda / (2", 0), airy, 0.01*airy)
+		near(t, "Airy radius um", figureOf(t, out, "Airy radius, 1.22 lambda / (2 NA')", 0), airy, 0.01*airy)
 	})
 	t.Run("json-na: RMS spot at the -1x conjugate, NA 0.05", func(t *testing.T) {
 		var rs []map[string]any

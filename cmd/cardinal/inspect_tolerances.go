@@ -50,12 +50,12 @@ func (o *inspectOptions) catalogTolerances() (optics.Tolerances, string, error) 
 func toleranceRows(r search.Inspection) [][]string {
 	t, from := r.Tolerances, r.TolerancesFrom
 	rows := [][]string{
-		{"focal-length tolerance (build study)", "+-" + present.Fixed(t.EFLPct, 2), "% (" + from["efl_pct"] + ")"},
-		{"centre-thickness tolerance", "+-" + present.Fixed(t.Thickness, 3), "mm (" + from["thickness_mm"] + ")"},
+		{"EFL tolerance (build study)", "+-" + present.Fixed(t.EFLPct, 2), "% (" + from["efl_pct"] + ")"},
+		{"thickness tolerance", "+-" + present.Fixed(t.Thickness, 3), "mm (" + from["thickness_mm"] + ")"},
 		{"index tolerance", "+-" + strconv.FormatFloat(t.Index, 'g', -1, 64), "(" + from["index"] + ")"},
 	}
 	if t.RadiusPct > 0 {
-		rows = append(rows, []string{"radius tolerance, each radius", "+-" + present.Fixed(t.RadiusPct, 2), "% (" + from["radius_pct"] + ")"})
+		rows = append(rows, []string{"radius tolerance, each", "+-" + present.Fixed(t.RadiusPct, 2), "% (" + from["radius_pct"] + ")"})
 	}
 	return rows
 }
