@@ -542,7 +542,7 @@ func TestGoldenTolerance(t *testing.T) {
 		for _, v := range atTol {
 			sum += v * v
 		}
-		sd := regexp.MustCompile(`standard deviation of the EFL (\S+),`).FindStringSubmatch(out)
+		sd := regexp.MustCompile(`standard deviation of the EFL (\S+) mm,`).FindStringSubmatch(out)
 		if sd == nil || len(atTol) < 5 {
 			t.Fatalf("no linear estimate or sensitivities in\n%s", out)
 		}

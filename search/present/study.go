@@ -50,15 +50,15 @@ func StudySummary(req search.Requirement, st search.Study) Table {
 		{"yield", fmt.Sprintf("%s %% of builds meet the target's tolerance", Fixed(st.Yield, 1))},
 		{"matters most", orMissing(st.Dominant)},
 		{"linear estimate", fmt.Sprintf("standard deviation of the %s %s, of the compensator %s mm (builds: %s, %s mm)",
-			name, sig(st.LinearTargetSD), sig(st.LinearAdjustSD), sig(st.TargetSD), sig(st.AdjustSD))},
+			name, with(sig(st.LinearTargetSD)), sig(st.LinearAdjustSD), with(sig(st.TargetSD)), sig(st.AdjustSD))},
 	}
 	if st.SpotBuilds > 0 {
 		where := "at the best focus after refocusing"
 		if st.Compensator != search.CompensateImage {
 			where = "on the fixed image plane"
 		}
-		rows = append(rows, [2]string{"RMS spot on axis", fmt.Sprintf("median %s um, 95 %% of builds %s..%s um, %s (%d builds traced with real rays)",
-			sig(st.SpotMedian), sig(st.SpotLow), sig(st.SpotHigh), where, st.SpotBuilds)})
+		rows = append(rows, [2]string{"RMS spot on axis", fmt.Sprintf("median %s µm, 95 %% of builds %s..%s µm, %s (%d builds traced with real rays)",
+			Figure(st.SpotMedian), Figure(st.SpotLow), Figure(st.SpotHigh), where, st.SpotBuilds)})
 	}
 	if st.SpotLost > 0 {
 		rows = append(rows, [2]string{"no spot", fmt.Sprintf("in %d builds no ray reached the image", st.SpotLost)})
