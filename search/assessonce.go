@@ -3,8 +3,6 @@ package search
 import (
 	"fmt"
 	"math"
-	"runtime"
-	"sync"
 
 	"cardinal/optics"
 )
@@ -34,19 +32,10 @@ func (s *search) assessAll(p *prepared, ls []layout) []judgement {
 	}
 	qs := make([]optics.Quality, len(ls))
 	errs := make([]error, len(ls))
-	workers := min(runtime.GOMAXPROCS(0), 4)
-	var wg sync.WaitGroup
-	for k := 0; k < workers; k++ {
-		wg.Add(1)
-		go func(k int) {
-			defer wg.Done()
-			for u := k; u < len(uniq); u += workers {
-				i := uniq[u]
-				qs[i], errs[i] = s.system(p, &ls[i]).Assess(s.req.Conditions(ls[i].wd, ls[i].bc))
-			}
-		}(k)
-	}
-	wg.Wait()
+	inParallel(len(uniq), func(u int) {
+		i := uniq[u]
+		qs[i], errs[i] = s.system(p, &ls[i]).Assess(s.req.Conditions(ls[i].wd, ls[i].bc))
+	})
 	// Each layout works out its own verdict from the figures (a laser's
 	// is judged against the layout's own waist).
 	for i := range ls {

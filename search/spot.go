@@ -3,8 +3,6 @@ package search
 import (
 	"math"
 	"math/rand/v2"
-	"runtime"
-	"sync"
 
 	"cardinal/optics"
 )
@@ -117,24 +115,15 @@ const (
 // cannot be modelled.
 func findSpots(req Requirement, sus []Setup) []*Study {
 	out := make([]*Study, len(sus))
-	workers := min(runtime.GOMAXPROCS(0), 4)
-	var wg sync.WaitGroup
-	for k := 0; k < workers; k++ {
-		wg.Add(1)
-		go func(k int) {
-			defer wg.Done()
-			for i := k; i < len(sus); i += workers {
-				m, err := newModel(req, sus[i])
-				if err != nil || m.rays == nil {
-					continue
-				}
-				m.rays.points = optics.Hexapolar(findSpotRings)
-				var st Study
-				m.spots(req.Build, streamOf(sus[i]), FindSpotBuilds, &st)
-				out[i] = &st
-			}
-		}(k)
-	}
-	wg.Wait()
+	inParallel(len(sus), func(i int) {
+		m, err := newModel(req, sus[i])
+		if err != nil || m.rays == nil {
+			return
+		}
+		m.rays.points = optics.Hexapolar(findSpotRings)
+		var st Study
+		m.spots(req.Build, streamOf(sus[i]), FindSpotBuilds, &st)
+		out[i] = &st
+	})
 	return out
 }

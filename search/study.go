@@ -301,21 +301,29 @@ func stdDev(v []float64) float64 {
 // studyAll studies the setups in parallel, each in its own slot.
 func studyAll(req Requirement, sus []Setup) []*Study {
 	out := make([]*Study, len(sus))
+	inParallel(len(sus), func(i int) {
+		if st, err := studyFirstOrder(req, sus[i]); err == nil {
+			out[i] = &st
+		}
+	})
+	return out
+}
+
+// inParallel calls f(i) for every i below n on up to four goroutines, the
+// i spread evenly among them; each call writes only its own slot.
+func inParallel(n int, f func(i int)) {
 	workers := min(runtime.GOMAXPROCS(0), 4)
 	var wg sync.WaitGroup
 	for k := 0; k < workers; k++ {
 		wg.Add(1)
 		go func(k int) {
 			defer wg.Done()
-			for i := k; i < len(sus); i += workers {
-				if st, err := studyFirstOrder(req, sus[i]); err == nil {
-					out[i] = &st
-				}
+			for i := k; i < n; i += workers {
+				f(i)
 			}
 		}(k)
 	}
 	wg.Wait()
-	return out
 }
 
 // A Histogram counts values in bins of equal width: Edges has one more

@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"cardinal/search"
+	"cardinal/search/present"
 )
 
 // DescribeRequirement says the requirement in one line of words, with its
@@ -68,16 +69,7 @@ func DescribeRequirement(r search.Requirement) string {
 }
 
 // DescribeParts names the parts in light order, "(reversed)" where turned.
-func DescribeParts(ps []search.PartUse) string {
-	s := make([]string, len(ps))
-	for i, p := range ps {
-		s[i] = p.ID()
-		if p.Reversed {
-			s[i] += " (reversed)"
-		}
-	}
-	return strings.Join(s, " + ")
-}
+func DescribeParts(ps []search.PartUse) string { return present.PartsText(ps) }
 
 // DescribeSpacings gives a result's distances and achieved figure in words.
 func DescribeSpacings(kind search.Kind, r search.Result) string {
