@@ -50,23 +50,7 @@ func items(parts ...optics.Part) []Item {
 // order with the solved gap, as one system.
 func assembled(t *testing.T, its []Item, r Result) optics.Cardinal {
 	t.Helper()
-	var parts []optics.Part
-	for _, u := range r.Parts {
-		for _, it := range its {
-			if it.Entry.Part.Supplier == u.Supplier && it.Entry.Part.Name == u.Part {
-				p := it.Entry.Part
-				if u.Reversed {
-					p = p.Reversed()
-				}
-				parts = append(parts, p)
-			}
-		}
-	}
-	var gaps []float64
-	if r.Gap != nil {
-		gaps = []float64{*r.Gap}
-	}
-	return optics.Assemble(nil, nil, parts, gaps).Cardinal(optics.LineD)
+	return resultSystem(its, r).Cardinal(optics.LineD)
 }
 
 func focusReq(efl float64) Requirement {

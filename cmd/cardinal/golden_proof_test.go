@@ -442,6 +442,15 @@ func TestGoldenFindAiry(t *testing.T) {
 
 // A pair as printed (parts, orientation and solved gap) traced by hand
 // with the paraxial equations must give the figures printed beside it.
+// goldenPairRow names a pair row of a find golden: its rank and its two
+// parts in light order, each reversed or not.
+type goldenPairRow struct {
+	row, a string
+	ar     bool
+	b      string
+	br     bool
+}
+
 func TestGoldenFindPairs(t *testing.T) {
 	wl := optics.LineD
 	pair := func(t *testing.T, a string, ar bool, b string, br bool, gap float64) []surf {
@@ -449,13 +458,7 @@ func TestGoldenFindPairs(t *testing.T) {
 	}
 	t.Run("focus-sharp-table: EFL and back clearance", func(t *testing.T) {
 		out := goldenOut(t, "find/focus-sharp-table")
-		for _, tc := range []struct {
-			row string
-			a   string
-			ar  bool
-			b   string
-			br  bool
-		}{
+		for _, tc := range []goldenPairRow{
 			{"1", "DEMO:ACH-224", false, "DEMO:ACH-160-BS", false},
 			{"2", "DEMO:ACH-160-2", false, "DEMO:ACH-224", false},
 		} {
@@ -473,13 +476,7 @@ func TestGoldenFindPairs(t *testing.T) {
 	})
 	t.Run("relay-spec-md: image position and magnification", func(t *testing.T) {
 		out := goldenOut(t, "find/relay-spec-md")
-		for _, tc := range []struct {
-			row string
-			a   string
-			ar  bool
-			b   string
-			br  bool
-		}{
+		for _, tc := range []goldenPairRow{
 			{"1", "DEMO:ACH-160-BS", false, "TARNWICK:KA-25-80-KX", true},
 			{"5", "DEMO:PCX-630-2", false, "DEMO:PCX-63-UV", true},
 		} {
