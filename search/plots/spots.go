@@ -156,16 +156,24 @@ func NewSpots(s solution.Solution, o PlotOptions) (Spots, error) {
 // chiefAt traces the chief ray of a field point at the reference
 // wavelength: the origin of the spots and fans.
 func chiefAt(sys optics.System, s solution.Solution, field, wl float64) (optics.Path, error) {
-	b, err := sys.Bundle(s.Object(), field, wl, []optics.PupilPoint{{}})
+	p, err := traceChief(sys, s, field, wl)
 	if err != nil {
 		return optics.Path{}, fmt.Errorf("spot diagram: %w", err)
 	}
-	p := sys.Tracer(wl).Trace(b.Rays[0], imagePlane(s))
 	if p.Status != optics.Passed {
 		return optics.Path{}, &FieldError{AtInfinity: math.IsInf(s.ObjectZ, -1), Field: field, Stopped: p.Err(),
 			Widest: widestChief(sys, s, field, wl)}
 	}
 	return p, nil
+}
+
+// traceChief traces the chief ray of a field point to the spots' plane.
+func traceChief(sys optics.System, s solution.Solution, field, wl float64) (optics.Path, error) {
+	b, err := sys.Bundle(s.Object(), field, wl, []optics.PupilPoint{{}})
+	if err != nil {
+		return optics.Path{}, err
+	}
+	return sys.Tracer(wl).Trace(b.Rays[0], imagePlane(s)), nil
 }
 
 // A FieldError is a field point whose chief ray does not pass the layout:
@@ -196,8 +204,8 @@ func (e *FieldError) Error() string {
 // widest field whose chief ray passes (to 1 % of field); 0 when none does.
 func widestChief(sys optics.System, s solution.Solution, field, wl float64) float64 {
 	passes := func(f float64) bool {
-		b, err := sys.Bundle(s.Object(), f, wl, []optics.PupilPoint{{}})
-		return err == nil && sys.Tracer(wl).Trace(b.Rays[0], imagePlane(s)).Status == optics.Passed
+		p, err := traceChief(sys, s, f, wl)
+		return err == nil && p.Status == optics.Passed
 	}
 	lo, hi := 0.0, field
 	if !passes(lo) {
