@@ -1,7 +1,6 @@
 package main
 
 import (
-	"fmt"
 	"math"
 
 	"github.com/spf13/pflag"
@@ -78,13 +77,10 @@ func writeGhosts(o *inspectOptions, entries []record.Entry, in, out optics.Mediu
 		}
 		lists = append(lists, present.GhostList{Name: name, Ghosts: pg.Ghosts})
 		if pg.Virtual > 0 {
-			fmt.Fprintf(o.env.Err, "note: %s: %d %s (virtual focus), not listed\n", e.Part.ID(), pg.Virtual,
+			notef(o.env, "note: %s: %d %s (virtual focus), not listed\n", e.Part.ID(), pg.Virtual,
 				map[bool]string{true: "reflected beam only diverges", false: "reflected beams only diverge"}[pg.Virtual == 1])
 		}
 	}
-	for _, n := range search.GhostNotes(req) {
-		fmt.Fprintln(o.env.Err, "note:", n)
-	}
-	writeCautions(o.env, req)
+	printCautions(o.env, req, search.GhostNotes(req), nil)
 	return render(o.env, o.env.Out, outputFlags{Format: o.Format}, present.Ghosts(lists, true), all)
 }
