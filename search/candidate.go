@@ -24,8 +24,11 @@ type Item struct {
 // cand is one part in one orientation, by its thick-lens cardinal points at
 // the search wavelength, in air.
 type cand struct {
-	item  int32 // index into the items
-	rev   bool
+	item  int32   // index into the items
+	key   int32   // rank of the part ID, for deterministic ties
+	surf  int32   // see front and back
+	rev   bool    // turned around
+	tier  int8    // price and drawer group (see tiers)
 	phi   float64 // power, 1/mm
 	f     float64 // EFL
 	L     float64 // first to last vertex
@@ -34,7 +37,12 @@ type cand struct {
 	delta float64 // L + Pp - P: from the front to the back principal point
 	m     optics.Mat2
 	semi  float64 // clear semi-aperture
-	surf  int32   // index of the first and (next) last surfaces in prepared.surfs
+	// front and back are the radii of the outer surfaces as turned; surf
+	// indexes the first and (next) last of them in prepared.surfs when
+	// either has conic or asphere terms, and is -1 for two spheres (the
+	// radius is all there is to them).
+	front, back float64
+	qty         int // pieces in the drawer
 	// frontMin is the least sag of the first surface and backMax the
 	// greatest sag of the last, over the clear aperture: for spheres, a
 	// quick lower bound on the edge clearance.
@@ -42,9 +50,6 @@ type cand struct {
 	unit              float64 // price term of one piece (see score.go)
 	price             float64 // price term of using it once: unit, 0 when the drawer holds a piece
 	away              float64 // 1 when no piece is in the drawer, else 0
-	qty               int     // pieces in the drawer
-	key               int32   // rank of the part ID, for deterministic ties
-	tier              int8    // price and drawer group (see tiers)
 }
 
 // prepared holds the candidates of one search and what was set aside.
@@ -59,16 +64,14 @@ type prepared struct {
 	fetch     func(items []int32) error
 	cands     []cand // sorted by power
 	skipped   map[string]int
-	surfs     []optics.Surface // outer surfaces of the candidates, two each
+	surfs     []optics.Surface // outer surfaces of the candidates with conics or aspheres, two each
 	warnings  []string
 	outside   []string           // media used outside their dispersion range
 	priceRefs map[string]float64 // median price by currency
 	// chunks are the candidates as the workers found them, before finish
-	// sorts them into cands; surfBase is where a worker's surfaces start
-	// in the shared surfs.
-	chunks   [][]cand
-	scratch  []cand // the array the chunks share
-	surfBase int32
+	// sorts them into cands.
+	chunks  [][]cand
+	scratch []cand // the array the chunks share
 }
 
 // partInfo is what the output says of an item besides its figures.
@@ -97,20 +100,19 @@ func prepare(items []Item, req Requirement) *prepared {
 }
 
 // inChunks runs chunk over [0, n) in pieces on the processors and merges
-// what they set aside. Each piece is handed a prepared whose cands and
-// surfs are its own region of shared arrays (two candidates and four
-// surfaces a part at most), so nothing is copied to merge them; finish
-// sorts the candidates.
+// what they set aside. Each piece is handed a prepared whose cands are its
+// own region of a shared array (two candidates a part at most), so nothing
+// is copied to merge them; finish sorts the candidates. The few outer
+// surfaces with conic or asphere terms are appended to the shared list.
 func inChunks(n int, chunk func(q *prepared, lo, hi int)) *prepared {
 	workers := max(1, min(runtime.GOMAXPROCS(0), 4, n/1000))
 	cands := make([]cand, 2*n)
-	p := &prepared{skipped: map[string]int{}, surfs: make([]optics.Surface, 4*n), scratch: cands}
+	p := &prepared{skipped: map[string]int{}, scratch: cands}
 	parts := make([]*prepared, workers)
 	var wg sync.WaitGroup
 	for k := range parts {
 		lo, hi := k*n/workers, (k+1)*n/workers
-		parts[k] = &prepared{skipped: map[string]int{}, cands: cands[2*lo : 2*lo : 2*hi],
-			surfs: p.surfs[4*lo : 4*lo : 4*hi], surfBase: int32(4 * lo)}
+		parts[k] = &prepared{skipped: map[string]int{}, cands: cands[2*lo : 2*lo : 2*hi]}
 		wg.Add(1)
 		go func(q *prepared) {
 			defer wg.Done()
@@ -120,6 +122,13 @@ func inChunks(n int, chunk func(q *prepared, lo, hi int)) *prepared {
 	wg.Wait()
 	outside := map[string]bool{}
 	for _, q := range parts {
+		base := int32(len(p.surfs))
+		for i := range q.cands {
+			if q.cands[i].surf >= 0 {
+				q.cands[i].surf += base
+			}
+		}
+		p.surfs = append(p.surfs, q.surfs...)
 		p.chunks = append(p.chunks, q.cands)
 		for r, n := range q.skipped {
 			p.skipped[r] += n
@@ -190,6 +199,11 @@ func prepareChunk(p *prepared, items []Item, keys []int32, lo, hi int, req Requi
 // cardinal points c in air, its clear semi-aperture, its outer surfaces and
 // the pieces in the drawer.
 func (p *prepared) add(c optics.Cardinal, semi float64, first, last optics.Surface, qty int, item, key int32, rev bool) {
+	surf := int32(-1)
+	if first.IsAsphere() || last.IsAsphere() {
+		surf = int32(len(p.surfs))
+		p.surfs = append(p.surfs, first, last)
+	}
 	p.cands = append(p.cands, cand{
 		item: item, rev: rev, key: key, qty: qty, away: float64(b2i(qty < 1)),
 		phi: c.Power, f: c.EFL, L: c.Length,
@@ -197,11 +211,12 @@ func (p *prepared) add(c optics.Cardinal, semi float64, first, last optics.Surfa
 		delta:    c.Length + c.PPrime - c.P,
 		m:        c.Matrix,
 		semi:     semi,
-		surf:     p.surfBase + int32(len(p.surfs)),
+		front:    first.Radius,
+		back:     last.Radius,
+		surf:     surf,
 		frontMin: sagExtreme(first, semi, math.Min),
 		backMax:  sagExtreme(last, semi, math.Max),
 	})
-	p.surfs = append(p.surfs, first, last)
 }
 
 // warn notes the media used outside their dispersion range, once each.

@@ -35,8 +35,9 @@ func TestReversedCandidate(t *testing.T) {
 				checkNear(t, "F", c.F, want.F, 1e-9, 1e-12)
 				checkNear(t, "F'", c.Fp, want.FPrime, 1e-9, 1e-12)
 				rs := part.Reversed().Surfaces
-				if p.surfs[c.surf] != rs[0] || p.surfs[c.surf+1] != rs[len(rs)-1] {
-					t.Errorf("outer surfaces %v %v, want %v %v", p.surfs[c.surf], p.surfs[c.surf+1], rs[0], rs[len(rs)-1])
+				s := &search{surfs: p.surfs}
+				if first, last := s.firstSurface(&c), s.lastSurface(&c); first != rs[0] || last != rs[len(rs)-1] {
+					t.Errorf("outer surfaces %v %v, want %v %v", first, last, rs[0], rs[len(rs)-1])
 				}
 			}
 			if !found {

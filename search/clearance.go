@@ -13,7 +13,7 @@ import (
 // sqrt(1 - c^2 h^2) grows with the curvature c), so its least value is at
 // the axis or at the shared clear aperture; conics and aspheres are sampled.
 func (s *search) edgeClearance(a, b *cand, gap float64) float64 {
-	last, first := &s.surfs[a.surf+1], &s.surfs[b.surf]
+	last, first := s.lastSurface(a), s.firstSurface(b)
 	h := math.Min(a.semi, b.semi)
 	at := func(h float64) float64 {
 		za, _ := last.Sag(h)
@@ -34,10 +34,26 @@ func (s *search) edgeClearance(a, b *cand, gap float64) float64 {
 // each surface's extreme sag over its whole clear aperture; -Inf when either
 // surface is a conic or an asphere.
 func (s *search) quickClearance(a, b *cand, gap float64) float64 {
-	if s.surfs[a.surf+1].IsAsphere() || s.surfs[b.surf].IsAsphere() {
+	if a.surf >= 0 && s.surfs[a.surf+1].IsAsphere() || b.surf >= 0 && s.surfs[b.surf].IsAsphere() {
 		return math.Inf(-1)
 	}
 	return gap - a.backMax + b.frontMin
+}
+
+// firstSurface is the first surface of candidate c as turned.
+func (s *search) firstSurface(c *cand) optics.Surface {
+	if c.surf < 0 {
+		return optics.Surface{Radius: c.front}
+	}
+	return s.surfs[c.surf]
+}
+
+// lastSurface is the last surface of candidate c as turned.
+func (s *search) lastSurface(c *cand) optics.Surface {
+	if c.surf < 0 {
+		return optics.Surface{Radius: c.back}
+	}
+	return s.surfs[c.surf+1]
 }
 
 // ray is a paraxial ray in air: height and angle (reduced angle with n = 1).

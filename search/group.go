@@ -41,7 +41,7 @@ func twinClasses(p *prepared, cs []cand) []int32 {
 		f, ff, bf float64
 		d         float64
 	}
-	var fs []fwd
+	fs := make([]fwd, 0, len(cs))
 	for i := range cs {
 		if c := &cs[i]; !c.rev {
 			fs = append(fs, fwd{item: c.item, key: c.key, f: c.f, ff: c.F, bf: c.Fp, d: p.info[c.item].diameter})
