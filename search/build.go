@@ -100,6 +100,7 @@ type model struct {
 	tol    float64 // absolute tolerance of the target
 	params []Param
 	deps   []optics.Departure // scratch space of departures
+	offs   []optics.Offsets   // and of their values (buildvalue.go)
 	// parts are the setup's parts, and rays the real-ray spot's settings
 	// (spot.go), nil when the requirement traces no rays.
 	parts []optics.Part

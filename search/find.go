@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"math"
 	"sort"
+	"sync/atomic"
+	"time"
 )
 
 // An Outcome is what a search found, and what a person needs to read it.
@@ -267,6 +269,12 @@ func notes(p *prepared, req Requirement) []string {
 // without build figures.
 const maxStudied = 100
 
+// studyWall adds up the wall time, ns, that studyBuilds spends on the
+// study (reading the studied parts' prescriptions, the builds, the spots
+// of the shown rows, the new order): what find would not spend without
+// it, read by BenchmarkFindStudyAdded.
+var studyWall atomic.Int64
+
 // studyBuilds simulates the build of every ranked result (study.go), adds
 // the yield and spread terms to the scores, orders the results again and
 // keeps the requirement's top N.
@@ -280,6 +288,7 @@ func (s *search) studyBuilds(p *prepared, ls []layout, rs []Result) ([]Result, e
 	if s.req.noBuildStudy {
 		return s.keepShown(rs), nil
 	}
+	defer func(t0 time.Time) { studyWall.Add(int64(time.Since(t0))) }(time.Now())
 	n := min(len(ls), maxStudied)
 	if err := s.fetchParts(p, ls[:n]); err != nil {
 		return nil, err

@@ -80,12 +80,15 @@ func (m *model) spots(b BuildSettings, stream uint64, limit int, st *Study) {
 		n = min(n, limit)
 	}
 	rng := rand.New(rand.NewPCG(b.Seed, stream))
-	d := make(draw, len(m.params))
+	v, d := make([]float64, len(m.params)), make(draw, len(m.params))
 	st.Spot = make([]float64, 0, n)
 	for i := 0; i < n; i++ {
-		t, ok := m.build(rng, b.Distribution, d)
+		t, ok := m.buildValue(rng, b.Distribution, v)
 		if !ok {
 			continue // not compensated: no spot (study counts it failed)
+		}
+		for j, x := range v {
+			d[j] = optics.Const(x)
 		}
 		if s, ok := m.spot(d, t); ok {
 			st.Spot = append(st.Spot, s)

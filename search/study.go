@@ -141,11 +141,11 @@ func (m *model) study(b BuildSettings, stream uint64) Study {
 	}
 	n := b.trials()
 	rng := rand.New(rand.NewPCG(b.Seed, stream))
-	d := make(draw, len(m.params))
+	v := make([]float64, len(m.params))
 	met := 0
 	st.Adjust, st.Figure = make([]float64, 0, n), make([]float64, 0, n)
 	for i := 0; i < n; i++ {
-		t, ok := m.build(rng, b.Distribution, d)
+		t, ok := m.buildValue(rng, b.Distribution, v)
 		if !ok {
 			st.Failed++
 			continue
@@ -159,23 +159,14 @@ func (m *model) study(b BuildSettings, stream uint64) Study {
 	st.Compensator, st.Trials = m.comp, n
 	st.Yield = 100 * float64(met) / float64(n)
 	if len(st.Adjust) > 0 {
-		st.AdjustLow, st.AdjustHigh = percentiles(st.Adjust, 2.5, 97.5)
-		lo, hi := percentiles(st.Figure, 2.5, 97.5)
+		scratch := make([]float64, len(st.Adjust))
+		st.AdjustLow, st.AdjustHigh = percentilesIn(scratch, st.Adjust, 2.5, 97.5)
+		lo, hi := percentilesIn(scratch, st.Figure, 2.5, 97.5)
 		st.SpreadLow, st.SpreadHigh = m.pct(lo), m.pct(hi)
 		st.AdjustSD, st.TargetSD = stdDev(st.Adjust), stdDev(st.Figure)
 	}
 	st.Dominant = dominant(st.Sensitivities, m.tol)
 	return st
-}
-
-// build draws one build's departures into d and compensates it; ok is
-// false when the compensator has no solution.
-func (m *model) build(rng *rand.Rand, dist Distribution, d draw) (t trial, ok bool) {
-	for j, p := range m.params {
-		d[j] = optics.Const(p.Tol * unitDraw(rng, dist))
-	}
-	t = m.eval(d)
-	return t, t.ok && !math.IsNaN(t.figure.V) && !math.IsInf(t.figure.V, 0) && !math.IsNaN(t.adjust.V)
 }
 
 // FigureRange is the target figure's 95 % range after compensation in
@@ -268,17 +259,85 @@ func dominant(ss []Sensitivity, tol float64) string {
 // interpolation between order statistics (definition 7 of R. J. Hyndman
 // and Y. Fan, The American Statistician 50, 361, 1996). v is not changed.
 func percentiles(v []float64, ps ...float64) (lo, hi float64) {
-	s := slices.Clone(v)
-	slices.Sort(s)
+	return percentilesIn(make([]float64, len(v)), v, ps...)
+}
+
+// percentilesIn is percentiles with scratch space s, as long as v: the
+// order statistics it needs are selected (selectKth), not sorted for, and
+// are the very values a sort would put at those places.
+func percentilesIn(s, v []float64, ps ...float64) (lo, hi float64) {
+	s = s[:len(v)]
+	copy(s, v)
+	done := 0 // s[:done] holds the smallest done values; s[done:] the rest
 	q := func(p float64) float64 {
 		h := (float64(len(s)) - 1) * p / 100
 		i := int(math.Floor(h))
 		if i+1 >= len(s) {
-			return s[len(s)-1]
+			return orderStat(s, &done, len(s)-1)
 		}
-		return s[i] + (h-float64(i))*(s[i+1]-s[i])
+		a := orderStat(s, &done, i)
+		b := orderStat(s, &done, i+1)
+		return a + (h-float64(i))*(b-a)
 	}
 	return q(ps[0]), q(ps[1])
+}
+
+// orderStat is the k-th smallest of s (from 0). Between calls s[:*done]
+// holds the smallest *done values (in no particular order), so a k below
+// *done is selected among them and a larger one among the rest, either
+// way keeping that so.
+func orderStat(s []float64, done *int, k int) float64 {
+	if k < *done {
+		selectKth(s[:*done], k)
+		return s[k]
+	}
+	selectKth(s[*done:], k-*done)
+	*done = k + 1
+	return s[k]
+}
+
+// selectKth reorders s so that s[k] is the value a sort would put there,
+// every value before it no greater and every value after it no smaller:
+// Hoare's selection (C. A. R. Hoare, Algorithm 65: FIND, Communications
+// of the ACM 4, 321, 1961), with the median of three as the pivot. The
+// values are never NaN (study keeps no NaN).
+func selectKth(s []float64, k int) {
+	lo, hi := 0, len(s)-1
+	for hi > lo {
+		mid := lo + (hi-lo)/2
+		if s[mid] < s[lo] {
+			s[mid], s[lo] = s[lo], s[mid]
+		}
+		if s[hi] < s[lo] {
+			s[hi], s[lo] = s[lo], s[hi]
+		}
+		if s[hi] < s[mid] {
+			s[hi], s[mid] = s[mid], s[hi]
+		}
+		pivot := s[mid]
+		i, j := lo, hi
+		for i <= j {
+			for s[i] < pivot {
+				i++
+			}
+			for pivot < s[j] {
+				j--
+			}
+			if i <= j {
+				s[i], s[j] = s[j], s[i]
+				i++
+				j--
+			}
+		}
+		switch {
+		case k <= j:
+			hi = j
+		case k >= i:
+			lo = i
+		default:
+			return // s[j+1:i] all equal the pivot, and k lies among them
+		}
+	}
 }
 
 // stdDev is the sample standard deviation (n - 1 in the denominator).

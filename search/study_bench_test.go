@@ -33,12 +33,22 @@ func BenchmarkStudy(b *testing.B) {
 		}
 	}
 	su.Gap, su.BackClearance = deref(r.Gap), deref(r.BackClearance)
-	b.ResetTimer()
-	for b.Loop() {
-		if _, err := StudyBuild(req, su); err != nil {
-			b.Fatal(err)
+	b.Run("with-spots", func(b *testing.B) {
+		for b.Loop() {
+			if _, err := StudyBuild(req, su); err != nil {
+				b.Fatal(err)
+			}
 		}
-	}
+	})
+	// What find runs for every ranked result: the builds and their
+	// figures, no real rays.
+	b.Run("first-order", func(b *testing.B) {
+		for b.Loop() {
+			if _, err := studyFirstOrder(req, su); err != nil {
+				b.Fatal(err)
+			}
+		}
+	})
 }
 
 // cpuTime is the CPU time the process has used, ns.
