@@ -5,7 +5,6 @@ import (
 	"encoding/hex"
 	"math"
 	"strconv"
-	"strings"
 
 	"cardinal/catalog/record"
 	"cardinal/optics"
@@ -17,15 +16,15 @@ import (
 // warnings that the prescription itself gives are left out: they follow
 // from the other fields.
 func fingerprint(e record.Entry, otherWarnings []string) string {
-	var b strings.Builder
-	str := func(s string) { b.WriteString(strconv.Quote(s)); b.WriteByte(',') }
+	b := make([]byte, 0, 512)
+	str := func(s string) { b = append(strconv.AppendQuote(b, s), ',') }
 	num := func(v float64) {
 		if v == 0 || math.IsInf(v, 0) {
 			v = math.Abs(v) // -0 and 0, -Inf and +Inf are stored alike
 		}
-		b.WriteString(strconv.FormatFloat(v, 'g', -1, 64))
-		b.WriteByte(',')
+		b = append(strconv.AppendFloat(b, v, 'g', -1, 64), ',')
 	}
+	mark := func(s string) { b = append(b, s...) }
 	p := e.Part
 	str(p.Supplier)
 	str(p.Name)
@@ -33,7 +32,7 @@ func fingerprint(e record.Entry, otherWarnings []string) string {
 	num(p.Diameter)
 	num(p.ClearAperture)
 	for i, s := range p.Surfaces {
-		b.WriteString("|s")
+		mark("|s")
 		num(planeAsInf(s.Radius))
 		num(s.Conic)
 		for _, a := range s.Asph {
@@ -44,7 +43,7 @@ func fingerprint(e record.Entry, otherWarnings []string) string {
 			str(mediumName(p.Media[i]))
 		}
 	}
-	b.WriteString("|e")
+	mark("|e")
 	for _, v := range []float64{e.StatedEFL, e.StatedBFD, e.StatedEdge, e.StatedWavelength, e.Price} {
 		num(v)
 	}
@@ -54,20 +53,20 @@ func fingerprint(e record.Entry, otherWarnings []string) string {
 	if t := e.Tolerances; t != (optics.Tolerances{}) {
 		// Only when stated, so that the fingerprints of parts stored before
 		// tolerances existed do not change.
-		b.WriteString("|t")
+		mark("|t")
 		for _, v := range []float64{t.EFLPct, t.Thickness, t.Index, t.RadiusPct} {
 			num(v)
 		}
 	}
 	if c := p.Coating; c.Stated {
 		// Only when stated, as the tolerances.
-		b.WriteString("|c")
+		mark("|c")
 		num(c.ResidualPct)
 	}
 	for _, w := range otherWarnings {
 		str(w)
 	}
-	sum := sha256.Sum256([]byte(b.String()))
+	sum := sha256.Sum256(b)
 	return hex.EncodeToString(sum[:])
 }
 

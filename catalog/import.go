@@ -60,7 +60,7 @@ func (s *Store) Import(ctx context.Context, entries []record.Entry, dryRun bool)
 		switch {
 		case !ok:
 			next++
-			fresh = append(fresh, newPart{id: next, e: &stored[i]})
+			fresh = append(fresh, newPart{id: next, key: id, e: &stored[i]})
 			rep.Added = append(rep.Added, id)
 		case old.fingerprint == e.fingerprint:
 			rep.Unchanged = append(rep.Unchanged, id)
@@ -76,7 +76,7 @@ func (s *Store) Import(ctx context.Context, entries []record.Entry, dryRun bool)
 	}
 	// New parts take ids in the order of their names, so that the tables
 	// keyed by name grow at their end.
-	slices.SortFunc(fresh, func(a, b newPart) int { return strings.Compare(a.e.Part.ID(), b.e.Part.ID()) })
+	slices.SortFunc(fresh, func(a, b newPart) int { return strings.Compare(a.key, b.key) })
 	for i := range fresh {
 		fresh[i].id = next - int64(len(fresh)) + int64(i) + 1
 	}

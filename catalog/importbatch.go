@@ -5,6 +5,7 @@ import (
 	"runtime"
 	"strings"
 	"sync"
+	"sync/atomic"
 
 	"cardinal/optics"
 )
@@ -27,10 +28,57 @@ func parallel[T any](n int, f func(i int) T) []T {
 	return out
 }
 
+// A piped is a sequence of values worked out ahead, in runs, by
+// goroutines on the processors, while its reader takes them in order.
+type piped[T any] struct {
+	runs []chan []T
+	cur  []T
+	base int
+}
+
+// pipeRun is the number of values worked out together.
+const pipeRun = 512
+
+// pipeline starts working out f(0), ..., f(n-1); at(i) waits for f(i).
+// The values must be read in order.
+func pipeline[T any](n int, f func(i int) T) *piped[T] {
+	p := &piped[T]{runs: make([]chan []T, (n+pipeRun-1)/pipeRun)}
+	for k := range p.runs {
+		p.runs[k] = make(chan []T, 1)
+	}
+	var next atomic.Int64
+	for range max(1, runtime.GOMAXPROCS(0)) {
+		go func() {
+			for {
+				k := int(next.Add(1) - 1)
+				if k >= len(p.runs) {
+					return
+				}
+				out := make([]T, min(pipeRun, n-k*pipeRun))
+				for j := range out {
+					out[j] = f(k*pipeRun + j)
+				}
+				p.runs[k] <- out
+			}
+		}()
+	}
+	return p
+}
+
+// at returns f(i), waiting for it; i must not go back.
+func (p *piped[T]) at(i int) *T {
+	for i >= p.base+len(p.cur) {
+		p.base += len(p.cur)
+		p.cur = <-p.runs[p.base/pipeRun]
+	}
+	return &p.cur[i-p.base]
+}
+
 // A newPart is an entry to add under the id chosen for it.
 type newPart struct {
-	id int64
-	e  *storedEntry
+	id  int64
+	key string // SUPPLIER:PART
+	e   *storedEntry
 }
 
 // newRows is what the catalog stores of a new part besides its
@@ -59,7 +107,9 @@ func writeNewParts(ctx context.Context, w *txWriter, parts []newPart, glasses op
 			}
 		}()
 	}
-	rows := parallel(len(parts), func(i int) newRows {
+	// The rows are worked out on the other processors while this goroutine
+	// writes the ones before them.
+	rows := pipeline(len(parts), func(i int) newRows {
 		e := parts[i].e
 		p := e.Part
 		indexed := e.Entry
@@ -83,7 +133,7 @@ func writeNewParts(ctx context.Context, w *txWriter, parts []newPart, glasses op
 		b.parent = partRows // the parts a row refers to go in first
 	}
 	for i, np := range parts {
-		e, id, r := np.e, np.id, &rows[i]
+		e, id, r := np.e, np.id, rows.at(i)
 		p := e.Part
 		if err := partRows.add(ctx, id, p.Supplier, p.Name, p.Description, p.Diameter, p.ClearAperture, r.kind,
 			nullIfZero(e.StatedEFL), nullIfZero(e.StatedBFD), nullIfZero(e.StatedEdge),

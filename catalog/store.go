@@ -107,7 +107,7 @@ func SetLockWait(d time.Duration) { lockWait.Store(int64(max(d, 0))) }
 // only, "ro-immutable" read only without locks for a file in a folder no
 // one can write (SQLite's immutable URI parameter).
 func dsnMode(path, mode string) string {
-	q := fmt.Sprintf("?_pragma=foreign_keys(1)&_pragma=busy_timeout(%d)&_pragma=cache_size(-65536)&_pragma=temp_store(2)&_pragma=mmap_size(268435456)&_txlock=immediate", LockWait().Milliseconds())
+	q := fmt.Sprintf("?_pragma=foreign_keys(1)&_pragma=busy_timeout(%d)&_pragma=temp_store(2)&_pragma=mmap_size(268435456)&_txlock=immediate", LockWait().Milliseconds())
 	if path == Memory {
 		return Memory + q
 	}

@@ -6,6 +6,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"slices"
 	"strconv"
 	"strings"
 	"unicode/utf8"
@@ -24,6 +25,22 @@ type table struct {
 	rows     []rawRow
 	errs     FileErrors
 	warnings []LineError
+	order    []string // the column names in the order of their cells (columnOrder)
+}
+
+// columnOrder is the column names in the order of their cells, worked out
+// once per header rather than once per row.
+func (t *table) columnOrder() []string {
+	if len(t.order) == len(t.columns) {
+		return t.order
+	}
+	cols := make([]string, 0, len(t.columns))
+	for c := range t.columns {
+		cols = append(cols, c)
+	}
+	slices.SortFunc(cols, func(a, b string) int { return t.columns[a] - t.columns[b] })
+	t.order = cols
+	return cols
 }
 
 // A rawRow is one row of cells and the line it starts on.

@@ -3,7 +3,6 @@ package importers
 import (
 	"fmt"
 	"math"
-	"slices"
 	"unicode"
 )
 
@@ -72,12 +71,7 @@ var freeText = map[string]bool{"notes": true, "description": true, "location": t
 // place in the cell: they are invisible, break tables and terminals, and
 // no part name, supplier, description, glass or location needs them.
 func (r *row) checkControl() {
-	cols := make([]string, 0, len(r.t.columns))
-	for c := range r.t.columns {
-		cols = append(cols, c)
-	}
-	slices.SortFunc(cols, func(a, b string) int { return r.t.columns[a] - r.t.columns[b] })
-	for _, c := range cols {
+	for _, c := range r.t.columnOrder() {
 		i := r.t.columns[c]
 		if i >= len(r.rec.cells) {
 			continue

@@ -72,25 +72,43 @@ func ReadPrescriptions(r io.Reader, file string, glasses optics.GlassTable) ([]r
 func ReadPrescriptionFile(r io.Reader, file string, glasses optics.GlassTable) (File[record.Entry], error) {
 	t := readTable(r, file, prescriptionSchema)
 	errs := t.errs
-	var entries []record.Entry
-	seen := map[string]int{}
-	for _, rec := range t.rows {
-		if !t.headerOK {
-			break
-		}
-		row := t.row(rec)
+	var raw []rawRow
+	if t.headerOK {
+		raw = t.rows
+	}
+	// The rows are read on every processor (each row is read on its own),
+	// then checked against one another in file order.
+	t.columnOrder() // worked out before the rows share it
+	type parsed struct {
+		row *row
+		e   record.Entry
+	}
+	rows := parallel(len(raw), func(i int) parsed {
+		row := t.row(raw[i])
 		e := parseEntry(row, glasses)
-		if first, dup := seen[e.Part.ID()]; dup && e.Part.Supplier != "" && e.Part.Name != "" {
-			row.fail("part", "%s is already on line %d; supplier and part together must be unique", e.Part.ID(), first)
+		if len(row.errs) == 0 {
+			e.Warnings = ComputedWarnings(e)
+		}
+		return parsed{row, e}
+	})
+	var entries []record.Entry
+	if len(rows) > 0 {
+		entries = make([]record.Entry, 0, len(rows))
+	}
+	seen := make(map[string]int, len(rows))
+	for i := range rows {
+		row, e := rows[i].row, &rows[i].e
+		id := e.Part.ID()
+		if first, dup := seen[id]; dup && e.Part.Supplier != "" && e.Part.Name != "" {
+			row.fail("part", "%s is already on line %d; supplier and part together must be unique", id, first)
 		} else {
-			seen[e.Part.ID()] = rec.line
+			seen[id] = row.rec.line
 		}
 		if len(row.errs) > 0 {
 			errs = append(errs, row.errs...)
 			continue
 		}
-		e.Warnings = ComputedWarnings(e)
-		entries = append(entries, e)
+		entries = append(entries, *e)
 	}
 	if len(errs) > 0 {
 		sortErrors(errs)
