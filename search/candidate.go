@@ -3,7 +3,6 @@ package search
 import (
 	"cmp"
 	"fmt"
-	"math"
 	"runtime"
 	"slices"
 	"sort"
@@ -22,39 +21,65 @@ type Item struct {
 }
 
 // cand is one part in one orientation, by its thick-lens cardinal points at
-// the search wavelength, in air.
+// the search wavelength, in air. It holds what the pruned search reads for
+// every candidate it passes over, compactly: what follows from these (the
+// focal lengths and points, the principal-point separation) is worked out
+// by the methods below with the same operations optics.FromMatrix uses, so
+// that the figures agree to the last bit, and what belongs to the part
+// rather than the orientation lives in the prepared items (itemData).
 type cand struct {
-	item  int32   // index into the items
-	key   int32   // rank of the part ID, for deterministic ties
-	surf  int32   // see front and back
-	rev   bool    // turned around
-	tier  int8    // price and drawer group (see tiers)
-	phi   float64 // power, 1/mm
-	f     float64 // EFL
-	L     float64 // first to last vertex
-	P, Pp float64 // principal points (front from the first vertex, back from the last)
-	F, Fp float64 // focal points, same references
-	delta float64 // L + Pp - P: from the front to the back principal point
-	m     optics.Mat2
-	semi  float64 // clear semi-aperture
-	// front and back are the radii of the outer surfaces as turned; surf
-	// indexes the first and (next) last of them in prepared.surfs when
-	// either has conic or asphere terms, and is -1 for two spheres (the
-	// radius is all there is to them).
-	front, back float64
-	qty         int // pieces in the drawer
-	// frontMin is the least sag of the first surface and backMax the
-	// greatest sag of the last, over the clear aperture: for spheres, a
-	// quick lower bound on the edge clearance.
-	frontMin, backMax float64
-	unit              float64 // price term of one piece (see score.go)
-	price             float64 // price term of using it once: unit, 0 when the drawer holds a piece
-	away              float64 // 1 when no piece is in the drawer, else 0
+	phi   float64     // power, 1/mm
+	L     float64     // first to last vertex
+	P, Pp float64     // principal points (front from the first vertex, back from the last)
+	m     optics.Mat2 // reduced matrix, first to last vertex, in air
+	semi  float64     // clear semi-aperture
+	price float64     // price term of using it once: the item's unit, 0 when the drawer holds a piece
+	item  int32       // index into the items
+	qty   int8        // pieces in the drawer, held to 127 (only up to 2 are ever told apart)
+	rev   bool        // turned around
+	tier  int8        // price and drawer group (see tiers)
+}
+
+// efl is the effective focal length, 1/phi (optics.FromMatrix).
+func (c *cand) efl() float64 { return 1 / c.phi }
+
+// ffd is the front focal point from the first vertex, -D/phi in air
+// (optics.FromMatrix with n = 1).
+func (c *cand) ffd() float64 { return -c.m.D / c.phi }
+
+// bfd is the back focal point from the last vertex, A/phi in air.
+func (c *cand) bfd() float64 { return c.m.A / c.phi }
+
+// sep is L + P' - P: from the front to the back principal point.
+func (c *cand) sep() float64 { return c.L + c.Pp - c.P }
+
+// away is 1 when no piece is in the drawer, else 0.
+func (c *cand) away() float64 { return float64(b2i(c.qty < 1)) }
+
+// itemData is what the search keeps per item rather than per candidate.
+type itemData struct {
+	keys  []int32   // rank of the part ID, for deterministic ties
+	units []float64 // price term of one piece (see score.go)
+	outer []outer   // outer surfaces, for the edge clearance
+	surfs []optics.Surface
+}
+
+// outer is what the edge clearance needs of an item's outer surfaces as
+// catalogued (not turned): their radii, and surf, which indexes the first
+// and (next) last of them in itemData.surfs when either has conic or
+// asphere terms and is -1 for two spheres (the radius is all there is to
+// them).
+type outer struct {
+	first, last float64
+	surf        int32
 }
 
 // prepared holds the candidates of one search and what was set aside.
 type prepared struct {
-	info []partInfo // per item
+	itemData
+	items int // how many items
+	// info tells what the output says of an item besides its figures.
+	info func(item int32) partInfo
 	// full returns an item's full prescription; fetch, when not nil, must
 	// first be given the items whose prescriptions will be asked for (the
 	// index path reads them from the catalog then).
@@ -62,9 +87,8 @@ type prepared struct {
 	// tols returns an item's stated tolerances, under the same rule as full.
 	tols      func(item int32) optics.Tolerances
 	fetch     func(items []int32) error
-	cands     []cand // sorted by power
+	cands     []cand // sorted by tier, then power
 	skipped   map[string]int
-	surfs     []optics.Surface // outer surfaces of the candidates with conics or aspheres, two each
 	warnings  []string
 	outside   []string           // media used outside their dispersion range
 	priceRefs map[string]float64 // median price by currency
@@ -72,6 +96,7 @@ type prepared struct {
 	// sorts them into cands.
 	chunks  [][]cand
 	scratch []cand // the array the chunks share
+	lo, hi  int    // the items of a chunk
 }
 
 // partInfo is what the output says of an item besides its figures.
@@ -86,13 +111,12 @@ type partInfo struct {
 // the processors, merged in item order.
 func prepare(items []Item, req Requirement) *prepared {
 	keys := idRanks(items)
-	info := make([]partInfo, len(items))
-	for i, it := range items {
-		e := &it.Entry
-		info[i] = partInfo{supplier: e.Part.Supplier, name: e.Part.Name, currency: e.Currency, price: e.Price, diameter: e.Part.Diameter}
+	p := inChunks(len(items), nil, func(q *prepared, lo, hi int) { prepareChunk(q, items, lo, hi, req) })
+	p.keys = keys
+	p.info = func(i int32) partInfo {
+		e := &items[i].Entry
+		return partInfo{supplier: e.Part.Supplier, name: e.Part.Name, currency: e.Currency, price: e.Price, diameter: e.Part.Diameter}
 	}
-	p := inChunks(len(items), func(q *prepared, lo, hi int) { prepareChunk(q, items, keys, lo, hi, req) })
-	p.info = info
 	p.full = func(i int32) optics.Part { return items[i].Entry.Part }
 	p.tols = func(i int32) optics.Tolerances { return items[i].Entry.Tolerances }
 	p.finish(req)
@@ -101,31 +125,47 @@ func prepare(items []Item, req Requirement) *prepared {
 
 // inChunks runs chunk over [0, n) in pieces on the processors and merges
 // what they set aside. Each piece is handed a prepared whose cands are its
-// own region of a shared array (two candidates a part at most), so nothing
-// is copied to merge them; finish sorts the candidates. The few outer
-// surfaces with conic or asphere terms are appended to the shared list.
-func inChunks(n int, chunk func(q *prepared, lo, hi int)) *prepared {
+// own region of a shared array, so nothing is copied to merge them; finish
+// sorts the candidates. The region of item i holds two candidates, or
+// one where single(i) (the part is the same turned around; single may be
+// nil). The items' outer surfaces are written in place, and the few with
+// conic or asphere terms appended to the shared list.
+func inChunks(n int, single func(i int) bool, chunk func(q *prepared, lo, hi int)) *prepared {
 	workers := max(1, min(runtime.GOMAXPROCS(0), 4, n/1000))
-	cands := make([]cand, 2*n)
-	p := &prepared{skipped: map[string]int{}, scratch: cands}
+	bounds := make([]int, workers+1) // start of each region in the shared array
+	for k := range workers {
+		lo, hi := k*n/workers, (k+1)*n/workers
+		size := 2 * (hi - lo)
+		if single != nil {
+			for i := lo; i < hi; i++ {
+				size -= b2i(single(i))
+			}
+		}
+		bounds[k+1] = bounds[k] + size
+	}
+	cands := make([]cand, bounds[workers])
+	p := &prepared{items: n, skipped: map[string]int{}, scratch: cands}
+	p.outer = make([]outer, n)
 	parts := make([]*prepared, workers)
 	var wg sync.WaitGroup
 	for k := range parts {
 		lo, hi := k*n/workers, (k+1)*n/workers
-		parts[k] = &prepared{skipped: map[string]int{}, cands: cands[2*lo : 2*lo : 2*hi]}
+		q := &prepared{skipped: map[string]int{}, cands: cands[bounds[k]:bounds[k]:bounds[k+1]], lo: lo, hi: hi}
+		q.outer = p.outer
+		parts[k] = q
 		wg.Add(1)
 		go func(q *prepared) {
 			defer wg.Done()
 			chunk(q, lo, hi)
-		}(parts[k])
+		}(q)
 	}
 	wg.Wait()
 	outside := map[string]bool{}
 	for _, q := range parts {
 		base := int32(len(p.surfs))
-		for i := range q.cands {
-			if q.cands[i].surf >= 0 {
-				q.cands[i].surf += base
+		for i := q.lo; i < q.hi; i++ {
+			if p.outer[i].surf >= 0 {
+				p.outer[i].surf += base
 			}
 		}
 		p.surfs = append(p.surfs, q.surfs...)
@@ -150,13 +190,16 @@ func (p *prepared) finish(req Requirement) {
 		p.warnings = append(p.warnings, fmt.Sprintf("%g nm is outside the range of the dispersion formulas of %s: their indices are extrapolated",
 			req.Lambda(), strings.Join(p.outside, ", ")))
 	}
-	p.priceRefs = priceReferences(p.info)
+	p.priceRefs = priceReferences(p.items, p.info)
+	p.units = make([]float64, p.items)
+	for i := range p.units {
+		e := p.info(int32(i))
+		p.units[i] = priceTerm(e.price, e.currency, p.priceRefs)
+	}
 	for _, cs := range p.chunks {
 		for i := range cs {
 			c := &cs[i]
-			e := &p.info[c.item]
-			c.unit = priceTerm(e.price, e.currency, p.priceRefs)
-			c.price = c.unit * c.away
+			c.price = p.units[c.item] * c.away()
 		}
 	}
 	p.cands = byTier(p.scratch, p.chunks)
@@ -164,7 +207,7 @@ func (p *prepared) finish(req Requirement) {
 }
 
 // prepareChunk computes the candidates of items[lo:hi] into p.
-func prepareChunk(p *prepared, items []Item, keys []int32, lo, hi int, req Requirement) {
+func prepareChunk(p *prepared, items []Item, lo, hi int, req Requirement) {
 	lambda := req.Lambda()
 	warned := map[string]bool{}
 	for i := lo; i < hi; i++ {
@@ -181,8 +224,8 @@ func prepareChunk(p *prepared, items []Item, keys []int32, lo, hi int, req Requi
 			p.skipped["no focusing power (afocal part)"]++
 			continue
 		}
-		first, last := part.Surfaces[0], part.Surfaces[len(part.Surfaces)-1]
-		p.add(c, part.Aperture()/2, first, last, it.Drawer, int32(i), keys[i], false)
+		p.setOuter(int32(i), part.Surfaces[0], part.Surfaces[len(part.Surfaces)-1])
+		p.add(c, part.Aperture()/2, it.Drawer, int32(i), false)
 		if !part.Symmetric() {
 			// The part turned around, in air: its reduced matrix is
 			// [D B; C A] (reversibility of paraxial rays; Gerrard and
@@ -190,32 +233,32 @@ func prepareChunk(p *prepared, items []Item, keys []int32, lo, hi int, req Requi
 			m := c.Matrix
 			rc := optics.FromMatrix(optics.Mat2{A: m.D, B: m.B, C: m.C, D: m.A}, 1, 1)
 			rc.Length = c.Length
-			p.add(rc, part.Aperture()/2, last.Reversed(), first.Reversed(), it.Drawer, int32(i), keys[i], true)
+			p.add(rc, part.Aperture()/2, it.Drawer, int32(i), true)
 		}
 	}
 }
 
-// add appends the candidate of one part in one orientation, by its
-// cardinal points c in air, its clear semi-aperture, its outer surfaces and
-// the pieces in the drawer.
-func (p *prepared) add(c optics.Cardinal, semi float64, first, last optics.Surface, qty int, item, key int32, rev bool) {
-	surf := int32(-1)
+// setOuter records an item's outer surfaces (as catalogued) for the edge
+// clearance: their radii, and the surfaces in full when either has conic
+// or asphere terms.
+func (p *prepared) setOuter(item int32, first, last optics.Surface) {
+	o := outer{first: first.Radius, last: last.Radius, surf: -1}
 	if first.IsAsphere() || last.IsAsphere() {
-		surf = int32(len(p.surfs))
+		o.surf = int32(len(p.surfs))
 		p.surfs = append(p.surfs, first, last)
 	}
+	p.outer[item] = o
+}
+
+// add appends the candidate of one part in one orientation, by its
+// cardinal points c in air, its clear semi-aperture and the pieces in the
+// drawer.
+func (p *prepared) add(c optics.Cardinal, semi float64, qty int, item int32, rev bool) {
 	p.cands = append(p.cands, cand{
-		item: item, rev: rev, key: key, qty: qty, away: float64(b2i(qty < 1)),
-		phi: c.Power, f: c.EFL, L: c.Length,
-		P: c.P, Pp: c.PPrime, F: c.F, Fp: c.FPrime,
-		delta:    c.Length + c.PPrime - c.P,
-		m:        c.Matrix,
-		semi:     semi,
-		front:    first.Radius,
-		back:     last.Radius,
-		surf:     surf,
-		frontMin: sagExtreme(first, semi, math.Min),
-		backMax:  sagExtreme(last, semi, math.Max),
+		item: item, rev: rev, qty: int8(min(max(qty, -128), 127)),
+		phi: c.Power, L: c.Length, P: c.P, Pp: c.PPrime,
+		m:    c.Matrix,
+		semi: semi,
 	})
 }
 
@@ -275,7 +318,11 @@ func sagExtreme(s optics.Surface, h float64, pick func(a, b float64) float64) fl
 // the score bound can cut whole groups: four price quartiles, in the drawer
 // or not.
 func tiers(chunks [][]cand) []int8 {
-	var ps []float64
+	n := 0
+	for _, cs := range chunks {
+		n += len(cs)
+	}
+	ps := make([]float64, 0, n)
 	for _, cs := range chunks {
 		for i := range cs {
 			ps = append(ps, cs[i].price)
@@ -298,7 +345,7 @@ func tiers(chunks [][]cand) []int8 {
 					k++
 				}
 			}
-			t = append(t, k+4*int8(cs[i].away))
+			t = append(t, k+4*int8(b2i(cs[i].qty < 1)))
 		}
 	}
 	return t

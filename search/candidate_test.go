@@ -29,13 +29,13 @@ func TestReversedCandidate(t *testing.T) {
 					continue
 				}
 				found = true
-				checkNear(t, "EFL", c.f, want.EFL, 1e-9, 1e-12)
+				checkNear(t, "EFL", c.efl(), want.EFL, 1e-9, 1e-12)
 				checkNear(t, "P", c.P, want.P, 1e-9, 1e-12)
 				checkNear(t, "P'", c.Pp, want.PPrime, 1e-9, 1e-12)
-				checkNear(t, "F", c.F, want.F, 1e-9, 1e-12)
-				checkNear(t, "F'", c.Fp, want.FPrime, 1e-9, 1e-12)
+				checkNear(t, "F", c.ffd(), want.F, 1e-9, 1e-12)
+				checkNear(t, "F'", c.bfd(), want.FPrime, 1e-9, 1e-12)
 				rs := part.Reversed().Surfaces
-				s := &search{surfs: p.surfs}
+				s := &search{itemData: p.itemData}
 				if first, last := s.firstSurface(&c), s.lastSurface(&c); first != rs[0] || last != rs[len(rs)-1] {
 					t.Errorf("outer surfaces %v %v, want %v %v", first, last, rs[0], rs[len(rs)-1])
 				}

@@ -34,26 +34,50 @@ func (s *search) edgeClearance(a, b *cand, gap float64) float64 {
 // each surface's extreme sag over its whole clear aperture; -Inf when either
 // surface is a conic or an asphere.
 func (s *search) quickClearance(a, b *cand, gap float64) float64 {
-	if a.surf >= 0 && s.surfs[a.surf+1].IsAsphere() || b.surf >= 0 && s.surfs[b.surf].IsAsphere() {
+	last, first := s.lastSurface(a), s.firstSurface(b)
+	if last.IsAsphere() || first.IsAsphere() {
 		return math.Inf(-1)
 	}
-	return gap - a.backMax + b.frontMin
+	return gap - s.backMax(a) + s.frontMin(b)
+}
+
+// frontMin is the least sag of c's first surface over its clear aperture
+// and backMax the greatest sag of its last: for spheres, what bounds the
+// edge clearance.
+func (s *search) frontMin(c *cand) float64 {
+	return sagExtreme(s.firstSurface(c), c.semi, math.Min)
+}
+
+func (s *search) backMax(c *cand) float64 {
+	return sagExtreme(s.lastSurface(c), c.semi, math.Max)
 }
 
 // firstSurface is the first surface of candidate c as turned.
 func (s *search) firstSurface(c *cand) optics.Surface {
-	if c.surf < 0 {
-		return optics.Surface{Radius: c.front}
+	o := &s.outer[c.item]
+	switch {
+	case c.rev && o.surf < 0:
+		return optics.Surface{Radius: o.last}.Reversed()
+	case c.rev:
+		return s.surfs[o.surf+1].Reversed()
+	case o.surf < 0:
+		return optics.Surface{Radius: o.first}
 	}
-	return s.surfs[c.surf]
+	return s.surfs[o.surf]
 }
 
 // lastSurface is the last surface of candidate c as turned.
 func (s *search) lastSurface(c *cand) optics.Surface {
-	if c.surf < 0 {
-		return optics.Surface{Radius: c.back}
+	o := &s.outer[c.item]
+	switch {
+	case c.rev && o.surf < 0:
+		return optics.Surface{Radius: o.first}.Reversed()
+	case c.rev:
+		return s.surfs[o.surf].Reversed()
+	case o.surf < 0:
+		return optics.Surface{Radius: o.last}
 	}
-	return s.surfs[c.surf+1]
+	return s.surfs[o.surf+1]
 }
 
 // ray is a paraxial ray in air: height and angle (reduced angle with n = 1).

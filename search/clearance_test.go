@@ -33,9 +33,10 @@ func TestEdgeClearance(t *testing.T) {
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
-			s := &search{surfs: []optics.Surface{{}, optics.Sphere(tt.r2a), optics.Sphere(tt.r1b), {}}}
-			a := cand{semi: tt.semiA, surf: 0, backMax: sagExtreme(s.surfs[1], tt.semiA, math.Max)}
-			b := cand{semi: tt.semiB, surf: 2, frontMin: sagExtreme(s.surfs[2], tt.semiB, math.Min)}
+			s := &search{itemData: itemData{surfs: []optics.Surface{{}, optics.Sphere(tt.r2a), optics.Sphere(tt.r1b), {}},
+				outer: []outer{{surf: 0}, {surf: 2}}}}
+			a := cand{item: 0, semi: tt.semiA}
+			b := cand{item: 1, semi: tt.semiB}
 			checkNear(t, "edge clearance", s.edgeClearance(&a, &b, tt.gap), tt.want, 1e-12, 1e-12)
 			if q := s.quickClearance(&a, &b, tt.gap); q > tt.want+1e-12 {
 				t.Errorf("quick clearance %g above the clearance %g", q, tt.want)
@@ -56,7 +57,7 @@ func TestRayHeightsThin(t *testing.T) {
 	s := newSearch(p, req, limitsOf(req), 0)
 	var ia, ib int32 = -1, -1
 	for i, c := range p.cands {
-		switch p.info[c.item].name {
+		switch p.info(c.item).name {
 		case "A":
 			ia = int32(i)
 		case "B":

@@ -1,8 +1,10 @@
 package search
 
 import (
+	"cmp"
 	"fmt"
 	"math"
+	"slices"
 	"sort"
 )
 
@@ -35,27 +37,29 @@ const twinDiameterTol = 0.01
 // item is its own leader when it has no twin); -1 for an item that took no
 // part in the search.
 func twinClasses(p *prepared, cs []cand) []int32 {
-	type fwd struct {
-		item      int32
-		key       int32
-		f, ff, bf float64
-		d         float64
-	}
-	fs := make([]fwd, 0, len(cs))
-	for i := range cs {
-		if c := &cs[i]; !c.rev {
-			fs = append(fs, fwd{item: c.item, key: c.key, f: c.f, ff: c.F, bf: c.Fp, d: p.info[c.item].diameter})
-		}
-	}
-	sort.Slice(fs, func(a, b int) bool { return fs[a].key < fs[b].key })
-	class := make([]int32, len(p.info))
+	class := make([]int32, p.items)
 	for i := range class {
 		class[i] = -1
 	}
+	// The items in the search in part-ID order, by their forward candidate.
+	fwd := make([]int32, 0, p.items)
+	for i := range cs {
+		if c := &cs[i]; !c.rev {
+			class[c.item] = int32(i) // the candidate, until the item is classed
+			fwd = append(fwd, c.item)
+		}
+	}
+	slices.SortFunc(fwd, func(a, b int32) int { return cmp.Compare(p.keys[a], p.keys[b]) })
+	type leader struct {
+		f, ff, bf, d float64
+		item         int32
+	}
 	// leaders by diameter, each list sorted by EFL
-	leaders := map[int64][]fwd{}
-	for _, x := range fs {
-		class[x.item] = x.item
+	leaders := map[int64][]leader{}
+	for _, item := range fwd {
+		c := &cs[class[item]]
+		x := leader{f: c.efl(), ff: c.ffd(), bf: c.bfd(), d: p.info(item).diameter, item: item}
+		class[item] = item
 		bucket := int64(math.Round(x.d / twinDiameterTol))
 		found := false
 		for _, b := range []int64{bucket - 1, bucket, bucket + 1} {
@@ -63,7 +67,7 @@ func twinClasses(p *prepared, cs []cand) []int32 {
 			lo := sort.Search(len(ls), func(k int) bool { return ls[k].f >= x.f-twinTol*math.Abs(x.f)*1.01 })
 			for k := lo; k < len(ls) && ls[k].f <= x.f+twinTol*math.Abs(x.f)*1.01; k++ {
 				if twins(ls[k].f, ls[k].ff, ls[k].bf, ls[k].d, x.f, x.ff, x.bf, x.d) {
-					class[x.item] = ls[k].item
+					class[item] = ls[k].item
 					found = true
 					break
 				}
@@ -75,9 +79,7 @@ func twinClasses(p *prepared, cs []cand) []int32 {
 		if !found {
 			ls := leaders[bucket]
 			k := sort.Search(len(ls), func(k int) bool { return ls[k].f >= x.f })
-			ls = append(ls, fwd{})
-			copy(ls[k+1:], ls[k:])
-			ls[k] = x
+			ls = slices.Insert(ls, k, x)
 			leaders[bucket] = ls
 		}
 	}
@@ -173,8 +175,8 @@ func (s *search) alternatives(p *prepared, class []int32, row *layout, others []
 				continue
 			}
 			seen[c.item] = true
-			for_ := p.info[mine[class[c.item]]]
-			e := p.info[c.item]
+			for_ := p.info(mine[class[c.item]])
+			e := p.info(c.item)
 			a := Alternative{For: for_.supplier + ":" + for_.name, Part: e.supplier + ":" + e.name, InDrawer: c.qty > 0}
 			if e.price > 0 {
 				a.Price = &Amount{Amount: e.price, Currency: e.currency}

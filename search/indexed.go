@@ -37,13 +37,14 @@ func prepareIndex(ctx context.Context, ix *catalog.Index, req Requirement) *prep
 		}
 	}
 	keys := indexRanks(ix.Parts)
-	p := inChunks(len(ix.Parts), func(q *prepared, lo, hi int) {
-		prepareIndexChunk(q, ix, keys, lo, hi, req, n, air)
+	single := func(i int) bool { return ix.Parts[i].Symmetric }
+	p := inChunks(len(ix.Parts), single, func(q *prepared, lo, hi int) {
+		prepareIndexChunk(q, ix, lo, hi, req, n, air)
 	})
-	p.info = make([]partInfo, len(ix.Parts))
-	for i := range ix.Parts {
+	p.keys = keys
+	p.info = func(i int32) partInfo {
 		q := &ix.Parts[i]
-		p.info[i] = partInfo{supplier: q.Supplier, name: q.Name, currency: q.Currency, price: q.Price, diameter: q.Diameter}
+		return partInfo{supplier: q.Supplier, name: q.Name, currency: q.Currency, price: q.Price, diameter: q.Diameter}
 	}
 	full := map[int32]optics.Part{}
 	tols := map[int32]optics.Tolerances{}
@@ -78,7 +79,7 @@ func prepareIndex(ctx context.Context, ix *catalog.Index, req Requirement) *prep
 }
 
 // prepareIndexChunk computes the candidates of ix.Parts[lo:hi] into p.
-func prepareIndexChunk(p *prepared, ix *catalog.Index, keys []int32, lo, hi int, req Requirement, n []float64, air float64) {
+func prepareIndexChunk(p *prepared, ix *catalog.Index, lo, hi int, req Requirement, n []float64, air float64) {
 	used := make([]bool, len(ix.Media))
 	for i := lo; i < hi; i++ {
 		q := &ix.Parts[i]
@@ -99,13 +100,13 @@ func prepareIndexChunk(p *prepared, ix *catalog.Index, keys []int32, lo, hi int,
 			p.skipped["no focusing power (afocal part)"]++
 			continue
 		}
-		first, last := q.First(), q.Last()
-		p.add(c, q.Aperture/2, first, last, q.Quantity, int32(i), keys[i], false)
+		p.setOuter(int32(i), q.First(), q.Last())
+		p.add(c, q.Aperture/2, q.Quantity, int32(i), false)
 		if !q.Symmetric {
 			// The part turned around, as prepareChunk turns it.
 			rc := optics.FromMatrix(optics.Mat2{A: m.D, B: m.B, C: m.C, D: m.A}, 1, 1)
 			rc.Length = c.Length
-			p.add(rc, q.Aperture/2, last.Reversed(), first.Reversed(), q.Quantity, int32(i), keys[i], true)
+			p.add(rc, q.Aperture/2, q.Quantity, int32(i), true)
 		}
 	}
 	for g, u := range used {

@@ -82,7 +82,7 @@ func (s *search) better(x, y *layout) bool {
 // sortKey orders candidates by part ID, then orientation.
 func (s *search) sortKey(i int32) int64 {
 	c := &s.c[i]
-	return int64(c.key)*2 + int64(b2i(c.rev))
+	return int64(s.keys[c.item])*2 + int64(b2i(c.rev))
 }
 
 // scoredLength is the length the envelope term of the score counts: the
@@ -105,7 +105,7 @@ func (s *search) finish(l *layout) bool {
 	a := &s.c[l.a]
 	if l.pair() {
 		b := &s.c[l.b]
-		l.score = s.sc.pair(l.err, s.scoredLength(l), pairAway(a, b), pairPrice(a, b))
+		l.score = s.sc.pair(l.err, s.scoredLength(l), pairAway(a, b), s.pairPrice(a, b))
 	} else {
 		l.score = s.sc.singlet(a, l.err, s.scoredLength(l))
 	}

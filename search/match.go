@@ -45,7 +45,7 @@ func (s *search) singletMatch(i int32) {
 		s.singletMatchTrack(i)
 		return
 	}
-	for r, p := range optics.ModeMatchPlacements(s.req.WaistIn, s.req.WaistOut, s.req.Lambda(), c.f) {
+	for r, p := range optics.ModeMatchPlacements(s.req.WaistIn, s.req.WaistOut, s.req.Lambda(), c.efl()) {
 		wd, bc := p.D1-c.P, c.Pp+p.D2
 		if !(wd > 0 && bc > 0) {
 			continue
@@ -134,15 +134,16 @@ type matchBranch struct {
 // matchLayout turns a branch into distances: working distance, vertex gap
 // and back clearance; ok is false when s is out of range.
 func matchLayout(a, b *cand, z1, z2 float64, br matchBranch) (wd, gap, bc float64, ok bool) {
-	r1, r2 := a.f*a.f-z1*br.s, b.f*b.f-z2*br.s
+	f1, f2 := a.efl(), b.efl()
+	r1, r2 := f1*f1-z1*br.s, f2*f2-z2*br.s
 	if !(br.s > 0) || r1 < 0 || r2 < 0 {
 		return 0, 0, 0, false
 	}
 	r1, r2 = math.Sqrt(r1), math.Sqrt(r2)
-	u := a.f + br.e1*math.Sqrt(z1/br.s)*r1
-	p := a.f + br.e1*math.Sqrt(br.s/z1)*r1
-	v := b.f + br.e2*math.Sqrt(z2/br.s)*r2
-	pp := b.f + br.e2*math.Sqrt(br.s/z2)*r2
+	u := f1 + br.e1*math.Sqrt(z1/br.s)*r1
+	p := f1 + br.e1*math.Sqrt(br.s/z1)*r1
+	v := f2 + br.e2*math.Sqrt(z2/br.s)*r2
+	pp := f2 + br.e2*math.Sqrt(br.s/z2)*r2
 	return u - a.P, p + pp - b.P + a.Pp, v + b.Pp, true
 }
 
@@ -152,7 +153,7 @@ func (s *search) pairMatch(i, j int32) {
 	z1, z2 := s.matchBeams()
 	var brs []matchBranch
 	if s.req.Track > 0 {
-		brs = matchRoots(a, b, z1, z2, s.req.Track-a.delta-b.delta)
+		brs = matchRoots(a, b, z1, z2, s.req.Track-a.sep()-b.sep())
 	} else {
 		brs = s.shortestMatch(a, b, z1, z2)
 	}
@@ -163,7 +164,7 @@ func (s *search) pairMatch(i, j int32) {
 		}
 		l := layout{a: i, b: j, root: int8(r), wd: wd, gap: gap, bc: bc, env: a.L + gap + b.L}
 		l.track = wd + l.env + bc
-		if bd := s.bound(); s.sc.pair(0, l.track, pairAway(a, b), pairPrice(a, b)) > bd+margin(bd) {
+		if bd := s.bound(); s.sc.pair(0, l.track, pairAway(a, b), s.pairPrice(a, b)) > bd+margin(bd) {
 			s.solved++
 			continue
 		}
@@ -198,7 +199,7 @@ func (s *search) pairMatch(i, j int32) {
 // matrices. A double root (two layouts merging, the degenerate case) is
 // an eigenvalue pair with a tiny imaginary part, kept as one real root.
 func matchRoots(a, b *cand, z1, z2, S float64) []matchBranch {
-	f1, f2 := a.f, b.f
+	f1, f2 := a.efl(), b.efl()
 	sMax := math.Min(f1*f1/z1, f2*f2/z2)
 	if !(sMax > 0) {
 		return nil
@@ -243,11 +244,12 @@ func matchRoots(a, b *cand, z1, z2, S float64) []matchBranch {
 // (separations) along each of the four sign branches, scanned on a
 // logarithmic grid of s and refined by golden section around the best.
 func (s *search) shortestMatch(a, b *cand, z1, z2 float64) []matchBranch {
-	sMax := math.Min(a.f*a.f/z1, b.f*b.f/z2)
+	f1, f2 := a.efl(), b.efl()
+	sMax := math.Min(f1*f1/z1, f2*f2/z2)
 	if !(sMax > 0) {
 		return nil
 	}
-	gapNeed := math.Max(0, s.lim.gapMin+a.backMax-b.frontMin)
+	gapNeed := math.Max(0, s.lim.gapMin+s.backMax(a)-s.frontMin(b))
 	track := func(br matchBranch) float64 {
 		wd, gap, bc, ok := matchLayout(a, b, z1, z2, br)
 		if !ok || wd <= 0 || wd < s.lim.wdMin || gap < gapNeed || bc <= 0 || bc < s.lim.bfdMin {

@@ -104,11 +104,12 @@ func (s *search) pairExpand(i, j int32) {
 // any other. Each root is checked against the assembled matrix.
 func (s *search) pairImage(i, j int32) {
 	a, b := &s.c[i], &s.c[j]
-	T, m, f1, f2 := s.req.Track, s.req.Mag, a.f, b.f
-	k := -a.F + a.L + a.Fp - b.F + b.L + b.Fp
+	T, m, f1, f2 := s.req.Track, s.req.Mag, a.efl(), b.efl()
+	aF, aFp, bF, bFp := a.ffd(), a.bfd(), b.ffd(), b.bfd()
+	k := -aF + a.L + aFp - bF + b.L + bFp
 	qa, qb, qc := 1+m*f2/f1, T-k, f1*(f1+f2/m)
 	roots, n, family := quadRoots(qa, qb, qc, 1+math.Abs(m*f2/f1),
-		math.Abs(T)+math.Abs(a.F)+a.L+math.Abs(a.Fp)+math.Abs(b.F)+b.L+math.Abs(b.Fp),
+		math.Abs(T)+math.Abs(aF)+a.L+math.Abs(aFp)+math.Abs(bF)+b.L+math.Abs(bFp),
 		f1*f1+math.Abs(f1*f2/m))
 	if family {
 		// Every object position works (an afocal relay at m = -f2/f1 whose
@@ -118,12 +119,12 @@ func (s *search) pairImage(i, j int32) {
 	}
 	for r, x := range roots[:n] {
 		d := qb + qa*x
-		l := layout{a: i, b: j, root: int8(r), wd: -a.F - x, gap: d - b.F + a.Fp, bc: b.Fp - m*f2*x/f1}
+		l := layout{a: i, b: j, root: int8(r), wd: -aF - x, gap: d - bF + aFp, bc: bFp - m*f2*x/f1}
 		if l.wd <= 0 || l.gap < 0 || l.bc <= 0 {
 			continue
 		}
 		l.env = a.L + l.gap + b.L
-		if bd := s.bound(); s.sc.pair(0, l.env, pairAway(a, b), pairPrice(a, b)) > bd+margin(bd) {
+		if bd := s.bound(); s.sc.pair(0, l.env, pairAway(a, b), s.pairPrice(a, b)) > bd+margin(bd) {
 			s.solved++ // out of the results whatever the checks say
 			continue
 		}

@@ -46,8 +46,9 @@ func (s *search) buildTree(lo, hi int32) int32 {
 		n.pMin, n.pMax = math.Min(n.pMin, c.P), math.Max(n.pMax, c.P)
 		n.ppMin, n.ppMax = math.Min(n.ppMin, c.Pp), math.Max(n.ppMax, c.Pp)
 		n.lMin = math.Min(n.lMin, c.L)
-		n.dMin, n.dMax = math.Min(n.dMin, c.delta), math.Max(n.dMax, c.delta)
-		n.priceMin, n.awayMin = math.Min(n.priceMin, c.price), math.Min(n.awayMin, c.away)
+		d := c.sep()
+		n.dMin, n.dMax = math.Min(n.dMin, d), math.Max(n.dMax, d)
+		n.priceMin, n.awayMin = math.Min(n.priceMin, c.price), math.Min(n.awayMin, c.away())
 		n.semiMax = math.Max(n.semiMax, c.semi)
 	}
 	return id
@@ -71,7 +72,7 @@ func margin(x float64) float64 { return 1e-9 * (1 + math.Abs(x)) }
 // out the envelope and error terms.
 func (s *search) restBound(a *cand, n *node) float64 {
 	w := s.sc.w
-	return w.Elements + w.Price*(a.price+n.priceMin) + w.Drawer*(a.away+n.awayMin)
+	return w.Elements + w.Price*(a.price+n.priceMin) + w.Drawer*(a.away()+n.awayMin)
 }
 
 // open tells whether some candidate b in node n could, after a, give a
@@ -127,12 +128,13 @@ func (s *search) open(a *cand, n *node) (bool, float64) {
 // P'b + f2 (1 - f0/f1). It returns the least gap possible.
 func (s *search) openFocus(a *cand, n *node, f2 iv, gMin, gMax float64) (bool, float64) {
 	f0 := s.req.EFL
-	e := pt(a.f).add(f2.mul(pt(1 - a.f/f0)))
+	f1 := a.efl()
+	e := pt(f1).add(f2.mul(pt(1 - f1/f0)))
 	g := e.sub(iv{n.pMin, n.pMax}).add(pt(a.Pp))
 	if g.hi+margin(g.hi) < gMin || g.lo-margin(g.lo) > gMax {
 		return false, 0
 	}
-	bc := iv{n.ppMin, n.ppMax}.add(f2.mul(pt(1 - f0/a.f)))
+	bc := iv{n.ppMin, n.ppMax}.add(f2.mul(pt(1 - f0/f1)))
 	return bc.hi+margin(bc.hi) >= s.lim.bfdMin, g.lo - margin(g.lo)
 }
 
@@ -156,11 +158,12 @@ func (s *search) openExpand(a *cand, n *node, f2 iv, gMin, gMax float64) (bool, 
 	if s.lim.form == Keplerian && (a.phi < 0 || n.phiHi < 0) || s.lim.form == Galilean && (a.phi > 0) == (n.phiLo > 0) {
 		return false, 0, 0
 	}
-	g := pt(a.f).add(f2).sub(iv{n.pMin, n.pMax}).add(pt(a.Pp))
+	f1 := a.efl()
+	g := pt(f1).add(f2).sub(iv{n.pMin, n.pMax}).add(pt(a.Pp))
 	if g.hi+margin(g.hi) < gMin || g.lo-margin(g.lo) > gMax {
 		return false, 0, 0
 	}
-	ratio := f2.mul(pt(1 / a.f))
+	ratio := f2.mul(pt(1 / f1))
 	e := span(math.Abs(ratio.lo), math.Abs(ratio.hi))
 	if ratio.lo < 0 && ratio.hi > 0 {
 		e.lo = 0
@@ -225,7 +228,7 @@ func (s *search) leastImageE(a *cand, n *node, e iv, depth int) (float64, bool) 
 // can hold for some b in n with e in the given interval.
 func (s *search) imageRelation(a *cand, n *node, e iv) bool {
 	T, m := s.req.Track, s.req.Mag
-	R := iv{T - a.delta - n.dMax, T - a.delta - n.dMin}
+	R := iv{T - a.sep() - n.dMax, T - a.sep() - n.dMin}
 	phi1, phi2 := pt(a.phi), iv{n.phiLo, n.phiHi}
 	p12 := phi1.mul(phi2)
 	// h = M - R (phi1 + phi2) + phi1 phi2 (R e - e^2), with the exact range

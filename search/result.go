@@ -176,10 +176,10 @@ func (s *search) fillParts(p *prepared, r *Result, idx []int32) {
 	used := map[int32]int{}
 	for _, ci := range idx {
 		c := &s.c[ci]
-		e := &p.info[c.item]
+		e := p.info(c.item)
 		r.Parts = append(r.Parts, PartUse{Supplier: e.supplier, Part: e.name, Reversed: c.rev})
 		used[c.item]++
-		order := used[c.item] > c.qty
+		order := used[c.item] > int(c.qty)
 		if order {
 			r.ToOrder++
 		}

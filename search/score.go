@@ -100,10 +100,19 @@ func refLength(r Requirement) float64 {
 
 // priceReferences are the medians of the stated prices, by currency (the
 // empty currency is a currency of its own).
-func priceReferences(info []partInfo) map[string]float64 {
-	by := map[string][]float64{}
-	for i := range info {
-		if e := &info[i]; e.price > 0 {
+func priceReferences(n int, info func(int32) partInfo) map[string]float64 {
+	count := map[string]int{}
+	for i := range n {
+		if e := info(int32(i)); e.price > 0 {
+			count[e.currency]++
+		}
+	}
+	by := make(map[string][]float64, len(count))
+	for cur, k := range count {
+		by[cur] = make([]float64, 0, k)
+	}
+	for i := range n {
+		if e := info(int32(i)); e.price > 0 {
 			by[e.currency] = append(by[e.currency], e.price)
 		}
 	}
@@ -156,7 +165,7 @@ func (s scorer) errTerm(err float64) float64 {
 // singlet scores one part; c.price and c.away are 0 when the drawer holds
 // a piece.
 func (s scorer) singlet(c *cand, err, envelope float64) float64 {
-	return s.w.Error*s.errTerm(err) + s.w.Envelope*envelope/s.lref + s.w.Price*c.price + s.w.Drawer*c.away
+	return s.w.Error*s.errTerm(err) + s.w.Envelope*envelope/s.lref + s.w.Price*c.price + s.w.Drawer*c.away()
 }
 
 // pair scores two parts; away is the number of pieces (0, 1 or 2) to order
@@ -171,16 +180,16 @@ func (s scorer) pair(err, envelope, away, price float64) float64 {
 // which the pruning bounds use.
 func pairAway(a, b *cand) float64 {
 	if a.item == b.item {
-		return float64(max(0, 2-a.qty))
+		return float64(max(0, 2-int(a.qty)))
 	}
-	return a.away + b.away
+	return a.away() + b.away()
 }
 
 // pairPrice is the price term of the pieces of a pair to order; never less
 // than a.price + b.price.
-func pairPrice(a, b *cand) float64 {
+func (s *search) pairPrice(a, b *cand) float64 {
 	if a.item == b.item {
-		return float64(max(0, 2-a.qty)) * a.unit
+		return float64(max(0, 2-int(a.qty))) * s.units[a.item]
 	}
 	return a.price + b.price
 }

@@ -7,8 +7,6 @@ import (
 	"sort"
 	"sync"
 	"sync/atomic"
-
-	"cardinal/optics"
 )
 
 // limits are what the pruning and the admission of a first-order solution
@@ -51,10 +49,10 @@ func target(r Requirement) float64 {
 
 // search is one run of the solver.
 type search struct {
-	req    Requirement
-	lim    limits
-	c      []cand
-	surfs  []optics.Surface // outer surfaces of the candidates (prepared.surfs)
+	req Requirement
+	lim limits
+	c   []cand
+	itemData
 	sc     scorer
 	tol    float64 // the requirement's first-order tolerance, for the checks
 	top    int     // results to keep, at least 1: the kept heap never grows past it
@@ -91,7 +89,7 @@ func newSearch(p *prepared, req Requirement, lim limits, top int) *search {
 	if top < 1 || top > MaxShown {
 		top = MaxShown
 	}
-	s := &search{req: req, lim: lim, c: p.cands, surfs: p.surfs, sc: newScorer(req), tol: firstOrderTol(req),
+	s := &search{req: req, lim: lim, c: p.cands, itemData: p.itemData, sc: newScorer(req), tol: firstOrderTol(req),
 		top: top, failed: map[uint16]int{}, kept: &kept{}}
 	s.kept.heap.s = s
 	s.kept.bound.Store(math.Float64bits(math.Inf(1)))
@@ -277,7 +275,7 @@ func (s *search) bestFirst(i int32, open *nodeQueue) {
 // pairBound is the least score a then b can have: every term but the
 // error, with the envelope at its least (the parts the gap minimum apart).
 func (s *search) pairBound(a, b *cand) float64 {
-	return s.sc.pair(0, a.L+s.lim.gapMin+b.L, pairAway(a, b), pairPrice(a, b))
+	return s.sc.pair(0, a.L+s.lim.gapMin+b.L, pairAway(a, b), s.pairPrice(a, b))
 }
 
 // nodeBound is a node and the least score of a layout through it.
@@ -361,7 +359,7 @@ func (s *search) firstOrder() ([]int32, []float64) {
 	priceMin, awayMin, lMin := math.Inf(1), math.Inf(1), math.Inf(1)
 	for i := range s.c {
 		priceMin = math.Min(priceMin, s.c[i].price)
-		awayMin = math.Min(awayMin, s.c[i].away)
+		awayMin = math.Min(awayMin, s.c[i].away())
 		lMin = math.Min(lMin, s.c[i].L)
 	}
 	w := s.sc.w
@@ -370,7 +368,7 @@ func (s *search) firstOrder() ([]int32, []float64) {
 	for i := range s.c {
 		a := &s.c[i]
 		order[i] = int32(i)
-		lb[i] = w.Elements + w.Price*(a.price+priceMin) + w.Drawer*(a.away+awayMin) +
+		lb[i] = w.Elements + w.Price*(a.price+priceMin) + w.Drawer*(a.away()+awayMin) +
 			w.Envelope*(a.L+s.lim.gapMin+lMin)/s.sc.lref
 	}
 	sort.SliceStable(order, func(x, y int) bool { return lb[order[x]] < lb[order[y]] })

@@ -18,8 +18,9 @@ func (s *search) singlet(i int32) {
 // its back focal point.
 func (s *search) singletFocus(i int32) {
 	c := &s.c[i]
-	l := layout{a: i, b: -1, value: c.f, err: c.f - s.req.EFL,
-		bc: c.Fp, env: c.L, track: c.L + c.Fp, wd: math.NaN()}
+	f, bfd := c.efl(), c.bfd()
+	l := layout{a: i, b: -1, value: f, err: f - s.req.EFL,
+		bc: bfd, env: c.L, track: c.L + bfd, wd: math.NaN()}
 	if math.Abs(l.err) > s.lim.admit {
 		return
 	}
@@ -35,17 +36,17 @@ func (s *search) singletFocus(i int32) {
 // roots of x^2 - D x + D f = 0, real when D >= 4f; m = -v/u.
 func (s *search) singletImage(i int32) {
 	c := &s.c[i]
-	d := s.req.Track - c.delta
-	if c.f <= 0 || d <= 0 {
+	d, f := s.req.Track-c.sep(), c.efl()
+	if f <= 0 || d <= 0 {
 		return
 	}
-	disc := d * (d - 4*c.f)
+	disc := d * (d - 4*f)
 	if disc < 0 {
 		return
 	}
 	u1 := (d + math.Sqrt(disc)) / 2
 	us := []float64{u1}
-	if u2 := d * c.f / u1; u2 != u1 {
+	if u2 := d * f / u1; u2 != u1 {
 		us = append(us, u2) // product of the roots is D f (Vieta)
 	}
 	for r, u := range us {

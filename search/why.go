@@ -81,8 +81,8 @@ func (s *search) whyUnsolved() []string {
 func (s *search) whyImageSinglet() string {
 	strongest := math.Inf(1)
 	for i := range s.c {
-		if s.c[i].f > 0 {
-			strongest = math.Min(strongest, s.c[i].f)
+		if f := s.c[i].efl(); f > 0 {
+			strongest = math.Min(strongest, f)
 		}
 	}
 	need := s.req.Track / 4
