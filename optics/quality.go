@@ -4,6 +4,8 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"slices"
+	"sync"
 )
 
 // Conditions say how to judge a system's image: the object, the field
@@ -80,15 +82,18 @@ func (s System) Assess(c Conditions) (Quality, error) {
 		}
 		q.ImageZ = z
 	}
-	axis, err := q.axis(s, c, wl)
+	w := assessPool.Get().(*assessWork)
+	defer w.done()
+	tracer := w.tracer(s, wl)
+	axis, err := q.axis(s, c, tracer, w)
 	if err != nil {
 		return Quality{}, err
 	}
-	edge, err := q.edge(s, c, wl)
+	edge, err := q.edge(s, c, tracer, w)
 	if err != nil {
 		return Quality{}, err
 	}
-	if q.Verdict, err = s.verdict(c, wl, axis, edge, q.Wavefront); err != nil {
+	if q.Verdict, err = s.verdict(c, wl, axis, edge, q.Wavefront, w); err != nil {
 		return Quality{}, err
 	}
 	q.DiffractionLimited = q.Verdict.Limited
@@ -102,13 +107,67 @@ func rings(c Conditions) int {
 	return 12
 }
 
-// axis fills the on-axis figures and returns the traced bundle.
-func (q *Quality) axis(s System, c Conditions, wl float64) (Traced, error) {
-	b, err := s.Bundle(c.Object, 0, wl, Hexapolar(rings(c)))
+// assessWork is the scratch space of one Assess: the rays, paths and ray
+// ends of every bundle it traces, kept in a pool so that the real-ray
+// stage's workers reuse them from one system to the next rather than
+// allocate them for each. Nothing Assess returns refers to it.
+type assessWork struct {
+	rays  slab[Ray]
+	paths slab[Path]
+	ends  slab[rayEnd]
+}
+
+var assessPool = sync.Pool{New: func() any { return new(assessWork) }}
+
+// done hands the scratch space back to the pool.
+func (w *assessWork) done() {
+	w.rays.used, w.paths.used, w.ends.used = 0, 0, 0
+	assessPool.Put(w)
+}
+
+// tracer is the system's tracer at the wavelength, without the points on
+// the surfaces (no figure of Assess reads them).
+func (w *assessWork) tracer(s System, wl float64) *Tracer {
+	t := s.Tracer(wl)
+	t.NoPoints = true
+	return t
+}
+
+// trace traces the bundle from the field point through the pupil points
+// to the image plane at imageZ, in the scratch space.
+func (w *assessWork) trace(s System, t *Tracer, obj Object, field float64, points []PupilPoint, imageZ float64) (Traced, error) {
+	b, err := s.bundleInto(obj, field, t.Wavelength, points, w.rays.take(len(points)))
 	if err != nil {
 		return Traced{}, err
 	}
-	tr := s.Tracer(wl).TraceBundle(b, q.ImageZ)
+	return t.traceBundleInto(b, imageZ, w.paths.take(len(points))), nil
+}
+
+// A slab hands out slices it keeps from one use to the next.
+type slab[T any] struct {
+	bufs [][]T
+	used int
+}
+
+// take is the next slice of the slab, n long, its contents left over from
+// an earlier use.
+func (s *slab[T]) take(n int) []T {
+	if s.used == len(s.bufs) {
+		s.bufs = append(s.bufs, nil)
+	}
+	b := slices.Grow(s.bufs[s.used][:0], n)[:n]
+	s.bufs[s.used] = b
+	s.used++
+	return b
+}
+
+// axis fills the on-axis figures and returns the traced bundle.
+func (q *Quality) axis(s System, c Conditions, t *Tracer, w *assessWork) (Traced, error) {
+	wl := t.Wavelength
+	tr, err := w.trace(s, t, c.Object, 0, hexapolar(rings(c)), q.ImageZ)
+	if err != nil {
+		return Traced{}, err
+	}
 	q.noteLost("on axis", tr)
 	q.AxisAtImage, q.Axis = tr.SpotAt(q.ImageZ), tr.BestFocus()
 	if q.Axis.Passed == 0 {
@@ -128,15 +187,14 @@ func (q *Quality) axis(s System, c Conditions, wl float64) (Traced, error) {
 
 // edge fills the field-edge spot on the on-axis best-focus plane and
 // returns the traced bundle; nil without a field.
-func (q *Quality) edge(s System, c Conditions, wl float64) (*Traced, error) {
+func (q *Quality) edge(s System, c Conditions, t *Tracer, w *assessWork) (*Traced, error) {
 	if c.Field == 0 {
 		return nil, nil
 	}
-	b, err := s.Bundle(c.Object, c.Field, wl, Hexapolar(rings(c)))
+	tr, err := w.trace(s, t, c.Object, c.Field, hexapolar(rings(c)), q.ImageZ)
 	if err != nil {
 		return nil, err
 	}
-	tr := s.Tracer(wl).TraceBundle(b, q.ImageZ)
 	q.noteLost("at the field edge", tr)
 	q.Edge = tr.SpotAt(q.Axis.Z)
 	if q.Edge.Passed == 0 {

@@ -3,7 +3,9 @@ package optics
 import (
 	"fmt"
 	"math"
+	"slices"
 	"sort"
+	"sync"
 
 	"gonum.org/v1/gonum/integrate/quad"
 )
@@ -23,7 +25,28 @@ type PupilPoint struct{ X, Y, Weight float64 }
 // change of variable t = rho^2). Nodes from gonum's quad.Legendre. The
 // outermost ring lies just inside the pupil's edge; use Bundle.Marginal
 // for the edge ray itself.
-func Hexapolar(rings int) []PupilPoint {
+func Hexapolar(rings int) []PupilPoint { return slices.Clone(hexapolar(rings)) }
+
+// hexapolar is Hexapolar shared: worked out once for each number of rings
+// up to maxSharedRings and kept; the caller must not change it.
+func hexapolar(rings int) []PupilPoint {
+	if rings > maxSharedRings {
+		return newHexapolar(rings)
+	}
+	if v, ok := sharedRings.Load(rings); ok {
+		return v.([]PupilPoint)
+	}
+	v, _ := sharedRings.LoadOrStore(rings, newHexapolar(rings))
+	return v.([]PupilPoint)
+}
+
+// maxSharedRings bounds the ring counts hexapolar keeps (the real-ray
+// stage uses 12, find's spots of simulated builds 4).
+const maxSharedRings = 64
+
+var sharedRings sync.Map // rings -> []PupilPoint
+
+func newHexapolar(rings int) []PupilPoint {
 	if rings < 1 {
 		panic(fmt.Sprintf("optics: Hexapolar needs at least one ring, got %d", rings))
 	}
@@ -31,7 +54,7 @@ func Hexapolar(rings int) []PupilPoint {
 	wt := make([]float64, rings)
 	quad.Legendre{}.FixedLocations(t, wt, 0, 1)
 	sort.Sort(byFirst{t, wt})
-	var pts []PupilPoint
+	pts := make([]PupilPoint, 0, 3*rings*(rings+1))
 	for k := 1; k <= rings; k++ {
 		r, w := math.Sqrt(t[k-1]), wt[k-1]/float64(6*k)
 		for j := 0; j < 6*k; j++ {
@@ -109,6 +132,12 @@ type Bundle struct {
 // object at infinity they start on the plane wavefront through the
 // pupil's centre, so that their optical paths start equal.
 func (s System) Bundle(obj Object, field, wavelengthNm float64, points []PupilPoint) (Bundle, error) {
+	return s.bundleInto(obj, field, wavelengthNm, points, make([]Ray, len(points)))
+}
+
+// bundleInto is Bundle with the rays written into rays (as long as
+// points).
+func (s System) bundleInto(obj Object, field, wavelengthNm float64, points []PupilPoint, rays []Ray) (Bundle, error) {
 	p, err := s.EntrancePupil(obj, wavelengthNm)
 	if err != nil {
 		return Bundle{}, err
@@ -116,8 +145,7 @@ func (s System) Bundle(obj Object, field, wavelengthNm float64, points []PupilPo
 	if obj.AtInfinity() && math.Abs(field) >= 90 {
 		return Bundle{}, fmt.Errorf("field angle %g degrees: must lie within +-90", field)
 	}
-	b := Bundle{Object: obj, Field: field, Wavelength: wavelengthNm, Pupil: p, Points: points,
-		Rays: make([]Ray, len(points))}
+	b := Bundle{Object: obj, Field: field, Wavelength: wavelengthNm, Pupil: p, Points: points, Rays: rays}
 	for i, q := range points {
 		b.Rays[i] = b.ray(q)
 	}

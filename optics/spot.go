@@ -20,9 +20,24 @@ func (t *Tracer) TraceBundle(b Bundle, imageZ float64) Traced {
 	if b.Wavelength != t.Wavelength {
 		panic(fmt.Sprintf("optics: bundle at %g nm traced at %g nm", b.Wavelength, t.Wavelength))
 	}
-	tr := Traced{Bundle: b, Tracer: t, ImageZ: imageZ, Paths: make([]Path, len(b.Rays))}
+	return t.traceBundleInto(b, imageZ, make([]Path, len(b.Rays)))
+}
+
+// traceBundleInto is TraceBundle with the paths written into paths (as
+// long as the bundle's rays); the points of all the rays share one array.
+func (t *Tracer) traceBundleInto(b Bundle, imageZ float64, paths []Path) Traced {
+	tr := Traced{Bundle: b, Tracer: t, ImageZ: imageZ, Paths: paths}
+	var pts []Vec3
+	n := len(t.Vertex)
+	if !t.NoPoints {
+		pts = make([]Vec3, len(b.Rays)*n)
+	}
 	for i, r := range b.Rays {
-		tr.Paths[i] = t.Trace(r, imageZ)
+		var own []Vec3
+		if pts != nil {
+			own = pts[i*n : i*n : (i+1)*n]
+		}
+		tr.Paths[i] = t.trace(r, imageZ, own)
 	}
 	return tr
 }
@@ -54,25 +69,26 @@ type Spot struct {
 func (tr Traced) SpotAt(z float64) Spot {
 	s := Spot{Z: z}
 	var sw, sx, sy float64
-	pts := make([]Vec3, len(tr.Paths))
-	for i, p := range tr.Paths {
+	for i := range tr.Paths {
+		p := &tr.Paths[i]
 		if p.Status != Passed {
 			s.Lost++
 			continue
 		}
 		s.Passed++
-		pts[i] = tr.Tracer.At(p, z)
+		q := tr.Tracer.at(p, z)
 		w := tr.Points[i].Weight
-		sw, sx, sy = sw+w, sx+w*pts[i].X, sy+w*pts[i].Y
+		sw, sx, sy = sw+w, sx+w*q.X, sy+w*q.Y
 	}
 	if s.Passed == 0 || sw == 0 {
 		return s
 	}
 	s.CentroidX, s.CentroidY = sx/sw, sy/sw
 	var ss float64
-	for i, p := range tr.Paths {
-		if p.Status == Passed {
-			d2 := sq(pts[i].X-s.CentroidX) + sq(pts[i].Y-s.CentroidY)
+	for i := range tr.Paths {
+		if p := &tr.Paths[i]; p.Status == Passed {
+			q := tr.Tracer.at(p, z) // the same point again: cheaper than keeping them all
+			d2 := sq(q.X-s.CentroidX) + sq(q.Y-s.CentroidY)
 			ss += tr.Points[i].Weight * d2
 			s.Max = math.Max(s.Max, math.Sqrt(d2))
 		}
@@ -89,41 +105,54 @@ func (tr Traced) SpotAt(z float64) Spot {
 // dz = -sum w a.s / sum w s.s (the vertex of that quadratic, derived here;
 // the tests check it against a direct scan of planes).
 func (tr Traced) BestFocus() Spot {
-	var sw float64
-	var a, sl []Vec3
-	var w []float64
-	for i, p := range tr.Paths {
-		if p.Status == Passed {
-			a = append(a, p.Image)
-			sl = append(sl, Vec3{X: p.Dir.X / p.Dir.Z, Y: p.Dir.Y / p.Dir.Z})
-			w = append(w, tr.Points[i].Weight)
-			sw += tr.Points[i].Weight
-		}
-	}
-	if len(a) < 2 {
+	z, ok := tr.bestFocusZ()
+	if !ok {
 		return tr.SpotAt(tr.ImageZ)
 	}
-	ma, ms := weightedMean(a, w, sw), weightedMean(sl, w, sw)
-	var num, den float64
-	for i := range a {
-		da, ds := a[i].Sub(ma), sl[i].Sub(ms)
-		da.Z, ds.Z = 0, 0
-		num += w[i] * da.Dot(ds)
-		den += w[i] * ds.Dot(ds)
-	}
-	if den == 0 {
-		return tr.SpotAt(tr.ImageZ)
-	}
-	return tr.SpotAt(tr.ImageZ - num/den)
+	return tr.SpotAt(z)
 }
 
-func weightedMean(v []Vec3, w []float64, sw float64) Vec3 {
-	var m Vec3
-	for i := range v {
-		m = m.Add(v[i].Scale(w[i] / sw))
+// bestFocusZ is the plane of BestFocus, false when fewer than two rays
+// passed or their slopes are all alike. It passes over the rays three
+// times (total weight, weighted means, then the sums) rather than keep
+// copies of them.
+func (tr Traced) bestFocusZ() (float64, bool) {
+	var sw float64
+	n := 0
+	for i := range tr.Paths {
+		if tr.Paths[i].Status == Passed {
+			sw += tr.Points[i].Weight
+			n++
+		}
 	}
-	return m
+	if n < 2 {
+		return 0, false
+	}
+	var ma, ms Vec3 // the weighted means of the positions and the slopes
+	for i := range tr.Paths {
+		if p := &tr.Paths[i]; p.Status == Passed {
+			f := tr.Points[i].Weight / sw
+			ma, ms = ma.Add(p.Image.Scale(f)), ms.Add(slope(p).Scale(f))
+		}
+	}
+	var num, den float64
+	for i := range tr.Paths {
+		if p := &tr.Paths[i]; p.Status == Passed {
+			w := tr.Points[i].Weight
+			da, ds := p.Image.Sub(ma), slope(p).Sub(ms)
+			da.Z, ds.Z = 0, 0
+			num += w * da.Dot(ds)
+			den += w * ds.Dot(ds)
+		}
+	}
+	if den == 0 {
+		return 0, false
+	}
+	return tr.ImageZ - num/den, true
 }
+
+// slope is the ray's image-space slope (K/M, L/M).
+func slope(p *Path) Vec3 { return Vec3{X: p.Dir.X / p.Dir.Z, Y: p.Dir.Y / p.Dir.Z} }
 
 func sq(x float64) float64 { return x * x }
 

@@ -63,6 +63,10 @@ type Tracer struct {
 	Vertex     []float64 // z of each surface vertex from the first vertex
 	// Unclipped makes the tracer ignore the clear semi-apertures.
 	Unclipped bool
+	// NoPoints leaves every Path's Points nil: for figures that need only
+	// where the rays end, their directions and path lengths (spots,
+	// wavefronts), so that a trace allocates nothing per ray.
+	NoPoints bool
 }
 
 // Tracer prepares a real-ray trace of the system at a wavelength.
@@ -83,7 +87,17 @@ func (t *Tracer) LastVertex() float64 { return t.Vertex[len(t.Vertex)-1] }
 // misses a surface, is totally reflected, or falls outside a clear
 // semi-aperture stops there and says so in Status and Surface.
 func (t *Tracer) Trace(r Ray, imageZ float64) Path {
-	p := Path{Surface: -1, Points: make([]Vec3, 0, len(t.Vertex))}
+	var pts []Vec3
+	if !t.NoPoints {
+		pts = make([]Vec3, 0, len(t.Vertex))
+	}
+	return t.trace(r, imageZ, pts)
+}
+
+// trace is Trace recording the points in pts (its capacity enough for a
+// point on every surface; nil when t.NoPoints).
+func (t *Tracer) trace(r Ray, imageZ float64, pts []Vec3) Path {
+	p := Path{Surface: -1, Points: pts}
 	pos, dir := r.Pos, r.Dir.Unit()
 	for i := range t.Vertex {
 		next, ok := t.crossSurface(i, pos, dir, &p)
@@ -114,7 +128,9 @@ func (t *Tracer) crossSurface(i int, pos, dir Vec3, p *Path) (Vec3, bool) {
 	if t.clipped(i, q.Height()) {
 		return t.stop(p, i, Clipped, hit, true)
 	}
-	p.Points = append(p.Points, hit)
+	if !t.NoPoints {
+		p.Points = append(p.Points, hit)
+	}
 	p.OPL += t.N[i] * s
 	d, ok := refract(dir, surf.normal(q), t.N[i], t.N[i+1])
 	if !ok {
@@ -126,7 +142,7 @@ func (t *Tracer) crossSurface(i int, pos, dir Vec3, p *Path) (Vec3, bool) {
 
 func (t *Tracer) stop(p *Path, i int, status RayStatus, hit Vec3, keep bool) (Vec3, bool) {
 	p.Status, p.Surface = status, i
-	if keep {
+	if keep && !t.NoPoints {
 		p.Points = append(p.Points, hit)
 	}
 	return Vec3{}, false
@@ -139,6 +155,8 @@ func (t *Tracer) clipped(i int, h float64) bool {
 
 // At returns the point where a passed ray crosses the plane at z from the
 // last vertex, moving along its image-space direction.
-func (t *Tracer) At(p Path, z float64) Vec3 {
+func (t *Tracer) At(p Path, z float64) Vec3 { return t.at(&p, z) }
+
+func (t *Tracer) at(p *Path, z float64) Vec3 {
 	return p.Image.Add(p.Dir.Scale((t.LastVertex() + z - p.Image.Z) / p.Dir.Z))
 }

@@ -73,11 +73,12 @@ type rayEnd struct {
 	opl, w float64
 }
 
-func newBundleAt(tr Traced, edge, ref bool) bundleAt {
-	b := bundleAt{tr: tr, edge: edge, ref: ref, n: tr.Tracer.N[len(tr.Tracer.N)-1], last: tr.Tracer.LastVertex()}
+func newBundleAt(tr Traced, edge, ref bool, ends []rayEnd) bundleAt {
+	b := bundleAt{tr: tr, edge: edge, ref: ref, rays: ends[:0], n: tr.Tracer.N[len(tr.Tracer.N)-1], last: tr.Tracer.LastVertex()}
 	b.pupil, b.pupilK = tr.Tracer.System.exitPupil(tr.Object.Stop, tr.Tracer.N)
 	var sw float64
-	for i, p := range tr.Paths {
+	for i := range tr.Paths {
+		p := &tr.Paths[i]
 		if p.Status != Passed {
 			continue
 		}
@@ -139,26 +140,28 @@ func (b *bundleAt) rms(c Vec3) float64 {
 
 // verdict judges the traced bundles: axis and edge (edge may be nil) at
 // the reference wavelength wl, whose on-axis best wavefront is axisBest,
-// and the same field points traced here at the other band wavelengths.
-func (s System) verdict(c Conditions, wl float64, axis Traced, edge *Traced, axisBest Wavefront) (Verdict, error) {
-	bs := []bundleAt{newBundleAt(axis, false, true)}
+// and the same field points traced here at the other band wavelengths, in
+// the scratch space w.
+func (s System) verdict(c Conditions, wl float64, axis Traced, edge *Traced, axisBest Wavefront, w *assessWork) (Verdict, error) {
+	bs := []bundleAt{newBundleAt(axis, false, true, w.ends.take(len(axis.Paths)))}
 	if edge != nil {
-		bs = append(bs, newBundleAt(*edge, true, true))
+		bs = append(bs, newBundleAt(*edge, true, true, w.ends.take(len(edge.Paths))))
 	}
-	for _, w := range c.Band {
-		if math.Abs(w-wl) <= 0.05 {
+	for _, bw := range c.Band {
+		if math.Abs(bw-wl) <= 0.05 {
 			continue // the reference, already traced
 		}
 		fields := []float64{0}
 		if edge != nil {
 			fields = append(fields, c.Field)
 		}
+		t := w.tracer(s, bw)
 		for k, f := range fields {
-			b, err := s.Bundle(c.Object, f, w, Hexapolar(rings(c)))
+			tr, err := w.trace(s, t, c.Object, f, hexapolar(rings(c)), axis.ImageZ)
 			if err != nil {
 				return Verdict{}, err
 			}
-			bs = append(bs, newBundleAt(s.Tracer(w).TraceBundle(b, axis.ImageZ), k == 1, false))
+			bs = append(bs, newBundleAt(tr, k == 1, false, w.ends.take(len(tr.Paths))))
 		}
 	}
 	lo, hi := focusBracket(bs)

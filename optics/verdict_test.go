@@ -131,7 +131,7 @@ func TestVerdictRMSMatchesWavefront(t *testing.T) {
 	}
 	img := sys.Cardinal(LineD).BFD()
 	tr := sys.Tracer(LineF).TraceBundle(b, img)
-	ba := newBundleAt(tr, true, true)
+	ba := newBundleAt(tr, true, true, nil)
 	for _, dz := range []float64{-1, -0.2, 0, 0.5} {
 		sp := tr.SpotAt(img + dz)
 		x, y := ba.centroid(img + dz)

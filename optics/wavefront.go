@@ -3,6 +3,8 @@ package optics
 import (
 	"errors"
 	"math"
+	"slices"
+	"sync"
 
 	"gonum.org/v1/gonum/mat"
 )
@@ -34,10 +36,18 @@ func (w Wavefront) DiffractionLimited() bool { return w.RMS <= MarechalRMS }
 // (Welford, Aberrations of Optical Systems, 1986, ch. 6, on the wavefront
 // aberration and the reference sphere), for every passed ray.
 func (tr Traced) Wavefront(centre Vec3) (Wavefront, error) {
-	opd, w, r, err := tr.opd(centre)
+	ws := getFit()
+	defer putFit(ws)
+	return tr.wavefront(ws, centre)
+}
+
+// wavefront is Wavefront with scratch space ws.
+func (tr Traced) wavefront(ws *fitWork, centre Vec3) (Wavefront, error) {
+	r, err := tr.opd(ws, centre)
 	if err != nil {
 		return Wavefront{}, err
 	}
+	opd, w := ws.opd, ws.w
 	wf := Wavefront{Centre: centre, Radius: r, Rays: len(opd)}
 	lambda := tr.Wavelength * 1e-6
 	var sw, mean float64
@@ -55,12 +65,31 @@ func (tr Traced) Wavefront(centre Vec3) (Wavefront, error) {
 	return wf, nil
 }
 
-// opd returns the path to the reference sphere for each passed ray that
-// meets it, with the ray's pupil weight, and the sphere's radius.
-func (tr Traced) opd(centre Vec3) (opd, w []float64, radius float64, err error) {
+// fitWork is the scratch space of a wavefront and its fit, kept in a pool
+// so that the real-ray stage's workers reuse it from one system to the
+// next: the path differences, weights and directions of the rays that meet
+// the reference sphere, the least-squares system and its factorisation.
+type fitWork struct {
+	opd, w []float64
+	dirs   []Vec3
+	a, b   []float64
+	svd    mat.SVD
+}
+
+var fitPool = sync.Pool{New: func() any { return new(fitWork) }}
+
+func getFit() *fitWork  { return fitPool.Get().(*fitWork) }
+func putFit(w *fitWork) { fitPool.Put(w) }
+
+// opd puts into ws the path to the reference sphere of each passed ray
+// that meets it, with the ray's pupil weight and image-space direction,
+// and returns the sphere's radius.
+func (tr Traced) opd(ws *fitWork, centre Vec3) (radius float64, err error) {
 	radius = tr.referenceRadius(centre)
 	nImage := tr.Tracer.N[len(tr.Tracer.N)-1]
-	for i, p := range tr.Paths {
+	ws.opd, ws.w, ws.dirs = ws.opd[:0], ws.w[:0], ws.dirs[:0]
+	for i := range tr.Paths {
+		p := &tr.Paths[i]
 		if p.Status != Passed {
 			continue
 		}
@@ -71,13 +100,14 @@ func (tr Traced) opd(centre Vec3) (opd, w []float64, radius float64, err error) 
 			continue
 		}
 		s := -b - math.Sqrt(disc) // the crossing on the pupil side of the centre
-		opd = append(opd, p.OPL+nImage*s)
-		w = append(w, tr.Points[i].Weight)
+		ws.opd = append(ws.opd, p.OPL+nImage*s)
+		ws.w = append(ws.w, tr.Points[i].Weight)
+		ws.dirs = append(ws.dirs, p.Dir)
 	}
-	if len(opd) < 3 {
-		return nil, nil, 0, errors.New("too few rays reach the reference sphere to measure the wavefront")
+	if len(ws.opd) < 3 {
+		return 0, errors.New("too few rays reach the reference sphere to measure the wavefront")
 	}
-	return opd, w, radius, nil
+	return radius, nil
 }
 
 // referenceRadius is the distance from the centre to the axial point of
@@ -119,26 +149,27 @@ func (s System) exitPupil(stop int, n []float64) (float64, bool) {
 // the reference sphere), so delta follows from a weighted least-squares
 // fit, refined twice.
 func (tr Traced) BestWavefront(start Vec3) (Wavefront, error) {
+	ws := getFit()
+	defer putFit(ws)
 	centre := start
 	for iter := 0; iter < 3; iter++ {
-		delta, err := tr.centreShift(centre)
+		delta, err := tr.centreShift(ws, centre)
 		if err != nil {
 			return Wavefront{}, err
 		}
 		centre = centre.Add(delta)
 	}
-	return tr.Wavefront(centre)
+	return tr.wavefront(ws, centre)
 }
 
 // centreShift fits opd_i = p - n' d_i.delta by weighted least squares
 // (singular-value decomposition, so that a bundle confined to one plane
 // leaves the unmeasurable components at zero).
-func (tr Traced) centreShift(centre Vec3) (Vec3, error) {
-	opd, w, _, err := tr.opd(centre)
-	if err != nil {
+func (tr Traced) centreShift(ws *fitWork, centre Vec3) (Vec3, error) {
+	if _, err := tr.opd(ws, centre); err != nil {
 		return Vec3{}, err
 	}
-	dirs := tr.sphereDirs(centre)
+	opd, w, dirs := ws.opd, ws.w, ws.dirs
 	nImage := tr.Tracer.N[len(tr.Tracer.N)-1]
 	var sw, mo float64
 	var md Vec3
@@ -146,37 +177,18 @@ func (tr Traced) centreShift(centre Vec3) (Vec3, error) {
 		sw, mo, md = sw+w[i], mo+w[i]*opd[i], md.Add(dirs[i].Scale(w[i]))
 	}
 	mo, md = mo/sw, md.Scale(1/sw)
-	a := mat.NewDense(len(opd), 3, nil)
-	b := mat.NewVecDense(len(opd), nil)
+	n := len(opd)
+	ws.a, ws.b = slices.Grow(ws.a[:0], 3*n)[:3*n], slices.Grow(ws.b[:0], n)[:n]
 	for i := range opd {
 		sw := math.Sqrt(w[i])
 		d := dirs[i].Sub(md).Scale(-nImage * sw)
-		a.SetRow(i, []float64{d.X, d.Y, d.Z})
-		b.SetVec(i, sw*(opd[i]-mo))
+		ws.a[3*i], ws.a[3*i+1], ws.a[3*i+2] = d.X, d.Y, d.Z
+		ws.b[i] = sw * (opd[i] - mo)
 	}
-	return solveLeastSquares(a, b)
+	return solveLeastSquares(&ws.svd, mat.NewDense(n, 3, ws.a), mat.NewVecDense(n, ws.b))
 }
 
-// sphereDirs lists the image-space directions of the rays that opd keeps,
-// in the same order.
-func (tr Traced) sphereDirs(centre Vec3) []Vec3 {
-	radius := tr.referenceRadius(centre)
-	var d []Vec3
-	for _, p := range tr.Paths {
-		if p.Status != Passed {
-			continue
-		}
-		v := p.Image.Sub(centre)
-		b := v.Dot(p.Dir)
-		if b*b-v.Dot(v)+radius*radius >= 0 {
-			d = append(d, p.Dir)
-		}
-	}
-	return d
-}
-
-func solveLeastSquares(a *mat.Dense, b *mat.VecDense) (Vec3, error) {
-	var svd mat.SVD
+func solveLeastSquares(svd *mat.SVD, a *mat.Dense, b *mat.VecDense) (Vec3, error) {
 	if !svd.Factorize(a, mat.SVDThin) {
 		return Vec3{}, errors.New("the wavefront fit did not converge")
 	}

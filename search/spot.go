@@ -57,7 +57,9 @@ func (m *model) spot(d draw, t trial) (rms float64, ok bool) {
 	if err != nil {
 		return 0, false
 	}
-	tr := sys.Tracer(m.rays.wl).TraceBundle(b, t.at.imageZ)
+	tracer := sys.Tracer(m.rays.wl)
+	tracer.NoPoints = true // the spot needs where the rays end, not their points on the way
+	tr := tracer.TraceBundle(b, t.at.imageZ)
 	s := tr.SpotAt(t.at.imageZ)
 	if t.at.refocus {
 		s = tr.BestFocus()
