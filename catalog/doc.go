@@ -38,10 +38,11 @@
 //	drawer     part_id, quantity, location
 //	searches   id, kind, requirement and results (JSON), created_at (RFC 3339)
 //	search_index
-//	           derived data: one packed record per part (id_key
-//	           SUPPLIER:PART, part_id, record) with what the first-order
-//	           search needs, read in one sequential pass by SearchIndex
-//	           (index.go documents the record; RebuildIndex writes it anew)
+//	           derived data: the packed records of what the first-order
+//	           search needs, one row per chunk of 4,096 part ids (chunk =
+//	           part id / 4096, parts = records in it, records), read in one
+//	           sequential pass by SearchIndex (index.go documents the
+//	           record and the chunk; RebuildIndex writes it anew)
 //
 // The view part_summary shows one readable row per part with its forward
 // computed columns, power in dioptres, drawer quantity and warning count.

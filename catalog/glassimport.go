@@ -106,12 +106,10 @@ func recomputeUsing(ctx context.Context, tx *sql.Tx, names []string) ([]string, 
 		if err := writeWarnings(ctx, w, ids[i], importers.ComputedWarnings(e), true); err != nil {
 			return nil, err
 		}
-		if err := writeIndexRow(ctx, w, ids[i], e); err != nil {
-			return nil, err
-		}
+		writeIndexRow(w, ids[i], e)
 		out = append(out, e.Part.ID())
 	}
-	return out, nil
+	return out, w.flushIndex(ctx)
 }
 
 // givenTwice says that a name or part appears twice in one file.

@@ -83,6 +83,9 @@ func (s *Store) Import(ctx context.Context, entries []record.Entry, dryRun bool)
 	if err := writeNewParts(ctx, w, fresh, glasses, next-int64(len(fresh))); err != nil {
 		return rep, s.wrapWriteError(err)
 	}
+	if err := w.flushIndex(ctx); err != nil {
+		return rep, s.wrapWriteError(err)
+	}
 	if dryRun {
 		return rep, nil
 	}

@@ -126,9 +126,8 @@ func writeNewParts(ctx context.Context, w *txWriter, parts []newPart, glasses op
 		newBatch(w, `INSERT INTO warnings (part_id, seq, message, computed)`, 4),
 		newBatch(w, `INSERT INTO computed (part_id, reversed, wavelength_nm, power_per_mm, efl_mm, bfd_mm, ffd_mm,
 			p_mm, p_prime_mm, length_mm, diameter_mm, clear_aperture_mm)`, 12),
-		newBatch(w, `INSERT INTO search_index (id_key, part_id, record)`, 3),
 	}
-	partRows, surfaces, warnings, computed, index := ins[0], ins[1], ins[2], ins[3], ins[4]
+	partRows, surfaces, warnings, computed := ins[0], ins[1], ins[2], ins[3]
 	for _, b := range ins[1:] {
 		b.parent = partRows // the parts a row refers to go in first
 	}
@@ -174,9 +173,7 @@ func writeNewParts(ctx context.Context, w *txWriter, parts []newPart, glasses op
 				return err
 			}
 		}
-		if err := index.add(ctx, p.ID(), id, r.record); err != nil {
-			return err
-		}
+		w.putIndex(id, r.record)
 	}
 	for _, b := range ins {
 		if err := b.flush(ctx); err != nil {

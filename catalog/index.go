@@ -96,7 +96,8 @@ func (p *IndexPart) MatrixAt(n []float64, air float64) optics.Mat2 {
 }
 
 // recordFormat is the layout of the stored records; a record of another
-// format is rebuilt (see IndexPart).
+// format is rebuilt (see IndexPart). The records are stored in chunks
+// (chunkFormat).
 const recordFormat = 1
 
 // record flags
@@ -218,51 +219,196 @@ func (d *recordReader) float() float64 {
 	return v
 }
 
-// decodeRecord takes apart a stored record. intern turns a glass name
-// into its number in the index and str the supplier and currency into
-// strings (both may keep one copy of each); floats are taken from arena,
-// which it returns grown.
-func decodeRecord(b []byte, p *IndexPart, intern func([]byte) uint16, str func([]byte) string, arena []float64) ([]float64, error) {
+// An indexDecoder takes records apart into IndexParts without an
+// allocation per part: the floats, glass numbers and names of every part
+// share a few large arrays, and the suppliers, currencies and glass names,
+// few and repeated, are kept once each.
+type indexDecoder struct {
+	floats  []float64 // radii and thicknesses
+	glass   []uint16
+	names   []byte  // the names of the parts of the current chunk
+	nameEnd []int32 // where each kept part's name ends in names
+	glassNo map[string]uint16
+	glasses []string // glass names, numbered as IndexPart.Glass numbers them
+	words   map[string]string
+}
+
+// newIndexDecoder sizes the shared arrays for about n parts.
+func newIndexDecoder(n int) *indexDecoder {
+	return &indexDecoder{floats: make([]float64, 0, 5*n), glass: make([]uint16, 0, 2*n),
+		glassNo: map[string]uint16{}, words: map[string]string{}}
+}
+
+func (d *indexDecoder) intern(b []byte) uint16 {
+	if k, ok := d.glassNo[string(b)]; ok {
+		return k
+	}
+	k := uint16(len(d.glasses))
+	d.glasses = append(d.glasses, string(b))
+	d.glassNo[string(b)] = k
+	return k
+}
+
+func (d *indexDecoder) word(b []byte) string {
+	if s, ok := d.words[string(b)]; ok {
+		return s
+	}
+	s := string(b)
+	d.words[s] = s
+	return s
+}
+
+// decodeRecord takes apart a stored record into p, all but its name,
+// which it returns (a slice of b).
+func (d *indexDecoder) decodeRecord(b []byte, p *IndexPart) ([]byte, error) {
 	if len(b) < 3 || b[0] != recordFormat {
-		return arena, fmt.Errorf("%w (format %d, this program reads %d)", errRecord, b[0], recordFormat)
+		format := -1
+		if len(b) > 0 {
+			format = int(b[0])
+		}
+		return nil, fmt.Errorf("%w (format %d, this program reads %d)", errRecord, format, recordFormat)
 	}
 	flags, n := b[1], int(b[2])
-	d := recordReader{b: b[3:]}
-	p.ID = int64(d.uvarint())
-	p.Supplier = str(d.bytes())
-	p.Name = string(d.bytes())
-	p.Currency = str(d.bytes())
-	if n < 2 {
-		return arena, errRecord
+	r := recordReader{b: b[3:]}
+	p.ID = int64(r.uvarint())
+	p.Supplier = d.word(r.bytes())
+	name := r.bytes()
+	p.Currency = d.word(r.bytes())
+	if n < 2 || r.bad {
+		return nil, errRecord
 	}
-	start := len(arena)
-	glass := make([]uint16, n-1)
-	for i := range glass {
-		glass[i] = intern(d.bytes())
+	start := len(d.glass)
+	for range n - 1 {
+		d.glass = append(d.glass, d.intern(r.bytes()))
 	}
-	p.Diameter, p.Aperture, p.Price = d.float(), d.float(), d.float()
-	p.Matrix = optics.Mat2{A: d.float(), B: d.float(), C: d.float(), D: d.float()}
-	for i := 0; i < 2*n-1; i++ {
-		arena = append(arena, d.float())
+	p.Glass = d.glass[start : start+n-1 : start+n-1]
+	p.Diameter, p.Aperture, p.Price = r.float(), r.float(), r.float()
+	p.Matrix = optics.Mat2{A: r.float(), B: r.float(), C: r.float(), D: r.float()}
+	start = len(d.floats)
+	for range 2*n - 1 {
+		d.floats = append(d.floats, r.float())
 	}
-	p.Radii = arena[start : start+n : start+n]
-	p.Thickness = arena[start+n : start+2*n-1 : start+2*n-1]
-	p.Glass = glass
+	p.Radii = d.floats[start : start+n : start+n]
+	p.Thickness = d.floats[start+n : start+2*n-1 : start+2*n-1]
 	p.Symmetric = flags&flagSymmetric != 0
 	p.Conics = nil
 	if flags&(flagFirstAsph|flagLastAsph) != 0 {
 		p.Conics = &[2]optics.Surface{{Radius: p.Radii[0]}, {Radius: p.Radii[n-1]}}
 		for k := range p.Conics {
 			if s := &p.Conics[k]; flags&(flagFirstAsph<<k) != 0 {
-				s.Conic = d.float()
+				s.Conic = r.float()
 				for i := range s.Asph {
-					s.Asph[i] = d.float()
+					s.Asph[i] = r.float()
 				}
 			}
 		}
 	}
-	if d.bad || len(d.b) != 0 {
-		return arena, errRecord
+	if r.bad || len(r.b) != 0 {
+		return nil, errRecord
 	}
-	return arena, nil
+	return name, nil
+}
+
+// Chunks: the stored index is one row per chunk of part ids (chunkOf), each
+// holding the records of its parts in the order of their ids: a chunk
+// format byte, the number of records, then each record after its length.
+// A change to a part rewrites the one chunk its id falls in.
+const chunkFormat = 1
+
+// chunkShift sets the size of a chunk: 4,096 part ids (a variable for the
+// tests, which use chunks of a few parts).
+var chunkShift = 12
+
+// chunkOf is the chunk that holds the record of part id.
+func chunkOf(id int64) int64 { return id >> chunkShift }
+
+// encodeChunk packs records, each a stored record, in the order given.
+func encodeChunk(records [][]byte) []byte {
+	size := 1 + binary.MaxVarintLen64
+	for _, r := range records {
+		size += binary.MaxVarintLen64 + len(r)
+	}
+	buf := make([]byte, 0, size)
+	buf = append(buf, chunkFormat)
+	buf = binary.AppendUvarint(buf, uint64(len(records)))
+	for _, r := range records {
+		buf = binary.AppendUvarint(buf, uint64(len(r)))
+		buf = append(buf, r...)
+	}
+	return buf
+}
+
+// splitChunk returns the records of a stored chunk (slices of b).
+func splitChunk(b []byte) ([][]byte, error) {
+	if len(b) < 1 || b[0] != chunkFormat {
+		return nil, errRecord
+	}
+	r := recordReader{b: b[1:]}
+	n := r.uvarint()
+	if n > uint64(len(r.b)) {
+		return nil, errRecord
+	}
+	out := make([][]byte, 0, n)
+	for range n {
+		out = append(out, r.bytes())
+	}
+	if r.bad || len(r.b) != 0 {
+		return nil, errRecord
+	}
+	return out, nil
+}
+
+// recordID is the part id a stored record carries.
+func recordID(b []byte) (int64, error) {
+	if len(b) < 3 || b[0] != recordFormat {
+		return 0, errRecord
+	}
+	r := recordReader{b: b[3:]}
+	id := r.uvarint()
+	if r.bad {
+		return 0, errRecord
+	}
+	return int64(id), nil
+}
+
+// decodeChunk appends to parts the parts of a stored chunk that keep
+// accepts, their names sharing one string.
+func (d *indexDecoder) decodeChunk(b []byte, parts []IndexPart, keep func(*IndexPart) bool) ([]IndexPart, error) {
+	if len(b) < 1 || b[0] != chunkFormat {
+		return parts, errRecord
+	}
+	r := recordReader{b: b[1:]}
+	n := r.uvarint()
+	if n > uint64(len(r.b)) {
+		return parts, errRecord
+	}
+	start := len(parts)
+	d.names, d.nameEnd = d.names[:0], d.nameEnd[:0]
+	for range n {
+		rec := r.bytes()
+		if r.bad {
+			return parts, errRecord
+		}
+		parts = append(parts, IndexPart{})
+		p := &parts[len(parts)-1]
+		name, err := d.decodeRecord(rec, p)
+		if err != nil {
+			return parts, err
+		}
+		if !keep(p) {
+			parts = parts[:len(parts)-1]
+			continue
+		}
+		d.names = append(d.names, name...)
+		d.nameEnd = append(d.nameEnd, int32(len(d.names)))
+	}
+	if len(r.b) != 0 {
+		return parts, errRecord
+	}
+	names, from := string(d.names), int32(0)
+	for i, end := range d.nameEnd {
+		parts[start+i].Name = names[from:end]
+		from = end
+	}
+	return parts, nil
 }

@@ -2,11 +2,15 @@ package catalog
 
 import (
 	"bytes"
+	"database/sql"
+	"fmt"
 	"io"
 	"math"
 	"os"
 	"path/filepath"
 	"reflect"
+	"slices"
+	"strings"
 	"testing"
 
 	"cardinal/catalog/record"
@@ -19,19 +23,44 @@ import (
 // SUPPLIER:PART.
 func indexRows(t *testing.T, s *Store) map[string][]byte {
 	t.Helper()
-	rows, err := s.db.QueryContext(ctx, "SELECT id_key, record FROM search_index")
+	out := map[string][]byte{}
+	for _, chunk := range indexChunks(t, s) {
+		recs, err := splitChunk(chunk)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, r := range recs {
+			var p IndexPart
+			name, err := newIndexDecoder(1).decodeRecord(r, &p)
+			if err != nil {
+				t.Fatal(err)
+			}
+			out[p.Supplier+":"+string(name)] = r
+		}
+	}
+	return out
+}
+
+// indexChunks returns the stored chunks by number.
+func indexChunks(t *testing.T, s *Store) map[int64][]byte {
+	t.Helper()
+	rows, err := s.db.QueryContext(ctx, "SELECT chunk, parts, records FROM search_index")
 	if err != nil {
 		t.Fatal(err)
 	}
 	defer rows.Close()
-	out := map[string][]byte{}
+	out := map[int64][]byte{}
 	for rows.Next() {
-		var k string
+		var c int64
+		var n int
 		var r []byte
-		if err := rows.Scan(&k, &r); err != nil {
+		if err := rows.Scan(&c, &n, &r); err != nil {
 			t.Fatal(err)
 		}
-		out[k] = r
+		if recs, err := splitChunk(r); err != nil || len(recs) != n {
+			t.Fatalf("chunk %d: %d records (%v), its parts column says %d", c, len(recs), err, n)
+		}
+		out[c] = r
 	}
 	return out
 }
@@ -40,11 +69,11 @@ func indexRows(t *testing.T, s *Store) map[string][]byte {
 // rebuilt from scratch from the readable tables, and holds every part.
 func sameAsRebuilt(t *testing.T, s *Store, step string) {
 	t.Helper()
-	kept := indexRows(t, s)
+	kept, keptChunks := indexRows(t, s), indexChunks(t, s)
 	if err := s.RebuildIndex(ctx); err != nil {
 		t.Fatal(err)
 	}
-	fresh := indexRows(t, s)
+	fresh, freshChunks := indexRows(t, s), indexChunks(t, s)
 	var parts int
 	s.db.QueryRowContext(ctx, "SELECT count(*) FROM parts").Scan(&parts)
 	if len(fresh) != parts {
@@ -58,12 +87,31 @@ func sameAsRebuilt(t *testing.T, s *Store, step string) {
 			t.Errorf("%s: record of %s differs from the rebuilt one", step, k)
 		}
 	}
+	if len(keptChunks) != len(freshChunks) {
+		t.Errorf("%s: %d chunks kept in step, %d rebuilt", step, len(keptChunks), len(freshChunks))
+	}
+	for c, r := range freshChunks {
+		if !bytes.Equal(keptChunks[c], r) {
+			t.Errorf("%s: chunk %d differs from the rebuilt one", step, c)
+		}
+	}
 }
 
 // The index is never stale: after an import, a changed glass, a removed
 // part, an updated part and a drawer change it equals the index rebuilt
-// from scratch.
+// from scratch; with chunks of 4,096 part ids (all parts in one) and of 2
+// (changes that fall in several chunks, a chunk emptied).
 func TestIndexKeptInStep(t *testing.T) {
+	for _, shift := range []int{12, 1} {
+		t.Run(fmt.Sprint(1<<shift), func(t *testing.T) {
+			defer func(s int) { chunkShift = s }(chunkShift)
+			chunkShift = shift
+			indexKeptInStep(t)
+		})
+	}
+}
+
+func indexKeptInStep(t *testing.T) {
 	s := newStore(t)
 	if _, err := s.ImportGlasses(ctx, []importers.Glass{constantGlass("test-crown", 1.52)}, false); err != nil {
 		t.Fatal(err)
@@ -105,6 +153,59 @@ func TestIndexKeptInStep(t *testing.T) {
 		t.Fatal(err)
 	}
 	sameAsRebuilt(t, s, "drawer set")
+	for _, id := range []string{"TEST:PCX-100", "TEST:DCX-20"} {
+		if _, err := s.Remove(ctx, id); err != nil {
+			t.Fatal(err)
+		}
+	}
+	sameAsRebuilt(t, s, "two parts removed")
+	if _, ok := indexRows(t, s)["TEST:DCX-20"]; ok {
+		t.Error("a removed part is still in the index")
+	}
+}
+
+// Parts added by a later import, whose names fall between those stored,
+// are read in the order of SUPPLIER:PART as strings (a supplier that
+// begins with another's name included: "AB-" sorts before "AB:").
+func TestSearchIndexOrderAfterImports(t *testing.T) {
+	s := newStore(t)
+	mustImport(t, s, sampleEntries(t))
+	inf := math.Inf(1)
+	mustImport(t, s, []record.Entry{
+		lens(t, "TEST", "PCX-75", 38.76, inf, 4, 25.4, "517642"),
+		lens(t, "OTHER-B", "PCX-10", 5.17, inf, 2, 6, "517642"),
+		lens(t, "AAA", "PCX-20", 10.34, inf, 2.5, 12.7, "517642"),
+		lens(t, "OTHER", "ACH-050", 25.84, inf, 5.3, 25.4, "517642"),
+	})
+	ix, err := s.SearchIndex(ctx, IndexOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer ix.Close()
+	var got []string
+	for _, p := range ix.Parts {
+		got = append(got, p.PartID())
+	}
+	want := slices.Clone(got)
+	slices.Sort(want) // the order of the strings themselves
+	if !reflect.DeepEqual(got, want) || len(got) != 10 {
+		t.Errorf("order %v, want %v", got, want)
+	}
+	if i, j := slices.Index(got, "OTHER-B:PCX-10"), slices.Index(got, "OTHER:ACH-050"); i > j {
+		t.Errorf("OTHER-B:PCX-10 at %d after OTHER:ACH-050 at %d", i, j)
+	}
+}
+
+func TestCompareIDs(t *testing.T) {
+	ids := [][2]string{{"AB", "X"}, {"AB-", "X"}, {"AB", ""}, {"A", "B:X"}, {"ABC", "A"}, {"AB", "XY"}, {"", "Z"}, {"AB", "X"}}
+	for _, a := range ids {
+		for _, b := range ids {
+			want := strings.Compare(a[0]+":"+a[1], b[0]+":"+b[1])
+			if got := compareIDs(a[0], a[1], b[0], b[1]); got != want {
+				t.Errorf("compareIDs(%q, %q) = %d, want %d", a, b, got, want)
+			}
+		}
+	}
 }
 
 // A record taken apart gives back what was put in.
@@ -116,23 +217,27 @@ func TestIndexRecordRoundTrip(t *testing.T) {
 	for _, e := range es {
 		r := newIndexRecord(42, e)
 		var got IndexPart
-		var names []string
-		intern := func(b []byte) uint16 { names = append(names, string(b)); return uint16(len(names) - 1) }
-		if _, err := decodeRecord(r.encode(nil), &got, intern, func(b []byte) string { return string(b) }, nil); err != nil {
+		d := newIndexDecoder(1)
+		name, err := d.decodeRecord(r.encode(nil), &got)
+		if err != nil {
 			t.Fatalf("%s: %v", e.Part.ID(), err)
 		}
+		got.Name = string(name)
 		want := r.IndexPart
 		want.Glass = []uint16{}
 		for i := range r.glasses {
 			want.Glass = append(want.Glass, uint16(i))
 		}
-		if !reflect.DeepEqual(got, want) || !reflect.DeepEqual(names, r.glasses) {
-			t.Errorf("%s:\n got %+v %v\nwant %+v %v", e.Part.ID(), got, names, want, r.glasses)
+		if !reflect.DeepEqual(got, want) || !reflect.DeepEqual(d.glasses, r.glasses) {
+			t.Errorf("%s:\n got %+v %v\nwant %+v %v", e.Part.ID(), got, d.glasses, want, r.glasses)
 		}
 		// A cut record is refused, never read short.
 		b := r.encode(nil)
-		if _, err := decodeRecord(b[:len(b)-3], &got, intern, func(b []byte) string { return string(b) }, nil); err == nil {
+		if _, err := d.decodeRecord(b[:len(b)-3], &got); err == nil {
 			t.Errorf("%s: a cut record was read", e.Part.ID())
+		}
+		if _, err := d.decodeChunk(encodeChunk([][]byte{b})[:len(b)], nil, func(*IndexPart) bool { return true }); err == nil {
+			t.Errorf("%s: a cut chunk was read", e.Part.ID())
 		}
 	}
 }
@@ -247,6 +352,55 @@ func TestMigrationBuildsIndex(t *testing.T) {
 		t.Errorf("%d index records after the migration, want the file's 13 parts", n)
 	}
 	sameAsRebuilt(t, s, "migration")
+}
+
+// A catalog written by the version before chunks (schema 6, one index row
+// per part; testdata/schema6.db was written by cardinal at schema 6 from
+// the demo's glasses.csv and lenses.csv, with 2 pieces of DEMO:PCX-50 in
+// the drawer) is upgraded on opening: the chunks hold the same records the
+// rows held, equal to those rebuilt from scratch, and the index reads.
+func TestMigrationToChunks(t *testing.T) {
+	path := filepath.Join(t.TempDir(), "old.db")
+	copyFile(t, "testdata/schema6.db", path)
+	old := map[string][]byte{}
+	db, err := sql.Open("sqlite", path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	rows, err := db.Query("SELECT id_key, record FROM search_index")
+	if err != nil {
+		t.Fatal(err)
+	}
+	for rows.Next() {
+		var k string
+		var r []byte
+		if err := rows.Scan(&k, &r); err != nil {
+			t.Fatal(err)
+		}
+		old[k] = r
+	}
+	rows.Close()
+	db.Close()
+	if len(old) != 13 {
+		t.Fatalf("the schema 6 file holds %d index rows, want 13", len(old))
+	}
+	s, err := Open(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer s.Close()
+	if got := indexRows(t, s); !reflect.DeepEqual(got, old) {
+		t.Errorf("after the migration the index holds %d records, not the %d the rows held", len(got), len(old))
+	}
+	sameAsRebuilt(t, s, "migration from schema 6")
+	ix, err := s.SearchIndex(ctx, IndexOptions{InDrawer: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer ix.Close()
+	if len(ix.Parts) != 1 || ix.Parts[0].PartID() != "DEMO:PCX-50" || ix.Parts[0].Quantity != 2 {
+		t.Errorf("the drawer's parts after the migration: %+v", ix.Parts)
+	}
 }
 
 func copyFile(t *testing.T, from, to string) {

@@ -1,9 +1,12 @@
 package catalog
 
 import (
+	"cmp"
 	"context"
 	"database/sql"
 	"fmt"
+	"slices"
+	"strings"
 
 	"cardinal/catalog/record"
 	"cardinal/optics"
@@ -29,7 +32,8 @@ type IndexOptions struct {
 }
 
 // SearchIndex reads the search index: one sequential read of the index
-// table, one of the drawer and one of the user's glasses, inside one read
+// table (a few large rows, each the records of thousands of parts), one
+// of the drawer and one of the user's glasses, inside one read
 // transaction that the Index keeps until Close.
 func (s *Store) SearchIndex(ctx context.Context, o IndexOptions) (*Index, error) {
 	tx, err := s.db.BeginTx(ctx, &sql.TxOptions{ReadOnly: true})
@@ -58,7 +62,7 @@ func (ix *Index) read(ctx context.Context, o IndexOptions) error {
 	var n int
 	// The count sizes the slices, so that 200,000 records are not copied
 	// over and over while the slice grows.
-	if err := ix.tx.QueryRowContext(ctx, "SELECT count(*) FROM search_index").Scan(&n); err != nil {
+	if err := ix.tx.QueryRowContext(ctx, "SELECT coalesce(sum(parts), 0) FROM search_index").Scan(&n); err != nil {
 		return err
 	}
 	drawer, err := readQuantities(ctx, ix.tx)
@@ -84,50 +88,68 @@ func (ix *Index) read(ctx context.Context, o IndexOptions) error {
 	return nil
 }
 
-// readRecords decodes every record into ix.Parts; n is their number.
+// readRecords decodes every record into ix.Parts, in the order of the
+// parts' names; n is their number.
 func (ix *Index) readRecords(ctx context.Context, n int, drawer map[int64]int, inDrawer bool) error {
-	rows, err := ix.tx.QueryContext(ctx, "SELECT record FROM search_index ORDER BY id_key")
+	rows, err := ix.tx.QueryContext(ctx, "SELECT records FROM search_index ORDER BY chunk")
 	if err != nil {
 		return err
 	}
 	defer rows.Close()
 	ix.Parts = make([]IndexPart, 0, n)
-	arena := make([]float64, 0, 5*n)
-	glassNo := map[string]uint16{}
-	intern := func(b []byte) uint16 {
-		if k, ok := glassNo[string(b)]; ok {
-			return k
-		}
-		k := uint16(len(ix.Glasses))
-		ix.Glasses = append(ix.Glasses, string(b))
-		glassNo[string(b)] = k
-		return k
-	}
-	words := map[string]string{} // suppliers and currencies, few and repeated
-	word := func(b []byte) string {
-		if s, ok := words[string(b)]; ok {
-			return s
-		}
-		s := string(b)
-		words[s] = s
-		return s
-	}
-	var rec sql.RawBytes
-	for rows.Next() {
-		if err := rows.Scan(&rec); err != nil {
-			return err
-		}
-		var p IndexPart
-		if arena, err = decodeRecord(rec, &p, intern, word, arena); err != nil {
-			return err
-		}
+	d := newIndexDecoder(n)
+	keep := func(p *IndexPart) bool {
 		p.Quantity = drawer[p.ID]
-		if inDrawer && p.Quantity < 1 {
-			continue
-		}
-		ix.Parts = append(ix.Parts, p)
+		return !inDrawer || p.Quantity > 0
 	}
-	return rows.Err()
+	var chunk sql.RawBytes
+	for rows.Next() {
+		if err := rows.Scan(&chunk); err != nil {
+			return err
+		}
+		if ix.Parts, err = d.decodeChunk(chunk, ix.Parts, keep); err != nil {
+			return err
+		}
+	}
+	if err := rows.Err(); err != nil {
+		return err
+	}
+	ix.Glasses = d.glasses
+	// The chunks hold the parts in the order of their ids, which is the
+	// order of their names for the parts of one import; sort only when
+	// later imports interleaved them.
+	byName := func(a, b IndexPart) int { return compareIDs(a.Supplier, a.Name, b.Supplier, b.Name) }
+	if !slices.IsSortedFunc(ix.Parts, byName) {
+		slices.SortFunc(ix.Parts, byName)
+	}
+	return nil
+}
+
+// compareIDs compares SUPPLIER:PART of two parts as strings (the order of
+// their names everywhere in the catalog), without building them.
+func compareIDs(as, an, bs, bn string) int {
+	if as == bs {
+		return strings.Compare(an, bn)
+	}
+	la, lb := len(as)+1+len(an), len(bs)+1+len(bn)
+	for i := range min(la, lb) {
+		if ca, cb := idByte(as, an, i), idByte(bs, bn, i); ca != cb {
+			return cmp.Compare(ca, cb)
+		}
+	}
+	return cmp.Compare(la, lb)
+}
+
+// idByte is byte i of supplier + ":" + name.
+func idByte(supplier, name string, i int) byte {
+	switch {
+	case i < len(supplier):
+		return supplier[i]
+	case i == len(supplier):
+		return ':'
+	default:
+		return name[i-len(supplier)-1]
+	}
 }
 
 // readQuantities returns the drawer quantities by part id.

@@ -32,7 +32,8 @@ func (s storedEntry) warnings() []string {
 
 // writePart stores an entry inside tx: a new part when id is 0, otherwise
 // the part with that id replaced (its drawer row is kept). Its surfaces,
-// warnings, computed columns and search index record are written anew.
+// warnings and computed columns are written anew, and its search index
+// record kept for flushIndex.
 // It returns the part id.
 func writePart(ctx context.Context, tx *txWriter, id int64, e storedEntry, glasses optics.GlassTable) (int64, error) {
 	p := e.Part
@@ -82,7 +83,8 @@ func writePart(ctx context.Context, tx *txWriter, id int64, e storedEntry, glass
 	}
 	indexed := e.Entry
 	indexed.Part = catalogMedia(p, glasses)
-	return id, writeIndexRow(ctx, tx, id, indexed)
+	writeIndexRow(tx, id, indexed)
+	return id, nil
 }
 
 func writeSurfaces(ctx context.Context, tx *txWriter, id int64, p optics.Part) error {

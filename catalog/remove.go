@@ -34,5 +34,10 @@ func (s *Store) Remove(ctx context.Context, id string) (_ record.DrawerItem, err
 	if _, err := tx.ExecContext(ctx, "DELETE FROM parts WHERE id = ?", pid); err != nil {
 		return record.DrawerItem{}, s.wrapWriteError(err)
 	}
+	w := newTxWriter(tx)
+	w.dropIndex(pid)
+	if err := w.flushIndex(ctx); err != nil {
+		return record.DrawerItem{}, s.wrapWriteError(err)
+	}
 	return it, s.wrapWriteError(tx.Commit())
 }

@@ -11,6 +11,9 @@ import (
 type txWriter struct {
 	*sql.Tx
 	stmts map[string]*sql.Stmt
+	// index holds the search index records written (nil: removed) and
+	// not yet flushed to their chunks (flushIndex).
+	index map[int64][]byte
 }
 
 func newTxWriter(tx *sql.Tx) *txWriter {
