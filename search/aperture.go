@@ -55,7 +55,7 @@ func (s *search) firstOut(a *cand) bool {
 	if s.beamY <= 0 || !s.strict() {
 		return false
 	}
-	return s.beamY*math.Max(1, math.Abs(a.m.A)) > a.semi*(1+apertureSlack)
+	return s.beamY*max(1, math.Abs(a.m.A)) > a.semi*(1+apertureSlack)
 }
 
 // secondOut tells whether b after a passes the beam outside b's clear
@@ -67,7 +67,7 @@ func (s *search) secondOut(a, b *cand) bool {
 	y := (s.phi0 - a.phi) / b.phi
 	front, back := y+b.P*a.phi, y+b.Pp*s.phi0
 	scale := math.Abs(y) + math.Abs(b.P*a.phi) + math.Abs(b.Pp*s.phi0)
-	return s.beamY*(math.Max(math.Abs(front), math.Abs(back))-apertureSlack*scale) > b.semi*(1+apertureSlack)
+	return s.beamY*(max(math.Abs(front), math.Abs(back))-apertureSlack*scale) > b.semi*(1+apertureSlack)
 }
 
 // nodeOut tells whether every b in node n after a passes the beam outside
@@ -80,9 +80,9 @@ func (s *search) nodeOut(a *cand, n *node, f2 iv) bool {
 	y := f2.mul(pt(s.phi0 - a.phi))
 	front := y.add(iv{n.pMin, n.pMax}.mul(pt(a.phi)))
 	back := y.add(iv{n.ppMin, n.ppMax}.mul(pt(s.phi0)))
-	scale := y.mag() + math.Max(math.Abs(n.pMin), math.Abs(n.pMax))*math.Abs(a.phi) +
-		math.Max(math.Abs(n.ppMin), math.Abs(n.ppMax))*math.Abs(s.phi0)
-	least := math.Max(front.least(), back.least()) - apertureSlack*scale
+	scale := y.mag() + max(math.Abs(n.pMin), math.Abs(n.pMax))*math.Abs(a.phi) +
+		max(math.Abs(n.ppMin), math.Abs(n.ppMax))*math.Abs(s.phi0)
+	least := max(front.least(), back.least()) - apertureSlack*scale
 	return s.beamY*least > n.semiMax*(1+apertureSlack)
 }
 
@@ -114,13 +114,13 @@ func (s *search) imageWindow(a *cand) iv {
 	if !s.strict() {
 		return w
 	}
-	w.lo = math.Max(0, s.lim.wdMin)
+	w.lo = max(0, s.lim.wdMin)
 	if !s.req.ChecksAperture() {
 		return w
 	}
 	semi := a.semi * (1 + apertureSlack)
 	if na := s.req.NA; na > 0 {
-		w.hi = math.Min(w.hi, semi/na)
+		w.hi = min(w.hi, semi/na)
 		if A, B := a.m.A, a.m.B; A != 0 {
 			w = w.meet(span((-semi/na-B)/A, (semi/na-B)/A).widen(apertureSlack))
 		} else if math.Abs(B) > semi/na {
@@ -128,7 +128,7 @@ func (s *search) imageWindow(a *cand) iv {
 		}
 	}
 	if h := s.req.ObjectHeight; h > 0 {
-		w.lo = math.Max(w.lo, math.Abs(a.m.B)*h/semi*(1-apertureSlack))
+		w.lo = max(w.lo, math.Abs(a.m.B)*h/semi*(1-apertureSlack))
 	}
 	return w
 }
@@ -163,7 +163,7 @@ func (s *search) imageOpen(a *cand, n *node, e iv, win iv) bool {
 	}
 	bcLo, bcHi := 0.0, math.Inf(1)
 	if s.strict() {
-		bcLo = math.Max(0, s.lim.bfdMin)
+		bcLo = max(0, s.lim.bfdMin)
 		if s.req.ChecksAperture() && s.req.NA > 0 {
 			bcHi = math.Abs(m) * n.semiMax * (1 + apertureSlack) / s.req.NA
 		}

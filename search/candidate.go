@@ -3,6 +3,7 @@ package search
 import (
 	"cmp"
 	"fmt"
+	"math"
 	"runtime"
 	"slices"
 	"sort"
@@ -306,14 +307,6 @@ func setAside(supplier string, diameter float64, qty int, req Requirement) strin
 	return ""
 }
 
-// sagExtreme is the sag at 0 or h picked by pick (math.Min or math.Max):
-// the extreme over heights 0 to h of a sphere, whose sag is monotonic. For a
-// conic or an asphere it means nothing; edgeClearance samples those.
-func sagExtreme(s optics.Surface, h float64, pick func(a, b float64) float64) float64 {
-	z, _ := s.Sag(h)
-	return pick(0, z)
-}
-
 // tier groups candidates of like price and drawer availability, so that
 // the score bound can cut whole groups: four price quartiles, in the drawer
 // or not.
@@ -363,24 +356,26 @@ func byTier(all []cand, chunks [][]cand) []cand {
 		n += copy(all[n:], cs) // moves down or stays: the chunks are in order
 	}
 	all = all[:n]
-	type sortKey struct {
-		phi  float64
-		i    int32
-		tier int8
-	}
 	keys := make([]sortKey, n)
+	radix := true
 	for i := range all {
-		keys[i] = sortKey{phi: all[i].phi, i: int32(i), tier: t[i]}
+		phi := all[i].phi
+		keys[i] = sortKey{u: orderedBits(phi), i: int32(i), tier: t[i]}
+		radix = radix && phi == phi && phi != 0 // no NaN, no signed zeros
 	}
-	slices.SortFunc(keys, func(a, b sortKey) int {
-		if c := cmp.Compare(a.tier, b.tier); c != 0 {
-			return c
-		}
-		if c := cmp.Compare(a.phi, b.phi); c != 0 {
-			return c
-		}
-		return cmp.Compare(a.i, b.i)
-	})
+	if radix {
+		keys = radixSort(keys, make([]sortKey, n))
+	} else {
+		slices.SortFunc(keys, func(a, b sortKey) int {
+			if c := cmp.Compare(a.tier, b.tier); c != 0 {
+				return c
+			}
+			if c := cmp.Compare(all[a.i].phi, all[b.i].phi); c != 0 {
+				return c
+			}
+			return cmp.Compare(a.i, b.i)
+		})
+	}
 	// Position k takes the candidate at keys[k].i: follow each cycle of
 	// the permutation once.
 	for k := range keys {
@@ -403,6 +398,61 @@ func byTier(all []cand, chunks [][]cand) []cand {
 		all[k].tier = keys[k].tier
 	}
 	return all
+}
+
+// sortKey is a candidate's place in byTier's sort: its tier, its power as
+// orderedBits, its index.
+type sortKey struct {
+	u    uint64
+	i    int32
+	tier int8
+}
+
+// orderedBits maps a float64 other than NaN to an integer of the same
+// order (negative numbers have their bits inverted, positive ones their
+// sign bit set; the IEEE 754 layout orders magnitudes as integers), -0
+// below +0.
+func orderedBits(x float64) uint64 {
+	u := math.Float64bits(x)
+	if u>>63 != 0 {
+		return ^u
+	}
+	return u | 1<<63
+}
+
+// radixSort sorts keys by tier, then u, ties in their order: one stable
+// counting pass per byte of u, least significant first, skipping the bytes
+// every key shares, and one by tier. buf is as long as keys; the result is
+// one of the two.
+func radixSort(keys, buf []sortKey) []sortKey {
+	for shift := 0; shift <= 64; shift += 8 {
+		var at [256]int
+		for i := range keys {
+			at[keys[i].digit(shift)]++
+		}
+		if len(keys) == 0 || at[keys[0].digit(shift)] == len(keys) {
+			continue
+		}
+		pos := 0
+		for d, c := range at {
+			at[d], pos = pos, pos+c
+		}
+		for i := range keys {
+			d := keys[i].digit(shift)
+			buf[at[d]] = keys[i]
+			at[d]++
+		}
+		keys, buf = buf, keys
+	}
+	return keys
+}
+
+// digit is the byte of u at shift, or the tier for a shift of 64.
+func (k *sortKey) digit(shift int) byte {
+	if shift == 64 {
+		return byte(k.tier)
+	}
+	return byte(k.u >> shift)
 }
 
 // idRanks gives each item the rank of its part ID in sorted order.

@@ -1,7 +1,10 @@
 package search
 
 import (
+	"cmp"
 	"math"
+	"math/rand/v2"
+	"slices"
 	"testing"
 
 	"cardinal/optics"
@@ -44,5 +47,48 @@ func TestReversedCandidate(t *testing.T) {
 				t.Fatal("no reversed candidate")
 			}
 		})
+	}
+}
+
+// The radix sort of byTier orders by tier, then power, then index, as the
+// comparison sort does: random powers of both signs with repeats, and the
+// infinities.
+func TestRadixSortMatchesComparison(t *testing.T) {
+	r := rand.New(rand.NewPCG(1, 2))
+	for _, n := range []int{0, 1, 2, 9, 1000, 20000} {
+		phis := make([]float64, n)
+		keys := make([]sortKey, n)
+		for i := range keys {
+			phi := (r.Float64() - 0.5) * math.Pow(10, float64(r.IntN(6)-4))
+			switch r.IntN(50) {
+			case 0:
+				phi = math.Inf(1)
+			case 1:
+				phi = math.Inf(-1)
+			case 2, 3, 4:
+				if i > 0 {
+					phi = phis[r.IntN(i)] // a repeat
+				}
+			}
+			if phi == 0 {
+				phi = 1e-3
+			}
+			phis[i] = phi
+			keys[i] = sortKey{u: orderedBits(phi), i: int32(i), tier: int8(r.IntN(8))}
+		}
+		want := slices.Clone(keys)
+		slices.SortFunc(want, func(a, b sortKey) int {
+			if c := cmp.Compare(a.tier, b.tier); c != 0 {
+				return c
+			}
+			if c := cmp.Compare(phis[a.i], phis[b.i]); c != 0 {
+				return c
+			}
+			return cmp.Compare(a.i, b.i)
+		})
+		got := radixSort(keys, make([]sortKey, n))
+		if !slices.Equal(got, want) {
+			t.Errorf("%d keys: the radix sort's order differs from the comparison sort's", n)
+		}
 	}
 }

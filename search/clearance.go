@@ -14,17 +14,17 @@ import (
 // the axis or at the shared clear aperture; conics and aspheres are sampled.
 func (s *search) edgeClearance(a, b *cand, gap float64) float64 {
 	last, first := s.lastSurface(a), s.firstSurface(b)
-	h := math.Min(a.semi, b.semi)
+	h := min(a.semi, b.semi)
 	at := func(h float64) float64 {
 		za, _ := last.Sag(h)
 		zb, _ := first.Sag(h)
 		return gap - za + zb
 	}
-	least := math.Min(gap, at(h))
+	least := min(gap, at(h))
 	if last.IsAsphere() || first.IsAsphere() {
 		const samples = 32
 		for i := 1; i < samples; i++ {
-			least = math.Min(least, at(h*float64(i)/samples))
+			least = min(least, at(h*float64(i)/samples))
 		}
 	}
 	return least
@@ -38,18 +38,27 @@ func (s *search) quickClearance(a, b *cand, gap float64) float64 {
 	if last.IsAsphere() || first.IsAsphere() {
 		return math.Inf(-1)
 	}
-	return gap - s.backMax(a) + s.frontMin(b)
+	return gap - sagMax(last, a.semi) + sagMin(first, b.semi)
 }
 
 // frontMin is the least sag of c's first surface over its clear aperture
 // and backMax the greatest sag of its last: for spheres, what bounds the
 // edge clearance.
-func (s *search) frontMin(c *cand) float64 {
-	return sagExtreme(s.firstSurface(c), c.semi, math.Min)
+func (s *search) frontMin(c *cand) float64 { return sagMin(s.firstSurface(c), c.semi) }
+
+func (s *search) backMax(c *cand) float64 { return sagMax(s.lastSurface(c), c.semi) }
+
+// sagMin and sagMax are the least and greatest of the sags at 0 and h: the
+// extremes over heights 0 to h of a sphere, whose sag is monotonic. For a
+// conic or an asphere they mean nothing; edgeClearance samples those.
+func sagMin(s optics.Surface, h float64) float64 {
+	z, _ := s.Sag(h)
+	return min(0, z)
 }
 
-func (s *search) backMax(c *cand) float64 {
-	return sagExtreme(s.lastSurface(c), c.semi, math.Max)
+func sagMax(s optics.Surface, h float64) float64 {
+	z, _ := s.Sag(h)
+	return max(0, z)
 }
 
 // firstSurface is the first surface of candidate c as turned.
@@ -119,7 +128,7 @@ func (s *search) rayHeights(l *layout) {
 		front := (math.Abs(marg.y) + math.Abs(chief.y)) / c.semi
 		marg, chief = marg.through(c.m), chief.through(c.m)
 		back := (math.Abs(marg.y) + math.Abs(chief.y)) / c.semi
-		if r := math.Max(front, back); r > l.vigRatio {
+		if r := max(front, back); r > l.vigRatio {
 			l.vigRatio, l.vigPart = r, int8(k)
 		}
 	}
@@ -142,7 +151,7 @@ func (s *search) beamHeights(l *layout) {
 		front := 1.5 * g.Radius() / c.semi
 		g = g.Through(c.m, 1)
 		back := 1.5 * g.Radius() / c.semi
-		if r := math.Max(front, back); r > l.vigRatio {
+		if r := max(front, back); r > l.vigRatio {
 			l.vigRatio, l.vigPart = r, int8(k)
 		}
 	}

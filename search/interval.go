@@ -10,7 +10,7 @@ type iv struct{ lo, hi float64 }
 
 func pt(x float64) iv { return iv{x, x} }
 
-func span(a, b float64) iv { return iv{math.Min(a, b), math.Max(a, b)} }
+func span(a, b float64) iv { return iv{min(a, b), max(a, b)} }
 
 func (a iv) add(b iv) iv { return iv{a.lo + b.lo, a.hi + b.hi} }
 
@@ -25,13 +25,13 @@ func (a iv) mul(b iv) iv {
 func (a iv) sq() iv {
 	l, h := a.lo*a.lo, a.hi*a.hi
 	if a.lo <= 0 && a.hi >= 0 {
-		return iv{0, math.Max(l, h)}
+		return iv{0, max(l, h)}
 	}
 	return span(l, h)
 }
 
 // mag is the largest absolute value in the interval.
-func (a iv) mag() float64 { return math.Max(math.Abs(a.lo), math.Abs(a.hi)) }
+func (a iv) mag() float64 { return max(math.Abs(a.lo), math.Abs(a.hi)) }
 
 // holdsZero tells whether the interval, widened by margin, contains 0.
 func (a iv) holdsZero(margin float64) bool { return a.lo <= margin && a.hi >= -margin }
@@ -41,11 +41,11 @@ func (a iv) least() float64 {
 	if a.lo <= 0 && a.hi >= 0 {
 		return 0
 	}
-	return math.Min(math.Abs(a.lo), math.Abs(a.hi))
+	return min(math.Abs(a.lo), math.Abs(a.hi))
 }
 
 // meet is the intersection of two intervals (empty when lo > hi).
-func (a iv) meet(b iv) iv { return iv{math.Max(a.lo, b.lo), math.Min(a.hi, b.hi)} }
+func (a iv) meet(b iv) iv { return iv{max(a.lo, b.lo), min(a.hi, b.hi)} }
 
 // widen is the interval grown by a relative margin of its magnitude.
 func (a iv) widen(rel float64) iv {

@@ -43,25 +43,25 @@ func (s *search) buildTree(lo, hi int32) int32 {
 	n.semiMax = math.Inf(-1)
 	for i := lo; i < hi; i++ {
 		c := &s.c[i]
-		n.pMin, n.pMax = math.Min(n.pMin, c.P), math.Max(n.pMax, c.P)
-		n.ppMin, n.ppMax = math.Min(n.ppMin, c.Pp), math.Max(n.ppMax, c.Pp)
-		n.lMin = math.Min(n.lMin, c.L)
+		n.pMin, n.pMax = min(n.pMin, c.P), max(n.pMax, c.P)
+		n.ppMin, n.ppMax = min(n.ppMin, c.Pp), max(n.ppMax, c.Pp)
+		n.lMin = min(n.lMin, c.L)
 		d := c.sep()
-		n.dMin, n.dMax = math.Min(n.dMin, d), math.Max(n.dMax, d)
-		n.priceMin, n.awayMin = math.Min(n.priceMin, c.price), math.Min(n.awayMin, c.away())
-		n.semiMax = math.Max(n.semiMax, c.semi)
+		n.dMin, n.dMax = min(n.dMin, d), max(n.dMax, d)
+		n.priceMin, n.awayMin = min(n.priceMin, c.price), min(n.awayMin, c.away())
+		n.semiMax = max(n.semiMax, c.semi)
 	}
 	return id
 }
 
 func (n *node) bounds(l, r node) {
 	n.phiLo, n.phiHi = l.phiLo, r.phiHi
-	n.pMin, n.pMax = math.Min(l.pMin, r.pMin), math.Max(l.pMax, r.pMax)
-	n.ppMin, n.ppMax = math.Min(l.ppMin, r.ppMin), math.Max(l.ppMax, r.ppMax)
-	n.lMin = math.Min(l.lMin, r.lMin)
-	n.dMin, n.dMax = math.Min(l.dMin, r.dMin), math.Max(l.dMax, r.dMax)
-	n.priceMin, n.awayMin = math.Min(l.priceMin, r.priceMin), math.Min(l.awayMin, r.awayMin)
-	n.semiMax = math.Max(l.semiMax, r.semiMax)
+	n.pMin, n.pMax = min(l.pMin, r.pMin), max(l.pMax, r.pMax)
+	n.ppMin, n.ppMax = min(l.ppMin, r.ppMin), max(l.ppMax, r.ppMax)
+	n.lMin = min(l.lMin, r.lMin)
+	n.dMin, n.dMax = min(l.dMin, r.dMin), max(l.dMax, r.dMax)
+	n.priceMin, n.awayMin = min(l.priceMin, r.priceMin), min(l.awayMin, r.awayMin)
+	n.semiMax = max(l.semiMax, r.semiMax)
 }
 
 // margin widens every pruning test so that rounding never prunes a pair
@@ -88,7 +88,7 @@ func (s *search) open(a *cand, n *node) (bool, float64) {
 	// Envelope limit: the length maximum, and what the score bound allows.
 	envMax := s.lim.lengthMax
 	if !math.IsInf(bound, 1) {
-		envMax = math.Min(envMax, (bound+margin(bound)-rest)*s.sc.lref/s.sc.w.Envelope)
+		envMax = min(envMax, (bound+margin(bound)-rest)*s.sc.lref/s.sc.w.Envelope)
 	}
 	gMin := s.lim.gapMin
 	gMax := envMax - a.L - n.lMin
@@ -115,7 +115,7 @@ func (s *search) open(a *cand, n *node) (bool, float64) {
 	if !ok {
 		return false, rest
 	}
-	env := a.L + math.Max(gMin, gLo) + n.lMin
+	env := a.L + max(gMin, gLo) + n.lMin
 	lb := rest + s.sc.w.Envelope*env/s.sc.lref
 	if miss > 0 {
 		lb += s.sc.w.Error * s.sc.errTerm(miss)
@@ -143,7 +143,7 @@ func (s *search) openFocus(a *cand, n *node, f2 iv, gMin, gMax float64) (bool, f
 // and back clearance at their minimums; the score bound does the rest.
 func (s *search) openMatch(a *cand, n *node, gMin, gMax float64) (bool, float64) {
 	if T := s.req.Track; T > 0 {
-		gMax = math.Min(gMax, T-math.Max(0, s.lim.wdMin)-math.Max(0, s.lim.bfdMin)-a.L-n.lMin)
+		gMax = min(gMax, T-max(0, s.lim.wdMin)-max(0, s.lim.bfdMin)-a.L-n.lMin)
 	}
 	return gMax >= gMin-margin(gMin), gMin
 }
@@ -168,7 +168,7 @@ func (s *search) openExpand(a *cand, n *node, f2 iv, gMin, gMax float64) (bool, 
 	if ratio.lo < 0 && ratio.hi > 0 {
 		e.lo = 0
 	}
-	miss := math.Max(0, math.Max(e.lo-s.req.Expansion, s.req.Expansion-e.hi))
+	miss := max(0, max(e.lo-s.req.Expansion, s.req.Expansion-e.hi))
 	miss -= margin(s.req.Expansion)
 	return miss <= s.lim.admit, g.lo - margin(g.lo), miss
 }
@@ -192,7 +192,7 @@ func (s *search) openExpand(a *cand, n *node, f2 iv, gMin, gMax float64) (bool, 
 func (s *search) openImage(a *cand, n *node, gMin, gMax float64) (bool, float64) {
 	T := s.req.Track
 	// A real object and a real image: both distances are positive.
-	gMax = math.Min(gMax, T-math.Max(0, s.lim.wdMin)-math.Max(0, s.lim.bfdMin)-a.L-n.lMin)
+	gMax = min(gMax, T-max(0, s.lim.wdMin)-max(0, s.lim.bfdMin)-a.L-n.lMin)
 	if gMax < gMin-margin(gMin) {
 		return false, 0
 	}
@@ -246,8 +246,8 @@ func (s *search) imageRelation(a *cand, n *node, e iv) bool {
 // R = R_lo or R_hi with e as near R/2 as the box allows.
 func reMinusESq(R, e iv) iv {
 	f := func(r, x float64) float64 { return r*x - x*x }
-	lo := math.Min(math.Min(f(R.lo, e.lo), f(R.lo, e.hi)), math.Min(f(R.hi, e.lo), f(R.hi, e.hi)))
-	clamp := func(x float64) float64 { return math.Max(e.lo, math.Min(e.hi, x)) }
-	hi := math.Max(f(R.lo, clamp(R.lo/2)), f(R.hi, clamp(R.hi/2)))
+	lo := min(min(f(R.lo, e.lo), f(R.lo, e.hi)), min(f(R.hi, e.lo), f(R.hi, e.hi)))
+	clamp := func(x float64) float64 { return max(e.lo, min(e.hi, x)) }
+	hi := max(f(R.lo, clamp(R.lo/2)), f(R.hi, clamp(R.hi/2)))
 	return iv{lo, hi}
 }

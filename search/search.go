@@ -1,9 +1,11 @@
 package search
 
 import (
+	"cmp"
 	"container/heap"
 	"math"
 	"runtime"
+	"slices"
 	"sort"
 	"sync"
 	"sync/atomic"
@@ -199,7 +201,7 @@ func (s *search) prunedOnce() {
 	}
 	s.buildForest()
 	s.setAperture()
-	order, lb := s.firstOrder()
+	order := s.firstOrder()
 	workers := min(runtime.GOMAXPROCS(0), 4)
 	var next atomic.Int64
 	var wg sync.WaitGroup
@@ -215,8 +217,8 @@ func (s *search) prunedOnce() {
 				if n >= int64(len(order)) {
 					return
 				}
-				i := order[n]
-				if b := w.bound(); lb[i] > b+margin(b) {
+				i := order[n].i
+				if b := w.bound(); order[n].lb > b+margin(b) {
 					return // the first parts come by increasing bound
 				}
 				if w.firstOut(&w.c[i]) {
@@ -230,6 +232,9 @@ func (s *search) prunedOnce() {
 	for _, w := range ws {
 		s.merge(w)
 	}
+	// The trees are done with: the real-ray stage that follows need not
+	// hold them.
+	s.nodes, s.roots = nil, nil
 }
 
 // bestFirst solves a = candidate i followed by the second parts of the open
@@ -354,25 +359,35 @@ func (s *search) buildForest() {
 
 // firstOrder sorts the first parts by the least score any pair starting
 // with them can have, so that good pairs are found early and the loop can
-// stop once that least score passes the bound.
-func (s *search) firstOrder() ([]int32, []float64) {
+// stop once that least score passes the bound; ties keep the candidates'
+// order.
+func (s *search) firstOrder() []firstPart {
 	priceMin, awayMin, lMin := math.Inf(1), math.Inf(1), math.Inf(1)
 	for i := range s.c {
-		priceMin = math.Min(priceMin, s.c[i].price)
-		awayMin = math.Min(awayMin, s.c[i].away())
-		lMin = math.Min(lMin, s.c[i].L)
+		priceMin = min(priceMin, s.c[i].price)
+		awayMin = min(awayMin, s.c[i].away())
+		lMin = min(lMin, s.c[i].L)
 	}
 	w := s.sc.w
-	lb := make([]float64, len(s.c))
-	order := make([]int32, len(s.c))
+	order := make([]firstPart, len(s.c))
 	for i := range s.c {
 		a := &s.c[i]
-		order[i] = int32(i)
-		lb[i] = w.Elements + w.Price*(a.price+priceMin) + w.Drawer*(a.away()+awayMin) +
-			w.Envelope*(a.L+s.lim.gapMin+lMin)/s.sc.lref
+		order[i] = firstPart{i: int32(i), lb: w.Elements + w.Price*(a.price+priceMin) + w.Drawer*(a.away()+awayMin) +
+			w.Envelope*(a.L+s.lim.gapMin+lMin)/s.sc.lref}
 	}
-	sort.SliceStable(order, func(x, y int) bool { return lb[order[x]] < lb[order[y]] })
-	return order, lb
+	slices.SortFunc(order, func(x, y firstPart) int {
+		if x.lb != y.lb {
+			return cmp.Compare(x.lb, y.lb)
+		}
+		return cmp.Compare(x.i, y.i)
+	})
+	return order
+}
+
+// firstPart is a candidate and the least score of a pair it begins.
+type firstPart struct {
+	lb float64
+	i  int32
 }
 
 // sorted returns the kept layouts best first.

@@ -5,6 +5,7 @@ import (
 	"context"
 	"errors"
 	"fmt"
+	"runtime/debug"
 	"strings"
 
 	"github.com/spf13/cobra"
@@ -335,6 +336,9 @@ func runFind(o *findOptions) error {
 	if o.Req.Build.PartDefaults, err = st.PartTolerances(ctx); err != nil {
 		return catalogError(err)
 	}
+	if e.Getenv == nil || e.Getenv("GOGC") == "" {
+		defer debug.SetGCPercent(debug.SetGCPercent(findGCPercent))
+	}
 	out, err := findIndexed(ctx, st, o.Req)
 	if err != nil {
 		return err
@@ -367,6 +371,16 @@ func writeFind(e *env, o outputFlags, s saved.Search) error {
 	}
 	return render(e, e.Out, o, present.Results(s.Requirement, s.Results), doc)
 }
+
+// findGCPercent is the garbage collector's target while find searches and
+// prints, unless GOGC is set: the heap may grow 30 % past what the last
+// collection found live (the index and the candidates, some 30 MB at
+// 50,000 parts) before the next collection, instead of the default 100 %.
+// The real-ray stage makes most of the garbage; on the 50,000-part catalog
+// the lower target took 15-20 MiB off the peak resident memory with no
+// more CPU, the page faults it saves paying for the extra collections
+// (DEVELOPERS.md, "Speed").
+const findGCPercent = 30
 
 // findIndexed runs the search on the catalog's search index, which holds
 // every part the requirement may use (the drawer's only, for --drawer-only),
