@@ -79,7 +79,11 @@ func (s *Store) Close() error { return s.db.Close() }
 // point at a part that is not there. busy_timeout lets a second writer wait
 // for the first instead of failing; write transactions begin IMMEDIATE so
 // that two importers queue up rather than fail half-way with a stale
-// snapshot (read transactions stay deferred).
+// snapshot (read transactions stay deferred). The page cache is SQLite's
+// default (about 2 MiB) and the file is not memory-mapped: a 64 MiB cache
+// cost about 1 s of system time to free after a 50,000-part import, and a
+// 256 MiB mapping added 17 MiB (50,000 parts) to 70 MiB (200,000) to the
+// resident memory of a find, for no CPU saved (DEVELOPERS.md, "Speed").
 func dsn(path string) string {
 	return dsnMode(path, "")
 }
@@ -107,7 +111,7 @@ func SetLockWait(d time.Duration) { lockWait.Store(int64(max(d, 0))) }
 // only, "ro-immutable" read only without locks for a file in a folder no
 // one can write (SQLite's immutable URI parameter).
 func dsnMode(path, mode string) string {
-	q := fmt.Sprintf("?_pragma=foreign_keys(1)&_pragma=busy_timeout(%d)&_pragma=temp_store(2)&_pragma=mmap_size(268435456)&_txlock=immediate", LockWait().Milliseconds())
+	q := fmt.Sprintf("?_pragma=foreign_keys(1)&_pragma=busy_timeout(%d)&_pragma=temp_store(2)&_txlock=immediate", LockWait().Milliseconds())
 	if path == Memory {
 		return Memory + q
 	}
