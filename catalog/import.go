@@ -31,7 +31,12 @@ type ImportReport struct {
 func (s *Store) Import(ctx context.Context, entries []record.Entry, dryRun bool) (_ ImportReport, err error) {
 	defer s.classify(&err)
 	rep := ImportReport{DryRun: dryRun}
-	tx, err := s.db.BeginTx(ctx, nil)
+	conn, err := s.db.Conn(ctx)
+	if err != nil {
+		return rep, s.wrapWriteError(err)
+	}
+	defer conn.Close()
+	tx, err := conn.BeginTx(ctx, nil)
 	if err != nil {
 		return rep, s.wrapWriteError(err)
 	}
@@ -44,7 +49,8 @@ func (s *Store) Import(ctx context.Context, entries []record.Entry, dryRun bool)
 		return rep, &ImportError{Rows: bad}
 	}
 	stored := parallel(len(entries), func(i int) storedEntry { return newStoredEntry(entries[i]) })
-	w := newTxWriter(tx)
+	w := newConnWriter(conn, tx)
+	defer w.close()
 	found, err := storedParts(ctx, w, entries)
 	if err != nil {
 		return rep, err

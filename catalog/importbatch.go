@@ -31,18 +31,26 @@ func parallel[T any](n int, f func(i int) T) []T {
 // A piped is a sequence of values worked out ahead, in runs, by
 // goroutines on the processors, while its reader takes them in order.
 type piped[T any] struct {
-	runs []chan []T
-	cur  []T
-	base int
+	runs  []chan []T
+	ahead chan struct{} // a token for each run worked out and not yet read
+	done  chan struct{} // closed by stop
+	cur   []T
+	base  int
 }
 
-// pipeRun is the number of values worked out together.
-const pipeRun = 512
+// pipeRun is the number of values worked out together, and pipeAhead the
+// number of runs worked out ahead of the reader at most (so that the
+// values are not all held at once).
+const (
+	pipeRun   = 512
+	pipeAhead = 4
+)
 
 // pipeline starts working out f(0), ..., f(n-1); at(i) waits for f(i).
-// The values must be read in order.
+// The values must be read in order; stop it when done.
 func pipeline[T any](n int, f func(i int) T) *piped[T] {
-	p := &piped[T]{runs: make([]chan []T, (n+pipeRun-1)/pipeRun)}
+	p := &piped[T]{runs: make([]chan []T, (n+pipeRun-1)/pipeRun), ahead: make(chan struct{}, pipeAhead),
+		done: make(chan struct{})}
 	for k := range p.runs {
 		p.runs[k] = make(chan []T, 1)
 	}
@@ -50,8 +58,14 @@ func pipeline[T any](n int, f func(i int) T) *piped[T] {
 	for range max(1, runtime.GOMAXPROCS(0)) {
 		go func() {
 			for {
+				select {
+				case p.ahead <- struct{}{}:
+				case <-p.done:
+					return
+				}
 				k := int(next.Add(1) - 1)
 				if k >= len(p.runs) {
+					<-p.ahead
 					return
 				}
 				out := make([]T, min(pipeRun, n-k*pipeRun))
@@ -65,11 +79,16 @@ func pipeline[T any](n int, f func(i int) T) *piped[T] {
 	return p
 }
 
+// stop ends the work of a pipeline whose reader stops early (and does
+// nothing after the last value was read).
+func (p *piped[T]) stop() { close(p.done) }
+
 // at returns f(i), waiting for it; i must not go back.
 func (p *piped[T]) at(i int) *T {
 	for i >= p.base+len(p.cur) {
 		p.base += len(p.cur)
 		p.cur = <-p.runs[p.base/pipeRun]
+		<-p.ahead
 	}
 	return &p.cur[i-p.base]
 }
@@ -82,12 +101,57 @@ type newPart struct {
 }
 
 // newRows is what the catalog stores of a new part besides its
-// prescription: both orientations, its kind and its index record.
+// prescription, worked out ahead of the writer: the values of its rows in
+// each table, row after row, and its index record.
 type newRows struct {
-	kind             string
-	fwd, rev         Orientation
-	record           []byte
-	length, aperture float64
+	parts, surfaces, warnings, computed []any
+	record                              []byte
+}
+
+// newPartRows works out the rows of a new part.
+func newPartRows(np newPart, glasses optics.GlassTable) newRows {
+	e, id := np.e, np.id
+	p := e.Part
+	indexed := e.Entry
+	indexed.Part = catalogMedia(p, glasses)
+	rec := newIndexRecord(id, indexed)
+	r := newRows{record: rec.encode(nil)}
+	r.parts = []any{id, p.Supplier, p.Name, p.Description, p.Diameter, p.ClearAperture, kindOf(p),
+		nullIfZero(e.StatedEFL), nullIfZero(e.StatedBFD), nullIfZero(e.StatedEdge),
+		nullIfZero(e.StatedWavelength), nullIfZero(e.Price), e.Currency, e.URL, e.Notes, e.fingerprint,
+		nullIfZero(e.Tolerances.EFLPct), nullIfZero(e.Tolerances.Thickness), nullIfZero(e.Tolerances.Index),
+		nullIfZero(e.Tolerances.RadiusPct), coatingValue(p.Coating)}
+	r.surfaces = make([]any, 0, 13*len(p.Surfaces))
+	for k, s := range p.Surfaces {
+		var thickness, glass any
+		if k < len(p.Thickness) {
+			thickness, glass = p.Thickness[k], mediumName(p.Media[k])
+		}
+		r.surfaces = append(r.surfaces, id, int64(k+1), radiusValue(s.Radius), s.Conic,
+			s.Asph[0], s.Asph[1], s.Asph[2], s.Asph[3], s.Asph[4], s.Asph[5], s.Asph[6], thickness, glass)
+	}
+	seq := int64(0)
+	for _, list := range []struct {
+		msgs     []string
+		computed bool
+	}{{e.other, false}, {e.computed, true}} {
+		for _, m := range list.msgs {
+			seq++
+			r.warnings = append(r.warnings, id, seq, m, list.computed)
+		}
+	}
+	length, aperture := p.Length(), p.Aperture()
+	r.computed = make([]any, 0, 24)
+	for _, rev := range []bool{false, true} {
+		o := orient(p, rev)
+		var efl, bfd, ffd, pp, ppp any
+		if !o.Afocal {
+			efl, bfd, ffd, pp, ppp = o.EFL, o.BFD, o.FFD, o.P, o.PPrime
+		}
+		r.computed = append(r.computed, id, o.Reversed, o.Wavelength, o.Power, efl, bfd, ffd, pp, ppp,
+			length, p.Diameter, aperture)
+	}
+	return r
 }
 
 // writeNewParts adds the parts, computing their columns on the processors
@@ -109,15 +173,8 @@ func writeNewParts(ctx context.Context, w *txWriter, parts []newPart, glasses op
 	}
 	// The rows are worked out on the other processors while this goroutine
 	// writes the ones before them.
-	rows := pipeline(len(parts), func(i int) newRows {
-		e := parts[i].e
-		p := e.Part
-		indexed := e.Entry
-		indexed.Part = catalogMedia(p, glasses)
-		r := newIndexRecord(parts[i].id, indexed)
-		return newRows{kind: kindOf(p), fwd: orient(p, false), rev: orient(p, true),
-			record: r.encode(nil), length: p.Length(), aperture: p.Aperture()}
-	})
+	rows := pipeline(len(parts), func(i int) newRows { return newPartRows(parts[i], glasses) })
+	defer rows.stop()
 	ins := []*batch{
 		newBatch(w, `INSERT INTO parts (id, supplier, part, description, diameter_mm, clear_aperture_mm, kind,
 			stated_efl_mm, stated_bfd_mm, stated_edge_mm, stated_wavelength_nm, price, currency, url, notes, fingerprint,
@@ -132,48 +189,16 @@ func writeNewParts(ctx context.Context, w *txWriter, parts []newPart, glasses op
 		b.parent = partRows // the parts a row refers to go in first
 	}
 	for i, np := range parts {
-		e, id, r := np.e, np.id, rows.at(i)
-		p := e.Part
-		if err := partRows.add(ctx, id, p.Supplier, p.Name, p.Description, p.Diameter, p.ClearAperture, r.kind,
-			nullIfZero(e.StatedEFL), nullIfZero(e.StatedBFD), nullIfZero(e.StatedEdge),
-			nullIfZero(e.StatedWavelength), nullIfZero(e.Price), e.Currency, e.URL, e.Notes, e.fingerprint,
-			nullIfZero(e.Tolerances.EFLPct), nullIfZero(e.Tolerances.Thickness), nullIfZero(e.Tolerances.Index),
-			nullIfZero(e.Tolerances.RadiusPct), coatingValue(p.Coating)); err != nil {
-			return err
-		}
-		for k, s := range p.Surfaces {
-			var thickness, glass any
-			if k < len(p.Thickness) {
-				thickness, glass = p.Thickness[k], mediumName(p.Media[k])
-			}
-			if err := surfaces.add(ctx, id, k+1, radiusValue(s.Radius), s.Conic,
-				s.Asph[0], s.Asph[1], s.Asph[2], s.Asph[3], s.Asph[4], s.Asph[5], s.Asph[6], thickness, glass); err != nil {
+		r := rows.at(i)
+		for _, t := range []struct {
+			b    *batch
+			vals []any
+		}{{partRows, r.parts}, {surfaces, r.surfaces}, {warnings, r.warnings}, {computed, r.computed}} {
+			if err := t.b.add(ctx, t.vals...); err != nil {
 				return err
 			}
 		}
-		seq := 0
-		for _, list := range []struct {
-			msgs     []string
-			computed bool
-		}{{e.other, false}, {e.computed, true}} {
-			for _, m := range list.msgs {
-				seq++
-				if err := warnings.add(ctx, id, seq, m, list.computed); err != nil {
-					return err
-				}
-			}
-		}
-		for _, o := range []Orientation{r.fwd, r.rev} {
-			var efl, bfd, ffd, pp, ppp any
-			if !o.Afocal {
-				efl, bfd, ffd, pp, ppp = o.EFL, o.BFD, o.FFD, o.P, o.PPrime
-			}
-			if err := computed.add(ctx, id, o.Reversed, o.Wavelength, o.Power, efl, bfd, ffd, pp, ppp,
-				r.length, p.Diameter, r.aperture); err != nil {
-				return err
-			}
-		}
-		w.putIndex(id, r.record)
+		w.putIndex(np.id, r.record)
 	}
 	for _, b := range ins {
 		if err := b.flush(ctx); err != nil {
@@ -240,14 +265,19 @@ func newBatch(w *txWriter, head string, cols int) *batch {
 	return &batch{w: w, head: head, cols: cols, args: make([]any, 0, batchRows*cols)}
 }
 
+// add adds rows, their values one row after another.
 func (b *batch) add(ctx context.Context, vals ...any) error {
-	if len(vals) != b.cols {
+	if len(vals)%b.cols != 0 {
 		panic("catalog: batch row of the wrong width")
 	}
-	b.args = append(b.args, vals...)
-	b.rows++
-	if b.rows == batchRows {
-		return b.flush(ctx)
+	for ; len(vals) > 0; vals = vals[b.cols:] {
+		b.args = append(b.args, vals[:b.cols]...)
+		b.rows++
+		if b.rows == batchRows {
+			if err := b.flush(ctx); err != nil {
+				return err
+			}
+		}
 	}
 	return nil
 }
@@ -263,7 +293,7 @@ func (b *batch) flush(ctx context.Context) error {
 	}
 	row := "(" + placeholders(b.cols) + ")"
 	q := b.head + " VALUES " + strings.TrimSuffix(strings.Repeat(row+", ", b.rows), ", ")
-	_, err := b.w.exec(ctx, q, b.args...)
+	err := b.w.execValues(ctx, q, b.args)
 	b.rows, b.args = 0, b.args[:0]
 	return err
 }
