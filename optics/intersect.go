@@ -101,8 +101,10 @@ func (s Surface) normal(q Vec3) Vec3 {
 // n' r' = n r + (n' cos I' - n cos I) nrm (Welford, Aberrations of Optical
 // Systems, 1986, ch. 4; Spencer and Murty 1962). It returns false on
 // total internal reflection.
-func refract(d, nrm Vec3, n1, n2 float64) (Vec3, bool) {
-	mu := n1 / n2
+func refract(d, nrm Vec3, n1, n2 float64) (Vec3, bool) { return refractMu(d, nrm, n1/n2) }
+
+// refractMu is refract with the ratio of the indices mu = n1 / n2.
+func refractMu(d, nrm Vec3, mu float64) (Vec3, bool) {
 	cosI := d.Dot(nrm)
 	k := 1 - mu*mu*(1-cosI*cosI)
 	if k < 0 {

@@ -255,3 +255,73 @@ func TestAssessRepeats(t *testing.T) {
 		}
 	}
 }
+
+// refTrace is Trace from the surfaces' own methods at every crossing.
+func refTrace(t *Tracer, r Ray, imageZ float64) Path {
+	p := Path{Surface: -1, Points: make([]Vec3, 0, len(t.Vertex))}
+	pos, dir := r.Pos, r.Dir.Unit()
+	for i := range t.Vertex {
+		surf := t.System.Surfaces[i]
+		origin := Vec3{Z: t.Vertex[i]}
+		local := pos.Sub(origin)
+		s, ok := surf.intersect(local, dir)
+		if !ok || (i > 0 && s < -newtonTol) {
+			p.Status, p.Surface, p.Dir = Missed, i, dir
+			return p
+		}
+		q := local.Add(dir.Scale(s))
+		hit := q.Add(origin)
+		if t.clipped(i, q.Height()) {
+			p.Status, p.Surface, p.Dir = Clipped, i, dir
+			p.Points = append(p.Points, hit)
+			return p
+		}
+		p.Points = append(p.Points, hit)
+		p.OPL += t.N[i] * s
+		d, ok := refract(dir, surf.normal(q), t.N[i], t.N[i+1])
+		if !ok {
+			p.Status, p.Surface, p.Dir = TotalReflection, i, dir
+			return p
+		}
+		p.Dir = d.Unit()
+		pos, dir = hit, p.Dir
+	}
+	s := (t.LastVertex() + imageZ - pos.Z) / dir.Z
+	p.Image = pos.Add(dir.Scale(s))
+	p.OPL += t.N[len(t.N)-1] * s
+	return p
+}
+
+func TestTraceIsTheSurfacesOwn(t *testing.T) {
+	// The tracer keeps each surface's curvature, kind and index ratio
+	// from ray to ray; a trace must stay the one the surfaces' own
+	// methods give, compared with ==, spheres, planes and aspheres, lost
+	// rays included.
+	glass, _ := GlassCode("517642")
+	asph := Surface{Radius: 25, Conic: -0.6, Asph: [7]float64{2e-6, -1e-9}}
+	asphPart := Part{Supplier: "T", Name: "ASPH", Diameter: 25, Surfaces: []Surface{asph, Sphere(math.Inf(1))},
+		Thickness: []float64{6}, Media: []Medium{glass}}
+	cases := reuseSystems(t)
+	cases = append(cases, struct {
+		name  string
+		sys   System
+		obj   Object
+		field float64
+	}{"asphere", asphPart.System(nil, nil), Object{Z: math.Inf(-1), Aperture: Aperture{Beam: 20}}, 2})
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			for _, wl := range []float64{LineF, LineD, LineC} {
+				b, err := c.sys.Bundle(c.obj, c.field, wl, Hexapolar(10))
+				if err != nil {
+					t.Fatal(err)
+				}
+				tc := c.sys.Tracer(wl)
+				for i, r := range b.Rays {
+					if got, want := tc.Trace(r, 50), refTrace(tc, r, 50); !reflect.DeepEqual(got, want) {
+						t.Fatalf("ray %d at %g nm: %+v, want %+v", i, wl, got, want)
+					}
+				}
+			}
+		})
+	}
+}

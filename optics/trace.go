@@ -67,6 +67,16 @@ type Tracer struct {
 	// where the rays end, their directions and path lengths (spots,
 	// wavefronts), so that a trace allocates nothing per ray.
 	NoPoints bool
+	// fixed holds what does not change from ray to ray for each surface,
+	// worked out once by System.Tracer.
+	fixed []surfaceFixed
+}
+
+// surfaceFixed is a surface's curvature, whether it is a sphere (or a
+// plane), and the ratio of the indices before and after it.
+type surfaceFixed struct {
+	curv, mu float64
+	sphere   bool
 }
 
 // Tracer prepares a real-ray trace of the system at a wavelength.
@@ -76,7 +86,11 @@ func (s System) Tracer(wavelengthNm float64) *Tracer {
 	for i := 1; i < len(v); i++ {
 		v[i] = v[i-1] + s.Gaps[i-1]
 	}
-	return &Tracer{System: s, Wavelength: wavelengthNm, N: n, Vertex: v}
+	t := &Tracer{System: s, Wavelength: wavelengthNm, N: n, Vertex: v, fixed: make([]surfaceFixed, len(s.Surfaces))}
+	for i, sf := range s.Surfaces {
+		t.fixed[i] = surfaceFixed{curv: sf.Curvature(), mu: n[i] / n[i+1], sphere: !sf.IsAsphere()}
+	}
+	return t
 }
 
 // LastVertex is the z of the last surface's vertex.
@@ -116,10 +130,17 @@ func (t *Tracer) trace(r Ray, imageZ float64, pts []Vec3) Path {
 // crossSurface carries the ray from pos to surface i and refracts it there,
 // recording the point, the new direction and the path length in p.
 func (t *Tracer) crossSurface(i int, pos, dir Vec3, p *Path) (Vec3, bool) {
-	surf := t.System.Surfaces[i]
 	origin := Vec3{Z: t.Vertex[i]}
 	local := pos.Sub(origin)
-	s, ok := surf.intersect(local, dir)
+	f := &t.fixed[i]
+	c, sphere := f.curv, f.sphere
+	var s float64
+	var ok bool
+	if sphere {
+		s, ok = intersectSphere(c, local, dir) // Surface.intersect of a sphere
+	} else {
+		s, ok = t.System.Surfaces[i].intersect(local, dir)
+	}
 	if !ok || (i > 0 && s < -newtonTol) {
 		return t.stop(p, i, Missed, Vec3{}, false)
 	}
@@ -132,7 +153,13 @@ func (t *Tracer) crossSurface(i int, pos, dir Vec3, p *Path) (Vec3, bool) {
 		p.Points = append(p.Points, hit)
 	}
 	p.OPL += t.N[i] * s
-	d, ok := refract(dir, surf.normal(q), t.N[i], t.N[i+1])
+	var nrm Vec3
+	if sphere {
+		nrm = Vec3{-c * q.X, -c * q.Y, 1 - c*q.Z} // Surface.normal of a sphere
+	} else {
+		nrm = t.System.Surfaces[i].normal(q)
+	}
+	d, ok := refractMu(dir, nrm, f.mu)
 	if !ok {
 		return t.stop(p, i, TotalReflection, Vec3{}, false)
 	}

@@ -115,11 +115,12 @@ func (b *bundleAt) rms(c Vec3) float64 {
 	}
 	var sw, s1, s2, off float64
 	k := 0
+	r2 := radius * radius
 	for i := range b.rays {
 		r := &b.rays[i]
 		v := r.p.Sub(c)
 		bb := v.Dot(r.d)
-		disc := bb*bb - v.Dot(v) + radius*radius
+		disc := bb*bb - v.Dot(v) + r2
 		if disc < 0 {
 			continue
 		}
