@@ -46,8 +46,8 @@ func TestBuildValueIsBuildBitForBit(t *testing.T) {
 	}
 }
 
-func TestPercentilesBySelectionAreBySort(t *testing.T) {
-	// Selecting the order statistics must give what sorting gives (the
+func TestPercentilesFromHeapsAreBySort(t *testing.T) {
+	// Finding the order statistics in a heap must give what sorting gives (the
 	// definition of an order statistic), exactly, with ties and with the
 	// percentiles asked in any order.
 	sorted := func(v []float64, p float64) float64 { // definition 7 of Hyndman and Fan (1996), on a sorted copy

@@ -159,7 +159,7 @@ func (m *model) study(b BuildSettings, stream uint64) Study {
 	st.Compensator, st.Trials = m.comp, n
 	st.Yield = 100 * float64(met) / float64(n)
 	if len(st.Adjust) > 0 {
-		scratch := make([]float64, len(st.Adjust))
+		scratch := make([]float64, 0, 64)
 		st.AdjustLow, st.AdjustHigh = percentilesIn(scratch, st.Adjust, 2.5, 97.5)
 		lo, hi := percentilesIn(scratch, st.Figure, 2.5, 97.5)
 		st.SpreadLow, st.SpreadHigh = m.pct(lo), m.pct(hi)
@@ -259,84 +259,96 @@ func dominant(ss []Sensitivity, tol float64) string {
 // interpolation between order statistics (definition 7 of R. J. Hyndman
 // and Y. Fan, The American Statistician 50, 361, 1996). v is not changed.
 func percentiles(v []float64, ps ...float64) (lo, hi float64) {
-	return percentilesIn(make([]float64, len(v)), v, ps...)
+	return percentilesIn(nil, v, ps...)
 }
 
-// percentilesIn is percentiles with scratch space s, as long as v: the
-// order statistics it needs are selected (selectKth), not sorted for, and
-// are the very values a sort would put at those places.
+// percentilesIn is percentiles with scratch space s (any length): the
+// two order statistics each percentile needs are found among the few
+// values in its tail (orderPair), not by sorting; they are the very values
+// a sort would put at those places.
 func percentilesIn(s, v []float64, ps ...float64) (lo, hi float64) {
-	s = s[:len(v)]
-	copy(s, v)
-	done := 0 // s[:done] holds the smallest done values; s[done:] the rest
 	q := func(p float64) float64 {
-		h := (float64(len(s)) - 1) * p / 100
+		h := (float64(len(v)) - 1) * p / 100
 		i := int(math.Floor(h))
-		if i+1 >= len(s) {
-			return orderStat(s, &done, len(s)-1)
+		a, b := orderPair(v, min(i, len(v)-1), s)
+		if i+1 >= len(v) {
+			return b
 		}
-		a := orderStat(s, &done, i)
-		b := orderStat(s, &done, i+1)
 		return a + (h-float64(i))*(b-a)
 	}
 	return q(ps[0]), q(ps[1])
 }
 
-// orderStat is the k-th smallest of s (from 0). Between calls s[:*done]
-// holds the smallest *done values (in no particular order), so a k below
-// *done is selected among them and a larger one among the rest, either
-// way keeping that so.
-func orderStat(s []float64, done *int, k int) float64 {
-	if k < *done {
-		selectKth(s[:*done], k)
-		return s[k]
+// orderPair is the k-th and (k+1)-th smallest values of v (from 0; both
+// the largest when k is the last place). It keeps the k+2 smallest values
+// (or, when fewer, the len(v)-k largest, by the same on -v: negation is
+// exact) in a heap in h, so it passes over v once and sorts nothing
+// (J. W. J. Williams, Algorithm 232: Heapsort, Communications of the ACM
+// 7, 347, 1964, for the heap).
+func orderPair(v []float64, k int, h []float64) (a, b float64) {
+	n := len(v)
+	if k >= n-1 {
+		m := v[0]
+		for _, x := range v {
+			m = max(m, x)
+		}
+		return m, m
 	}
-	selectKth(s[*done:], k-*done)
-	*done = k + 1
-	return s[k]
+	if k+2 <= n-k {
+		return smallestPair(v, k, h, false)
+	}
+	// With t the values of -v in order, t[i] = -(the (n-1-i)-th of v),
+	// so the k-th and (k+1)-th of v are -t[n-1-k] and -t[n-2-k].
+	x, y := smallestPair(v, n-2-k, h, true)
+	return -y, -x
 }
 
-// selectKth reorders s so that s[k] is the value a sort would put there,
-// every value before it no greater and every value after it no smaller:
-// Hoare's selection (C. A. R. Hoare, Algorithm 65: FIND, Communications
-// of the ACM 4, 321, 1961), with the median of three as the pivot. The
-// values are never NaN (study keeps no NaN).
-func selectKth(s []float64, k int) {
-	lo, hi := 0, len(s)-1
-	for hi > lo {
-		mid := lo + (hi-lo)/2
-		if s[mid] < s[lo] {
-			s[mid], s[lo] = s[lo], s[mid]
-		}
-		if s[hi] < s[lo] {
-			s[hi], s[lo] = s[lo], s[hi]
-		}
-		if s[hi] < s[mid] {
-			s[hi], s[mid] = s[mid], s[hi]
-		}
-		pivot := s[mid]
-		i, j := lo, hi
-		for i <= j {
-			for s[i] < pivot {
-				i++
-			}
-			for pivot < s[j] {
-				j--
-			}
-			if i <= j {
-				s[i], s[j] = s[j], s[i]
-				i++
-				j--
-			}
+// smallestPair is the k-th and (k+1)-th smallest of v (of -v when neg),
+// k+1 below len(v), from a heap of the k+2 smallest whose root is the
+// largest of them.
+func smallestPair(v []float64, k int, h []float64, neg bool) (a, b float64) {
+	m := k + 2
+	h = h[:0]
+	for _, x := range v {
+		if neg {
+			x = -x
 		}
 		switch {
-		case k <= j:
-			hi = j
-		case k >= i:
-			lo = i
-		default:
-			return // s[j+1:i] all equal the pivot, and k lies among them
+		case len(h) < m:
+			h = append(h, x)
+			for c := len(h) - 1; c > 0 && h[(c-1)/2] < h[c]; c = (c - 1) / 2 {
+				h[c], h[(c-1)/2] = h[(c-1)/2], h[c]
+			}
+		case x < h[0]:
+			h[0] = x
+			siftDown(h)
 		}
+	}
+	// h[0] is the (k+1)-th smallest; the k-th is the larger of its
+	// children (the heap has m >= 2 values).
+	a = h[1]
+	if len(h) > 2 {
+		a = max(a, h[2])
+	}
+	return a, h[0]
+}
+
+// siftDown restores the heap order (each value no smaller than its
+// children) after the root changed.
+func siftDown(h []float64) {
+	for i := 0; ; {
+		c := 2*i + 1
+		if c >= len(h) {
+			return
+		}
+		if c+1 < len(h) && h[c] < h[c+1] {
+			c++
+		}
+		if h[c] <= h[i] {
+			return
+		}
+		h[i], h[c] = h[c], h[i]
+		i = c
 	}
 }
 
