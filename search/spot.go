@@ -14,6 +14,7 @@ import (
 type spotRays struct {
 	wl     float64
 	object optics.Object // Z is set per build for a finite object
+	rings  int           // of the bundle's hexapolar pattern
 	points []optics.PupilPoint
 }
 
@@ -28,7 +29,7 @@ func newSpotRays(req Requirement) *spotRays {
 		return nil
 	}
 	c := req.Conditions(0, 0)
-	return &spotRays{wl: c.Reference, object: c.Object, points: optics.Hexapolar(spotRings)}
+	return &spotRays{wl: c.Reference, object: c.Object, rings: spotRings}
 }
 
 // spot is the on-axis RMS spot radius of one compensated build, um: real
@@ -52,6 +53,9 @@ func (m *model) spot(d draw, t trial) (rms float64, ok bool) {
 	obj := m.rays.object
 	if !obj.AtInfinity() {
 		obj.Z = -t.at.wd
+	}
+	if m.rays.points == nil { // worked out here: most studies trace nothing
+		m.rays.points = optics.Hexapolar(m.rays.rings)
 	}
 	b, err := sys.Bundle(obj, 0, m.rays.wl, m.rays.points)
 	if err != nil {
@@ -125,7 +129,7 @@ func findSpots(req Requirement, sus []Setup) []*Study {
 		if err != nil || m.rays == nil {
 			return
 		}
-		m.rays.points = optics.Hexapolar(findSpotRings)
+		m.rays.rings = findSpotRings
 		var st Study
 		m.spots(req.Build, streamOf(sus[i]), FindSpotBuilds, &st)
 		out[i] = &st
