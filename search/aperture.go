@@ -34,6 +34,7 @@ const apertureSlack = 1e-9
 // expand with a beam diameter, when the search is strict.
 func (s *search) setAperture() {
 	s.beamY = 0
+	s.setImage()
 	if !s.req.ChecksAperture() {
 		return
 	}
@@ -42,6 +43,28 @@ func (s *search) setAperture() {
 		s.beamY, s.phi0 = s.req.BeamDiameter()/2, 1/s.req.EFL
 	case Expand:
 		s.beamY, s.phi0 = s.req.BeamDiameter()/2, 0
+	}
+}
+
+// imageTerms are the figures of an image requirement that imageOpen and
+// imageRelation use for every node they test, worked out once per search
+// (the same operations, so the same values, as written out in full).
+type imageTerms struct {
+	oneMinusInvM, oneMinusM float64 // 1 - 1/m and 1 - m
+	mm                      float64 // 2 - m - 1/m
+	slack                   float64 // 1e-6 of the track
+	bcLo                    float64 // least back clearance: 0, or the minimum when strict
+	naChecked               bool    // strict, and the marginal ray's height is checked at b
+}
+
+// setImage works out the image terms for the search as it is now (strict
+// or not).
+func (s *search) setImage() {
+	m := s.req.Mag
+	s.img = imageTerms{oneMinusInvM: 1 - 1/m, oneMinusM: 1 - m, mm: 2 - m - 1/m, slack: 1e-6 * s.req.Track}
+	if s.strict() {
+		s.img.bcLo = max(0, s.lim.bfdMin)
+		s.img.naChecked = s.req.ChecksAperture() && s.req.NA > 0
 	}
 }
 
@@ -140,7 +163,6 @@ func (s *search) imageWindow(a *cand) iv {
 // ray heights are checked, with the marginal ray, of angle NA / m there,
 // within b's clear aperture at its last vertex.
 func (s *search) imageOpen(a *cand, n *node, e iv, win iv) bool {
-	m := s.req.Mag
 	wd, bc := iv{math.Inf(-1), math.Inf(1)}, iv{math.Inf(-1), math.Inf(1)}
 	var den [4]float64
 	var wq, bq [4]float64
@@ -148,8 +170,8 @@ func (s *search) imageOpen(a *cand, n *node, e iv, win iv) bool {
 	for _, x := range [2]float64{e.lo, e.hi} {
 		for _, p := range [2]float64{n.phiLo, n.phiHi} {
 			den[k] = a.phi + p - x*a.phi*p
-			wq[k] = (1 - 1/m - x*p) / den[k]
-			bq[k] = (1 - m - x*a.phi) / den[k]
+			wq[k] = (s.img.oneMinusInvM - x*p) / den[k]
+			bq[k] = (s.img.oneMinusM - x*a.phi) / den[k]
 			k++
 		}
 	}
@@ -157,16 +179,13 @@ func (s *search) imageOpen(a *cand, n *node, e iv, win iv) bool {
 		wd = hull(wq).sub(pt(a.P))
 		bc = hull(bq).add(iv{n.ppMin, n.ppMax})
 	}
-	slack := 1e-6 * s.req.Track
+	slack := s.img.slack
 	if wd.hi+slack+1e-6*math.Abs(wd.hi) < win.lo || wd.lo-slack-1e-6*math.Abs(wd.lo) > win.hi {
 		return false
 	}
-	bcLo, bcHi := 0.0, math.Inf(1)
-	if s.strict() {
-		bcLo = max(0, s.lim.bfdMin)
-		if s.req.ChecksAperture() && s.req.NA > 0 {
-			bcHi = math.Abs(m) * n.semiMax * (1 + apertureSlack) / s.req.NA
-		}
+	bcLo, bcHi := s.img.bcLo, math.Inf(1)
+	if s.img.naChecked {
+		bcHi = math.Abs(s.req.Mag) * n.semiMax * (1 + apertureSlack) / s.req.NA
 	}
 	if bc.hi+slack+1e-6*math.Abs(bc.hi) < bcLo || bc.lo-slack-1e-6*math.Abs(bc.lo) > bcHi {
 		return false

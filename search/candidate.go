@@ -89,6 +89,7 @@ type prepared struct {
 	tols      func(item int32) optics.Tolerances
 	fetch     func(items []int32) error
 	cands     []cand // sorted by tier, then power
+	forest    forest // built by the first search that prunes, freed after the first-order ranking
 	skipped   map[string]int
 	warnings  []string
 	outside   []string           // media used outside their dispersion range
@@ -418,6 +419,14 @@ func orderedBits(x float64) uint64 {
 		return ^u
 	}
 	return u | 1<<63
+}
+
+// fromOrderedBits is the float64 x of orderedBits(x).
+func fromOrderedBits(u uint64) float64 {
+	if u>>63 != 0 {
+		return math.Float64frombits(u &^ (1 << 63))
+	}
+	return math.Float64frombits(^u)
 }
 
 // radixSort sorts keys by tier, then u, ties in their order: one stable

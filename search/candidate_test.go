@@ -75,6 +75,9 @@ func TestRadixSortMatchesComparison(t *testing.T) {
 			}
 			phis[i] = phi
 			keys[i] = sortKey{u: orderedBits(phi), i: int32(i), tier: int8(r.IntN(8))}
+			if back := fromOrderedBits(keys[i].u); back != phi {
+				t.Fatalf("fromOrderedBits(orderedBits(%g)) = %g", phi, back)
+			}
 		}
 		want := slices.Clone(keys)
 		slices.SortFunc(want, func(a, b sortKey) int {
@@ -89,6 +92,29 @@ func TestRadixSortMatchesComparison(t *testing.T) {
 		got := radixSort(keys, make([]sortKey, n))
 		if !slices.Equal(got, want) {
 			t.Errorf("%d keys: the radix sort's order differs from the comparison sort's", n)
+		}
+	}
+}
+
+// forestSize counts the nodes buildForest makes, so that their slice is
+// allocated once.
+func TestForestSize(t *testing.T) {
+	r := rand.New(rand.NewPCG(3, 4))
+	for _, n := range []int{0, 1, 8, 9, 17, 1000, 4097} {
+		cs := make([]cand, n)
+		for i := range cs {
+			cs[i] = cand{phi: r.Float64() - 0.4, tier: int8(r.IntN(3))}
+		}
+		slices.SortFunc(cs, func(a, b cand) int {
+			if c := cmp.Compare(a.tier, b.tier); c != 0 {
+				return c
+			}
+			return cmp.Compare(a.phi, b.phi)
+		})
+		s := &search{c: cs, tree: &forest{}}
+		s.buildForest()
+		if got, want := forestSize(cs), len(s.tree.nodes); got != want {
+			t.Errorf("%d candidates: forestSize %d, buildForest made %d nodes", n, got, want)
 		}
 	}
 }

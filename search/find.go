@@ -56,6 +56,7 @@ func run(items []Item, req Requirement, prune bool) (Outcome, error) {
 func runPrepared(p *prepared, req Requirement, prune bool) (Outcome, error) {
 	class := twinClasses(p, p.cands)
 	s, ls, exact := firstOrderGroups(p, req, prune, class)
+	p.forest = forest{} // the real-ray stage need not hold the trees
 	out := Outcome{Requirement: req, Candidates: len(p.cands), Evaluated: s.evaluated, Solved: s.solved,
 		Met: s.met, MetExact: exact}
 	met, traced := len(ls), 0

@@ -19,23 +19,31 @@ type node struct {
 
 const leafSize = 8
 
+// forest is the power trees over a search's candidates: the nodes, and the
+// root of each tree.
+type forest struct {
+	nodes []node
+	roots []int32
+}
+
 // buildTree builds the tree over cands[lo:hi] (all of one sign of power)
 // and returns its root, or -1 when the range is empty.
 func (s *search) buildTree(lo, hi int32) int32 {
 	if lo >= hi {
 		return -1
 	}
-	id := int32(len(s.nodes))
-	s.nodes = append(s.nodes, node{lo: lo, hi: hi, left: -1, right: -1})
+	id := int32(len(s.tree.nodes))
+	s.tree.nodes = append(s.tree.nodes, node{lo: lo, hi: hi, left: -1, right: -1})
 	if hi-lo > leafSize {
 		mid := (lo + hi) / 2
 		l := s.buildTree(lo, mid)
 		r := s.buildTree(mid, hi)
-		s.nodes[id].left, s.nodes[id].right = l, r
-		s.nodes[id].bounds(s.nodes[l], s.nodes[r])
+		nodes := s.tree.nodes
+		nodes[id].left, nodes[id].right = l, r
+		nodes[id].bounds(nodes[l], nodes[r])
 		return id
 	}
-	n := &s.nodes[id]
+	n := &s.tree.nodes[id]
 	n.phiLo, n.phiHi = s.c[lo].phi, s.c[hi-1].phi
 	n.pMin, n.pMax, n.ppMin, n.ppMax = math.Inf(1), math.Inf(-1), math.Inf(1), math.Inf(-1)
 	n.lMin, n.dMin, n.dMax = math.Inf(1), math.Inf(1), math.Inf(-1)
@@ -227,15 +235,15 @@ func (s *search) leastImageE(a *cand, n *node, e iv, depth int) (float64, bool) 
 // imageRelation tells whether the relation every image layout satisfies
 // can hold for some b in n with e in the given interval.
 func (s *search) imageRelation(a *cand, n *node, e iv) bool {
-	T, m := s.req.Track, s.req.Mag
-	R := iv{T - a.sep() - n.dMax, T - a.sep() - n.dMin}
+	T, sa := s.req.Track, a.sep()
+	R := iv{T - sa - n.dMax, T - sa - n.dMin}
 	phi1, phi2 := pt(a.phi), iv{n.phiLo, n.phiHi}
 	p12 := phi1.mul(phi2)
 	// h = M - R (phi1 + phi2) + phi1 phi2 (R e - e^2), with the exact range
 	// of q = R e - e^2 over the box (concave in e, linear in R) so that e,
 	// the widest interval, is not counted twice.
 	q := reMinusESq(R, e)
-	mm := 2 - m - 1/m
+	mm := s.img.mm
 	h := pt(mm).sub(R.mul(phi1.add(phi2))).add(p12.mul(q))
 	scale := math.Abs(mm) + R.mag()*phi1.add(phi2).mag() + p12.mag()*q.mag()
 	return h.holdsZero(1e-9 * scale)

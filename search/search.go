@@ -60,12 +60,12 @@ type search struct {
 	top    int     // results to keep, at least 1: the kept heap never grows past it
 	misses bool    // keep layouts that fail checks too (near-miss search)
 	lax    bool    // prune by no check the pair solvers count (see strict)
-	nodes  []node
-	roots  []int32
-	kept   *kept // shared by the workers of one search
+	tree   *forest // the power trees, shared by every search of the candidates
+	kept   *kept   // shared by the workers of one search
 	// beamY is the collimated beam's radius the aperture pruning uses (0
 	// for none) and phi0 the pair's power it assumes (aperture.go).
 	beamY, phi0 float64
+	img         imageTerms // image only (aperture.go)
 	// win is the working distances the current first part allows (image;
 	// imageWindow), set by bestFirst in the worker's own copy.
 	win iv
@@ -91,7 +91,7 @@ func newSearch(p *prepared, req Requirement, lim limits, top int) *search {
 	if top < 1 || top > MaxShown {
 		top = MaxShown
 	}
-	s := &search{req: req, lim: lim, c: p.cands, itemData: p.itemData, sc: newScorer(req), tol: firstOrderTol(req),
+	s := &search{req: req, lim: lim, c: p.cands, itemData: p.itemData, tree: &p.forest, sc: newScorer(req), tol: firstOrderTol(req),
 		top: top, failed: map[uint16]int{}, kept: &kept{}}
 	s.kept.heap.s = s
 	s.kept.bound.Store(math.Float64bits(math.Inf(1)))
@@ -218,7 +218,7 @@ func (s *search) prunedOnce() {
 					return
 				}
 				i := order[n].i
-				if b := w.bound(); order[n].lb > b+margin(b) {
+				if b := w.bound(); fromOrderedBits(order[n].u) > b+margin(b) {
 					return // the first parts come by increasing bound
 				}
 				if w.firstOut(&w.c[i]) {
@@ -232,9 +232,6 @@ func (s *search) prunedOnce() {
 	for _, w := range ws {
 		s.merge(w)
 	}
-	// The trees are done with: the real-ray stage that follows need not
-	// hold them.
-	s.nodes, s.roots = nil, nil
 }
 
 // bestFirst solves a = candidate i followed by the second parts of the open
@@ -248,8 +245,8 @@ func (s *search) bestFirst(i int32, open *nodeQueue) {
 			return
 		}
 	}
-	for _, r := range s.roots {
-		if ok, lb := s.open(a, &s.nodes[r]); ok {
+	for _, r := range s.tree.roots {
+		if ok, lb := s.open(a, &s.tree.nodes[r]); ok {
 			open.push(nodeBound{r, lb})
 		}
 	}
@@ -258,7 +255,7 @@ func (s *search) bestFirst(i int32, open *nodeQueue) {
 		if b := s.bound(); nb.lb > b+margin(b) {
 			return
 		}
-		nd := &s.nodes[nb.id]
+		nd := &s.tree.nodes[nb.id]
 		if nd.left < 0 {
 			for j := nd.lo; j < nd.hi; j++ {
 				if s.pairBound(a, &s.c[j]) > s.bound()+margin(s.bound()) || s.secondOut(a, &s.c[j]) {
@@ -270,7 +267,7 @@ func (s *search) bestFirst(i int32, open *nodeQueue) {
 			continue
 		}
 		for _, c := range [2]int32{nd.left, nd.right} {
-			if ok, lb := s.open(a, &s.nodes[c]); ok {
+			if ok, lb := s.open(a, &s.tree.nodes[c]); ok {
 				open.push(nodeBound{c, lb})
 			}
 		}
@@ -335,13 +332,14 @@ func (q *nodeQueue) pop() nodeBound {
 }
 
 // buildForest builds one power tree per tier and sign of power (the
-// candidates come grouped by tier and sorted by power within each).
+// candidates come grouped by tier and sorted by power within each), unless
+// another search of the same candidates built them.
 func (s *search) buildForest() {
-	s.roots = nil
+	if s.tree.nodes != nil {
+		return
+	}
 	n := int32(len(s.c))
-	// Leaves hold more than leafSize/2 candidates, so a tree has fewer
-	// than 4n/leafSize nodes: growing the slice would copy it over and over.
-	s.nodes = make([]node, 0, 4*len(s.c)/leafSize+16)
+	s.tree.nodes = make([]node, 0, forestSize(s.c))
 	for lo := int32(0); lo < n; {
 		hi := lo
 		for hi < n && s.c[hi].tier == s.c[lo].tier {
@@ -350,18 +348,45 @@ func (s *search) buildForest() {
 		split := lo + int32(sort.Search(int(hi-lo), func(i int) bool { return s.c[lo+int32(i)].phi > 0 }))
 		for _, r := range []int32{s.buildTree(lo, split), s.buildTree(split, hi)} {
 			if r >= 0 {
-				s.roots = append(s.roots, r)
+				s.tree.roots = append(s.tree.roots, r)
 			}
 		}
 		lo = hi
 	}
 }
 
+// forestSize is the number of nodes buildForest makes: growing the slice
+// would copy it over and over.
+func forestSize(cs []cand) int {
+	total := 0
+	for lo := 0; lo < len(cs); {
+		hi := lo
+		for hi < len(cs) && cs[hi].tier == cs[lo].tier {
+			hi++
+		}
+		split := lo + sort.Search(hi-lo, func(i int) bool { return cs[lo+i].phi > 0 })
+		total += treeSize(split-lo) + treeSize(hi-split)
+		lo = hi
+	}
+	return total
+}
+
+// treeSize is the number of nodes of buildTree's tree over n candidates.
+func treeSize(n int) int {
+	switch {
+	case n <= 0:
+		return 0
+	case n <= leafSize:
+		return 1
+	}
+	return 1 + treeSize(n/2) + treeSize(n-n/2)
+}
+
 // firstOrder sorts the first parts by the least score any pair starting
 // with them can have, so that good pairs are found early and the loop can
 // stop once that least score passes the bound; ties keep the candidates'
-// order.
-func (s *search) firstOrder() []firstPart {
+// order. Each key holds the candidate and its bound as orderedBits.
+func (s *search) firstOrder() []sortKey {
 	priceMin, awayMin, lMin := math.Inf(1), math.Inf(1), math.Inf(1)
 	for i := range s.c {
 		priceMin = min(priceMin, s.c[i].price)
@@ -369,25 +394,25 @@ func (s *search) firstOrder() []firstPart {
 		lMin = min(lMin, s.c[i].L)
 	}
 	w := s.sc.w
-	order := make([]firstPart, len(s.c))
+	order := make([]sortKey, len(s.c))
+	radix := true
 	for i := range s.c {
 		a := &s.c[i]
-		order[i] = firstPart{i: int32(i), lb: w.Elements + w.Price*(a.price+priceMin) + w.Drawer*(a.away()+awayMin) +
-			w.Envelope*(a.L+s.lim.gapMin+lMin)/s.sc.lref}
+		lb := w.Elements + w.Price*(a.price+priceMin) + w.Drawer*(a.away()+awayMin) +
+			w.Envelope*(a.L+s.lim.gapMin+lMin)/s.sc.lref
+		order[i] = sortKey{u: orderedBits(lb), i: int32(i)}
+		radix = radix && lb == lb && lb != 0 // no NaN, no signed zeros
 	}
-	slices.SortFunc(order, func(x, y firstPart) int {
-		if x.lb != y.lb {
-			return cmp.Compare(x.lb, y.lb)
+	if radix {
+		return radixSort(order, make([]sortKey, len(order)))
+	}
+	slices.SortFunc(order, func(x, y sortKey) int {
+		if c := cmp.Compare(fromOrderedBits(x.u), fromOrderedBits(y.u)); c != 0 {
+			return c
 		}
 		return cmp.Compare(x.i, y.i)
 	})
 	return order
-}
-
-// firstPart is a candidate and the least score of a pair it begins.
-type firstPart struct {
-	lb float64
-	i  int32
 }
 
 // sorted returns the kept layouts best first.
