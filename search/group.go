@@ -1,11 +1,9 @@
 package search
 
 import (
-	"cmp"
 	"fmt"
 	"math"
 	"slices"
-	"sort"
 )
 
 // Grouping: one row per real alternative.
@@ -41,22 +39,23 @@ func twinClasses(p *prepared, cs []cand) []int32 {
 	for i := range class {
 		class[i] = -1
 	}
-	// The items in the search in part-ID order, by their forward candidate.
-	fwd := make([]int32, 0, p.items)
+	// The forward candidate of each item in the search, until the item
+	// is classed; the items in part-ID order (keys are the ranks 0..n-1).
 	for i := range cs {
 		if c := &cs[i]; !c.rev {
-			class[c.item] = int32(i) // the candidate, until the item is classed
-			fwd = append(fwd, c.item)
+			class[c.item] = int32(i)
 		}
 	}
-	slices.SortFunc(fwd, func(a, b int32) int { return cmp.Compare(p.keys[a], p.keys[b]) })
-	type leader struct {
-		f, ff, bf, d float64
-		item         int32
+	byKey := make([]int32, p.items)
+	for item, k := range p.keys {
+		byKey[k] = int32(item)
 	}
 	// leaders by diameter, each list sorted by EFL
 	leaders := map[int64][]leader{}
-	for _, item := range fwd {
+	for _, item := range byKey {
+		if class[item] < 0 {
+			continue
+		}
 		c := &cs[class[item]]
 		x := leader{f: c.efl(), ff: c.ffd(), bf: c.bfd(), d: p.info(item).diameter, item: item}
 		class[item] = item
@@ -64,8 +63,8 @@ func twinClasses(p *prepared, cs []cand) []int32 {
 		found := false
 		for _, b := range []int64{bucket - 1, bucket, bucket + 1} {
 			ls := leaders[b]
-			lo := sort.Search(len(ls), func(k int) bool { return ls[k].f >= x.f-twinTol*math.Abs(x.f)*1.01 })
-			for k := lo; k < len(ls) && ls[k].f <= x.f+twinTol*math.Abs(x.f)*1.01; k++ {
+			lo, hi := x.f-twinTol*math.Abs(x.f)*1.01, x.f+twinTol*math.Abs(x.f)*1.01
+			for k := firstAtLeast(ls, lo); k < len(ls) && ls[k].f <= hi; k++ {
 				if twins(ls[k].f, ls[k].ff, ls[k].bf, ls[k].d, x.f, x.ff, x.bf, x.d) {
 					class[item] = ls[k].item
 					found = true
@@ -78,12 +77,33 @@ func twinClasses(p *prepared, cs []cand) []int32 {
 		}
 		if !found {
 			ls := leaders[bucket]
-			k := sort.Search(len(ls), func(k int) bool { return ls[k].f >= x.f })
-			ls = slices.Insert(ls, k, x)
+			ls = slices.Insert(ls, firstAtLeast(ls, x.f), x)
 			leaders[bucket] = ls
 		}
 	}
 	return class
+}
+
+// leader is a part that leads a class of twins, by the figures the
+// criterion compares.
+type leader struct {
+	f, ff, bf, d float64
+	item         int32
+}
+
+// firstAtLeast is the first index of leaders sorted by EFL whose EFL is at
+// least f (sort.Search's answer, without the closure).
+func firstAtLeast(ls []leader, f float64) int {
+	lo, hi := 0, len(ls)
+	for lo < hi {
+		m := int(uint(lo+hi) >> 1)
+		if ls[m].f >= f {
+			hi = m
+		} else {
+			lo = m + 1
+		}
+	}
+	return lo
 }
 
 // twins applies the criterion to a leader (f, ff, bf, d) and a part.
