@@ -6,7 +6,10 @@ import (
 	"slices"
 	"sync"
 
-	"gonum.org/v1/gonum/mat"
+	"gonum.org/v1/gonum/blas"
+	"gonum.org/v1/gonum/blas/blas64"
+	"gonum.org/v1/gonum/lapack"
+	"gonum.org/v1/gonum/lapack/lapack64"
 )
 
 // MarechalRMS is the RMS wavefront error, in waves, at or below which a
@@ -70,10 +73,13 @@ func (tr Traced) wavefront(ws *fitWork, centre Vec3) (Wavefront, error) {
 // next: the path differences, weights and directions of the rays that meet
 // the reference sphere, the least-squares system and its factorisation.
 type fitWork struct {
-	opd, w []float64
-	dirs   []Vec3
-	a, b   []float64
-	svd    mat.SVD
+	opd, w  []float64
+	dirs    []Vec3
+	a, b    []float64
+	factors []float64 // the matrix as the factorisation overwrites it
+	u, work []float64
+	vt      [9]float64
+	s       [3]float64
 }
 
 var fitPool = sync.Pool{New: func() any { return new(fitWork) }}
@@ -185,18 +191,48 @@ func (tr Traced) centreShift(ws *fitWork, centre Vec3) (Vec3, error) {
 		ws.a[3*i], ws.a[3*i+1], ws.a[3*i+2] = d.X, d.Y, d.Z
 		ws.b[i] = sw * (opd[i] - mo)
 	}
-	return solveLeastSquares(&ws.svd, mat.NewDense(n, 3, ws.a), mat.NewVecDense(n, ws.b))
+	return ws.solve(n)
 }
 
-func solveLeastSquares(svd *mat.SVD, a *mat.Dense, b *mat.VecDense) (Vec3, error) {
-	if !svd.Factorize(a, mat.SVDThin) {
+// solve is the least-squares solution of the n x 3 system held in ws.a
+// (by rows) and ws.b through the thin singular-value decomposition,
+// singular values below 1e-10 of the largest left out (G. H. Golub and
+// C. F. Van Loan, Matrix Computations, 4th ed., Johns Hopkins 2013, sec.
+// 5.5, the rank-deficient least-squares problem; from memory). It makes
+// the LAPACK and BLAS calls gonum's mat.SVD makes for Factorize(a,
+// SVDThin), Rank(1e-10) and SolveVecTo, in the same order on the same
+// numbers (a test compares the two with ==), but in ws's own arrays
+// rather than new ones for every fit.
+func (ws *fitWork) solve(n int) (Vec3, error) {
+	ws.factors = append(ws.factors[:0], ws.a[:3*n]...)
+	ws.u = slices.Grow(ws.u[:0], 3*n)[:3*n]
+	a := blas64.General{Rows: n, Cols: 3, Stride: 3, Data: ws.factors}
+	u := blas64.General{Rows: n, Cols: 3, Stride: 3, Data: ws.u}
+	vt := blas64.General{Rows: 3, Cols: 3, Stride: 3, Data: ws.vt[:]}
+	s := ws.s[:]
+	query := []float64{0}
+	lapack64.Gesvd(lapack.SVDStore, lapack.SVDStore, a, u, vt, s, query, -1)
+	lwork := int(query[0])
+	ws.work = slices.Grow(ws.work[:0], lwork)[:lwork]
+	if !lapack64.Gesvd(lapack.SVDStore, lapack.SVDStore, a, u, vt, s, ws.work, lwork) {
 		return Vec3{}, errors.New("the wavefront fit did not converge")
 	}
-	rank := svd.Rank(1e-10)
+	rank := len(s)
+	for i, v := range s {
+		if v <= 1e-10*s[0] {
+			rank = i
+			break
+		}
+	}
 	if rank == 0 {
 		return Vec3{}, nil
 	}
-	var x mat.VecDense
-	svd.SolveVecTo(&x, b, rank)
-	return Vec3{x.AtVec(0), x.AtVec(1), x.AtVec(2)}, nil
+	var c, y, x [3]float64 // x = V S^-1 U^T b over the first rank singular values
+	blas64.Gemv(blas.Trans, 1, u, blas64.Vector{N: n, Inc: 1, Data: ws.b[:n]}, 0, blas64.Vector{N: 3, Inc: 1, Data: c[:]})
+	for i := 0; i < rank; i++ {
+		y[i] = c[i] / s[i]
+	}
+	vtr := blas64.General{Rows: rank, Cols: 3, Stride: 3, Data: ws.vt[:(rank-1)*3+3]}
+	blas64.Gemv(blas.Trans, 1, vtr, blas64.Vector{N: rank, Inc: 1, Data: y[:rank]}, 0, blas64.Vector{N: 3, Inc: 1, Data: x[:]})
+	return Vec3{x[0], x[1], x[2]}, nil
 }
