@@ -271,7 +271,7 @@ func refTrace(t *Tracer, r Ray, imageZ float64) Path {
 		}
 		q := local.Add(dir.Scale(s))
 		hit := q.Add(origin)
-		if t.clipped(i, q.Height()) {
+		if refClipped(t, i, q.Height()) {
 			p.Status, p.Surface, p.Dir = Clipped, i, dir
 			p.Points = append(p.Points, hit)
 			return p
@@ -316,12 +316,22 @@ func TestTraceIsTheSurfacesOwn(t *testing.T) {
 					t.Fatal(err)
 				}
 				tc := c.sys.Tracer(wl)
-				for i, r := range b.Rays {
-					if got, want := tc.Trace(r, 50), refTrace(tc, r, 50); !reflect.DeepEqual(got, want) {
-						t.Fatalf("ray %d at %g nm: %+v, want %+v", i, wl, got, want)
+				for _, unclipped := range []bool{false, true} {
+					tc.Unclipped = unclipped
+					for i, r := range b.Rays {
+						if got, want := tc.Trace(r, 50), refTrace(tc, r, 50); !reflect.DeepEqual(got, want) {
+							t.Fatalf("ray %d at %g nm, unclipped %v: %+v, want %+v", i, wl, unclipped, got, want)
+						}
 					}
 				}
 			}
 		})
 	}
+}
+
+// refClipped tells whether a ray at height h on surface i falls outside
+// the clear semi-aperture, from the system's semi-apertures.
+func refClipped(t *Tracer, i int, h float64) bool {
+	sa := t.System.SemiApertures
+	return !t.Unclipped && i < len(sa) && sa[i] > 0 && h > sa[i]*(1+1e-12)
 }

@@ -90,7 +90,7 @@ func (tr Traced) SpotAt(z float64) Spot {
 			q := tr.Tracer.at(p, z) // the same point again: cheaper than keeping them all
 			d2 := sq(q.X-s.CentroidX) + sq(q.Y-s.CentroidY)
 			ss += tr.Points[i].Weight * d2
-			s.Max = math.Max(s.Max, math.Sqrt(d2))
+			s.Max = max(s.Max, math.Sqrt(d2)) // the builtin: math.Max's result, without a call
 		}
 	}
 	s.RMS = math.Sqrt(ss / sw)

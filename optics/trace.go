@@ -77,6 +77,9 @@ type Tracer struct {
 type surfaceFixed struct {
 	curv, mu float64
 	sphere   bool
+	// clip is the height past which a ray is clipped (clipped), 0 for
+	// none.
+	clip float64
 }
 
 // Tracer prepares a real-ray trace of the system at a wavelength.
@@ -89,6 +92,9 @@ func (s System) Tracer(wavelengthNm float64) *Tracer {
 	t := &Tracer{System: s, Wavelength: wavelengthNm, N: n, Vertex: v, fixed: make([]surfaceFixed, len(s.Surfaces))}
 	for i, sf := range s.Surfaces {
 		t.fixed[i] = surfaceFixed{curv: sf.Curvature(), mu: n[i] / n[i+1], sphere: !sf.IsAsphere()}
+		if sa := s.SemiApertures; i < len(sa) && sa[i] > 0 {
+			t.fixed[i].clip = sa[i] * (1 + 1e-12)
+		}
 	}
 	return t
 }
@@ -146,7 +152,7 @@ func (t *Tracer) crossSurface(i int, pos, dir Vec3, p *Path) (Vec3, bool) {
 	}
 	q := local.Add(dir.Scale(s))
 	hit := q.Add(origin)
-	if t.clipped(i, q.Height()) {
+	if !t.Unclipped && f.clip > 0 && q.Height() > f.clip { // clipped, from the limit worked out once
 		return t.stop(p, i, Clipped, hit, true)
 	}
 	if !t.NoPoints {
@@ -173,11 +179,6 @@ func (t *Tracer) stop(p *Path, i int, status RayStatus, hit Vec3, keep bool) (Ve
 		p.Points = append(p.Points, hit)
 	}
 	return Vec3{}, false
-}
-
-func (t *Tracer) clipped(i int, h float64) bool {
-	sa := t.System.SemiApertures
-	return !t.Unclipped && i < len(sa) && sa[i] > 0 && h > sa[i]*(1+1e-12)
 }
 
 // At returns the point where a passed ray crosses the plane at z from the

@@ -136,7 +136,7 @@ func (b *bundleAt) rms(c Vec3) float64 {
 		return math.Inf(1)
 	}
 	m := s1 / sw
-	return math.Sqrt(math.Max(s2/sw-m*m, 0)) / (b.tr.Wavelength * 1e-6)
+	return math.Sqrt(max(s2/sw-m*m, 0)) / (b.tr.Wavelength * 1e-6)
 }
 
 // verdict judges the traced bundles: axis and edge (edge may be nil) at
@@ -218,7 +218,7 @@ func bestShared(bs []bundleAt, lo, hi float64) (float64, float64) {
 	f := func(z float64) float64 {
 		w := 0.0
 		for i := range bs {
-			w = math.Max(w, rmsAt(bs, i, z))
+			w = max(w, rmsAt(bs, i, z))
 		}
 		return w
 	}

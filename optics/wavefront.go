@@ -57,7 +57,7 @@ func (tr Traced) wavefront(ws *fitWork, centre Vec3) (Wavefront, error) {
 	lo, hi := math.Inf(1), math.Inf(-1)
 	for i, v := range opd {
 		sw, mean = sw+w[i], mean+w[i]*v
-		lo, hi = math.Min(lo, v), math.Max(hi, v)
+		lo, hi = min(lo, v), max(hi, v)
 	}
 	mean /= sw
 	var ss float64
