@@ -20,7 +20,7 @@ func (l Lens) Built(p Part, d Departure) Part {
 	if n != len(l.Curv) {
 		panic(fmt.Sprintf("optics: part %s has %d surfaces, its lens %d", p.ID(), n, len(l.Curv)))
 	}
-	u := l.curvatureFactor(Const(d.Focal.V)).V
+	u := l.curvatureFactorValue(d.Focal.V) // curvatureFactor(Const(d.Focal.V)).V, without the derivative
 	b := p
 	b.Surfaces = make([]Surface, n)
 	for i, s := range p.Surfaces {

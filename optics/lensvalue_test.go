@@ -55,6 +55,9 @@ func TestMatrixValueIsMatrixBitForBit(t *testing.T) {
 						d.Thick[i], d.Index[i] = Const(o.Thick[i]), Const(o.Index[i])
 					}
 				}
+				if got, want := l.curvatureFactorValue(o.Focal), l.curvatureFactor(d.Focal).V; got != want {
+					t.Fatalf("build %d: curvature factor %v, want %v", trial, got, want)
+				}
 				want, wantLen := l.Matrix(d)
 				got, gotLen := l.MatrixValue(o)
 				if got != want.Value() || gotLen != wantLen.V {
