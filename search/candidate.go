@@ -430,12 +430,13 @@ func fromOrderedBits(u uint64) float64 {
 }
 
 // radixSort sorts keys by tier, then u, ties in their order: one stable
-// counting pass per byte of u, least significant first, skipping the bytes
-// every key shares, and one by tier. buf is as long as keys; the result is
-// one of the two.
+// counting pass per radixBits-bit digit of u, least significant first,
+// skipping the digits every key shares, and one by tier. buf is as long as
+// keys; the result is one of the two.
 func radixSort(keys, buf []sortKey) []sortKey {
-	for shift := 0; shift <= 64; shift += 8 {
-		var at [256]int
+	var at [1 << radixBits]int
+	for shift := 0; shift < 64+radixBits; shift += radixBits {
+		clear(at[:])
 		for i := range keys {
 			at[keys[i].digit(shift)]++
 		}
@@ -456,12 +457,16 @@ func radixSort(keys, buf []sortKey) []sortKey {
 	return keys
 }
 
-// digit is the byte of u at shift, or the tier for a shift of 64.
-func (k *sortKey) digit(shift int) byte {
-	if shift == 64 {
-		return byte(k.tier)
+// radixBits is the width of radixSort's digits: six passes cover the 64
+// bits, and the counts (16 KB) stay in the first-level cache.
+const radixBits = 11
+
+// digit is the digit of u at shift, or the tier past the last digit.
+func (k *sortKey) digit(shift int) int {
+	if shift >= 64 {
+		return int(uint8(k.tier))
 	}
-	return byte(k.u >> shift)
+	return int(k.u>>shift) & (1<<radixBits - 1)
 }
 
 // idRanks gives each item the rank of its part ID in sorted order.

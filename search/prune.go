@@ -20,10 +20,14 @@ type node struct {
 const leafSize = 8
 
 // forest is the power trees over a search's candidates: the nodes, and the
-// root of each tree.
+// root of each tree; and the first parts in the order firstOrder gives for
+// the gap minimum gapMin (ordered is nil until it is worked out), which
+// every search of the candidates with that minimum shares.
 type forest struct {
-	nodes []node
-	roots []int32
+	nodes   []node
+	roots   []int32
+	ordered []sortKey
+	gapMin  float64
 }
 
 // buildTree builds the tree over cands[lo:hi] (all of one sign of power)

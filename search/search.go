@@ -201,7 +201,10 @@ func (s *search) prunedOnce() {
 	}
 	s.buildForest()
 	s.setAperture()
-	order := s.firstOrder()
+	if s.tree.ordered == nil || s.tree.gapMin != s.lim.gapMin {
+		s.tree.ordered, s.tree.gapMin = s.firstOrder(), s.lim.gapMin
+	}
+	order := s.tree.ordered
 	workers := min(runtime.GOMAXPROCS(0), 4)
 	var next atomic.Int64
 	var wg sync.WaitGroup
