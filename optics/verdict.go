@@ -175,7 +175,7 @@ func (s System) verdict(c Conditions, wl float64, axis Traced, edge *Traced, axi
 	switch {
 	case axisBest.RMS > MarechalRMS:
 		v.Why = LimitedOnAxis
-	case edge != nil && sharedWorst(bs, lo, hi, func(b bundleAt) bool { return b.ref }) > MarechalRMS:
+	case edge != nil && sharedWorst(bs, lo, hi, func(b bundleAt) bool { return b.ref }, worst) > MarechalRMS:
 		v.Why = LimitedFieldEdge
 	case worst > MarechalRMS:
 		v.Why = LimitedColour
@@ -198,13 +198,17 @@ func focusBracket(bs []bundleAt) (float64, float64) {
 }
 
 // sharedWorst is the least, over planes, of the worst RMS of the bundles
-// keep selects.
-func sharedWorst(bs []bundleAt, lo, hi float64, keep func(bundleAt) bool) float64 {
+// keep selects; all is that of every bundle (bestShared's), returned
+// without a second search when keep selects them all.
+func sharedWorst(bs []bundleAt, lo, hi float64, keep func(bundleAt) bool, all float64) float64 {
 	var sel []bundleAt
 	for _, b := range bs {
 		if keep(b) {
 			sel = append(sel, b)
 		}
+	}
+	if len(sel) == len(bs) {
+		return all // the same search over the same bundles in the same order
 	}
 	_, w := bestShared(sel, lo, hi)
 	return w
