@@ -97,7 +97,12 @@ func runPrepared(p *prepared, req Requirement, prune bool) (Outcome, error) {
 		}
 		s.laserOf(p, ls, cs, g[0], &r)
 		others := make([]layout, 0, len(g)-1)
+		r.OtherArrangements = len(g) - 1
 		for n, i := range g[1:] {
+			others = append(others, ls[i])
+			if n >= arrangementsListed {
+				continue
+			}
 			a := s.result(p, &ls[i], k+1)
 			a.Arrangement = n + 1
 			if js != nil {
@@ -105,7 +110,6 @@ func runPrepared(p *prepared, req Requirement, prune bool) (Outcome, error) {
 			}
 			s.laserOf(p, ls, cs, i, &a)
 			r.Arrangements = append(r.Arrangements, a)
-			others = append(others, ls[i])
 		}
 		r.Alternatives = s.alternatives(p, class, &ls[g[0]], others)
 		out.Results = append(out.Results, r)
@@ -265,6 +269,14 @@ func notes(p *prepared, req Requirement) []string {
 	return n
 }
 
+// arrangementsListed bounds the other arrangements kept under a row in
+// full (Result.Arrangements, best first); Result.OtherArrangements counts
+// them all. A variable only so that tests can list every one. Catalogs with many twins (a part sold with several coatings)
+// give hundreds of arrangements of one set of parts, each as long as a
+// row: listing them all made the saved search and the JSON megabytes long
+// for ten rows, and --arrangements lists every one as its own row.
+var arrangementsListed = 20
+
 // maxStudied bounds the build study when every result is asked for (--top
 // 0): the best this many are studied, the rest keep their order after them
 // without build figures.
@@ -409,9 +421,15 @@ func zeroNaN(v float64) float64 {
 // arrangementsNote explains the "+N" beside a row whose parts also meet
 // in other arrangements, when some row has them.
 func arrangementsNote(rs []Result) string {
+	listed := ""
 	for _, r := range rs {
-		if len(r.Arrangements) > 0 {
-			return "+N beside a row: the same parts also meet the requirement in N other arrangements (order, orientation or solved spacing); --arrangements lists each as its own row"
+		if r.OtherArrangements > arrangementsListed {
+			listed = fmt.Sprintf("; JSON and saved searches keep the best %d of them under each row", arrangementsListed)
+		}
+	}
+	for _, r := range rs {
+		if r.OtherArrangements > 0 {
+			return "+N beside a row: the same parts also meet the requirement in N other arrangements (order, orientation or solved spacing); --arrangements lists each as its own row" + listed
 		}
 	}
 	return ""

@@ -2,6 +2,7 @@ package search
 
 import (
 	"fmt"
+	"math"
 	"math/rand/v2"
 	"slices"
 	"sort"
@@ -15,12 +16,21 @@ import (
 // of parts (twins as one), the other layouts under it.
 func findGrouped(t *testing.T, its []Item, req Requirement) Outcome {
 	t.Helper()
+	listAllArrangements(t)
 	req.Arrangements = false
 	out, err := Find(its, req)
 	if err != nil {
 		t.Fatal(err)
 	}
 	return out
+}
+
+// listAllArrangements keeps every arrangement under its row for the rest
+// of the test, so that the grouped rows can be compared with every layout.
+func listAllArrangements(t *testing.T) {
+	old := arrangementsListed
+	arrangementsListed = math.MaxInt
+	t.Cleanup(func() { arrangementsListed = old })
 }
 
 // partSets lists each result's set of parts (IDs sorted), sorted.
@@ -144,5 +154,51 @@ func TestTwinsAreOneRow(t *testing.T) {
 	}
 	if !found {
 		t.Errorf("no row names the twin: %+v", out.Results)
+	}
+}
+
+// A row keeps its best few arrangements in full and counts them all: the
+// same rows, the same first arrangements and the same count as when every
+// one is listed, and the note says how many are kept.
+func TestArrangementsListedAreTheBestFew(t *testing.T) {
+	its := demoItems(t)
+	req := focusReq(100)
+	req.Top = 0
+	all := findGrouped(t, its, req) // every arrangement listed
+	old := arrangementsListed
+	arrangementsListed = 2
+	t.Cleanup(func() { arrangementsListed = old })
+	req.Arrangements = false
+	few, err := Find(its, req)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(few.Results) != len(all.Results) {
+		t.Fatalf("%d rows, want %d", len(few.Results), len(all.Results))
+	}
+	capped := 0
+	for k, r := range few.Results {
+		a := all.Results[k]
+		if r.OtherArrangements != len(a.Arrangements) || r.OtherArrangements != a.OtherArrangements {
+			t.Errorf("row %d: counts %d other arrangements, want %d", k+1, r.OtherArrangements, len(a.Arrangements))
+		}
+		want := a.Arrangements[:min(2, len(a.Arrangements))]
+		if got := partSets(r.Arrangements); !slices.Equal(got, partSets(want)) || len(r.Arrangements) != len(want) {
+			t.Errorf("row %d: arrangements %v, want the first %d of %v", k+1, got, len(want), partSets(a.Arrangements))
+		}
+		for i := range r.Arrangements {
+			if r.Arrangements[i].Score != want[i].Score || *r.Arrangements[i].EFL != *want[i].EFL {
+				t.Errorf("row %d arrangement %d differs from the one listed with all", k+1, i+1)
+			}
+		}
+		if len(a.Arrangements) > 2 {
+			capped++
+		}
+	}
+	if capped == 0 {
+		t.Fatal("no row has more than 2 other arrangements: the test proves little")
+	}
+	if !slices.ContainsFunc(few.Notes, func(n string) bool { return strings.Contains(n, "keep the best 2 of them") }) {
+		t.Errorf("no note says how many arrangements are kept: %q", few.Notes)
 	}
 }

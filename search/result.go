@@ -65,10 +65,13 @@ type Result struct {
 	// same parts in another order, orientation or root, or with a part
 	// optically the same in its place (see group.go); Alternatives names
 	// those parts.
-	Arrangements []Result      `json:"arrangements,omitempty"`
-	Alternatives []Alternative `json:"alternatives,omitempty"`
-	Score        float64       `json:"score"`
-	Reason       string        `json:"reason"`
+	Arrangements []Result `json:"arrangements,omitempty"`
+	// OtherArrangements counts the row's other layouts that meet, also
+	// those past the first few kept in Arrangements (arrangementsListed).
+	OtherArrangements int           `json:"other_arrangements,omitempty"`
+	Alternatives      []Alternative `json:"alternatives,omitempty"`
+	Score             float64       `json:"score"`
+	Reason            string        `json:"reason"`
 	// ImageQuality holds the real-ray figures (quality.go), its keys
 	// inline in the JSON; nil when real rays were not traced.
 	*ImageQuality

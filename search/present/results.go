@@ -44,7 +44,7 @@ func resultColumns(req search.Requirement, rs []search.Result, qs search.Quality
 	for _, r := range rs {
 		anyFails = anyFails || !r.Meets
 		anyOff = anyOff || Signed(r.ErrorPct) != "0"
-		anyOther = anyOther || len(r.Arrangements) > 0
+		anyOther = anyOther || r.OtherArrangements > 0
 		anyAlt = anyAlt || len(r.Alternatives) > 0
 	}
 	focus, image, expand := req.Kind == search.Focus, req.Kind == search.Image, req.Kind == search.Expand
@@ -53,7 +53,7 @@ func resultColumns(req search.Requirement, rs []search.Result, qs search.Quality
 		{Column{Key: "rank", Keep: 9, Label: "#"}, func(r search.Result) Cell { return Int(r.Rank) }},
 		{Column{Key: "parts", Keep: 9, Label: "parts"}, func(r search.Result) Cell { return partsCell(r.Parts) }},
 		{Column{Key: "other_arrangements", Keep: 6, Label: "+", Optional: !anyOther},
-			func(r search.Result) Cell { return ArrangementsCell(len(r.Arrangements)) }},
+			func(r search.Result) Cell { return ArrangementsCell(r.OtherArrangements) }},
 		{Column{Key: "working_distance_mm", Keep: 6, Label: "wd", Unit: "mm", Optional: !image && !match},
 			func(r search.Result) Cell { return OptNum(r.WorkingDistance, 2) }},
 		{Column{Key: "gap_mm", Keep: 6, Label: "gap", Unit: "mm"}, func(r search.Result) Cell { return OptNum(r.Gap, 2) }},

@@ -61,6 +61,13 @@ func decode(ss catalog.SavedSearch) (*Search, error) {
 	if err := json.Unmarshal(ss.Results, &s.Results); err != nil {
 		return nil, &DecodeError{ID: ss.ID, What: "results", Err: err}
 	}
+	for i := range s.Results {
+		// Searches saved before the count was kept listed every
+		// arrangement, so their number is the count.
+		if r := &s.Results[i]; r.OtherArrangements == 0 {
+			r.OtherArrangements = len(r.Arrangements)
+		}
+	}
 	var o outcome
 	if len(ss.Outcome) > 0 {
 		if err := json.Unmarshal(ss.Outcome, &o); err != nil {
