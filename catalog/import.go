@@ -10,6 +10,7 @@ import (
 	"strings"
 
 	"cardinal/catalog/record"
+	"cardinal/importers/parallel"
 	"cardinal/optics"
 )
 
@@ -48,7 +49,7 @@ func (s *Store) Import(ctx context.Context, entries []record.Entry, dryRun bool)
 	if bad := checkEntries(entries, glasses); len(bad) > 0 {
 		return rep, &ImportError{Rows: bad}
 	}
-	stored := parallel(len(entries), func(i int) storedEntry { return newStoredEntry(entries[i]) })
+	stored := parallel.Map(len(entries), func(i int) storedEntry { return newStoredEntry(entries[i]) })
 	w := newConnWriter(conn, tx)
 	defer w.close()
 	found, err := storedParts(ctx, w, entries)
@@ -154,7 +155,7 @@ const (
 func checkEntries(entries []record.Entry, glasses optics.GlassTable) []RowError {
 	var bad []RowError
 	seen := make(map[string]int, len(entries))
-	problems := parallel(len(entries), func(i int) optics.Problems { return checkEntry(entries[i], glasses) })
+	problems := parallel.Map(len(entries), func(i int) optics.Problems { return checkEntry(entries[i], glasses) })
 	for i, e := range entries {
 		id := e.Part.ID()
 		add := func(field, reason string) {

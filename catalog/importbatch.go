@@ -4,29 +4,10 @@ import (
 	"context"
 	"runtime"
 	"strings"
-	"sync"
 	"sync/atomic"
 
 	"cardinal/optics"
 )
-
-// parallel returns f(0), ..., f(n-1), worked out on the processors.
-func parallel[T any](n int, f func(i int) T) []T {
-	out := make([]T, n)
-	workers := max(1, min(runtime.GOMAXPROCS(0), n/256))
-	var wg sync.WaitGroup
-	for k := 0; k < workers; k++ {
-		wg.Add(1)
-		go func(k int) {
-			defer wg.Done()
-			for i := k * n / workers; i < (k+1)*n/workers; i++ {
-				out[i] = f(i)
-			}
-		}(k)
-	}
-	wg.Wait()
-	return out
-}
 
 // A piped is a sequence of values worked out ahead, in runs, by
 // goroutines on the processors, while its reader takes them in order.

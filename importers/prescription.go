@@ -11,6 +11,7 @@ import (
 	"strings"
 
 	"cardinal/catalog/record"
+	"cardinal/importers/parallel"
 	"cardinal/optics"
 )
 
@@ -83,7 +84,7 @@ func ReadPrescriptionFile(r io.Reader, file string, glasses optics.GlassTable) (
 		row *row
 		e   record.Entry
 	}
-	rows := parallel(len(raw), func(i int) parsed {
+	rows := parallel.Map(len(raw), func(i int) parsed {
 		row := t.row(raw[i])
 		e := parseEntry(row, glasses)
 		if len(row.errs) == 0 {
