@@ -30,7 +30,16 @@ type Store struct {
 	wait     time.Duration // how long a write waits for another writer
 	readOnly bool
 	reading  bool // opened by OpenRead: never creates a schema
+	// upgradedFrom is the schema version the file had when this store
+	// brought it up to date, 0 when it did not.
+	upgradedFrom int
 }
+
+// UpgradedFrom is the schema version of a catalog written by an older
+// version of the program that opening it brought up to date (the
+// migrations, among them rebuilding the search index, run once, in the
+// open); 0 when the file was current or new.
+func (s *Store) UpgradedFrom() int { return s.upgradedFrom }
 
 // Path is the file the store was opened from, or Memory.
 func (s *Store) Path() string { return s.path }
@@ -178,6 +187,9 @@ func (s *Store) prepare(ctx context.Context) error {
 	}
 	if err := s.migrate(ctx, version); err != nil {
 		return s.wrapWriteError(err)
+	}
+	if version > 0 && version < len(migrations) {
+		s.upgradedFrom = version
 	}
 	if s.path == Memory {
 		return nil

@@ -227,7 +227,7 @@ func runBadInput(t *testing.T, base string, tc badInput) {
 	}
 	e, out, errb := storeEnv(t, tc.vars)
 	code := runCLI(e, args...)
-	msg := unwrapped(errb.String())
+	msg := unwrap(errb.String())
 	if code != tc.code {
 		t.Errorf("exit code %d, want %d\nstderr: %s\nstdout: %.300s", code, tc.code, msg, out.String())
 	}

@@ -144,7 +144,7 @@ func TestRunCatalogCommands(t *testing.T) {
 		t.Run(tc.name, func(t *testing.T) {
 			before := export()
 			code := runCLI(e, tc.args...)
-			if code != tc.code || !strings.Contains(out.String(), tc.stdout) || !strings.Contains(unwrapped(errb.String()), tc.stderr) {
+			if code != tc.code || !strings.Contains(out.String(), tc.stdout) || !strings.Contains(unwrap(errb.String()), tc.stderr) {
 				t.Errorf("exit %d, stdout %q, stderr %q; want exit %d, %q and %q", code, out, errb, tc.code, tc.stdout, tc.stderr)
 			}
 			if after := export(); !tc.changes && after != before {

@@ -90,7 +90,7 @@ func openForRead(flag string, e *env) (*catalog.Store, error) {
 		notef(e, "cardinal: no catalog at %s yet: using the built-in demo catalog (invented parts); add your own with 'cardinal catalog import FILE'\n", loc.Path)
 		return openDemo(loc, e)
 	}
-	return catalog.OpenRead(loc.Path)
+	return upgraded(e)(catalog.OpenRead(loc.Path))
 }
 
 // openDemo opens the demo catalog kept beside where the user's catalog
@@ -128,7 +128,20 @@ func openForWrite(flag string, e *env, create bool) (*catalog.Store, error) {
 			return nil, err
 		}
 	}
-	return catalog.Open(loc.Path)
+	return upgraded(e)(catalog.Open(loc.Path))
+}
+
+// upgraded says on stderr when opening a catalog brought a file written by
+// an older version up to date, which takes a few seconds for a large
+// catalog, once.
+func upgraded(e *env) func(*catalog.Store, error) (*catalog.Store, error) {
+	return func(st *catalog.Store, err error) (*catalog.Store, error) {
+		if err == nil && st.UpgradedFrom() > 0 {
+			notef(e, "cardinal: brought the catalog %s up to this version's layout (schema %d to %d), once: it stays readable by this version and newer ones only\n",
+				st.Path(), st.UpgradedFrom(), catalog.SchemaVersion())
+		}
+		return st, err
+	}
 }
 
 // errNoCatalog says that the catalog to change does not exist yet.

@@ -3,6 +3,7 @@ package main
 import (
 	"bytes"
 	"errors"
+	"fmt"
 	"os"
 	"path/filepath"
 	"strings"
@@ -83,7 +84,7 @@ func TestOpenForRead(t *testing.T) {
 		t.Fatal(err)
 	}
 	defer s.Close()
-	if lines := strings.Count(unwrapped(errb.String()), "\n"); lines != 1 || !strings.Contains(unwrapped(errb.String()), "built-in demo catalog") {
+	if lines := strings.Count(unwrap(errb.String()), "\n"); lines != 1 || !strings.Contains(unwrap(errb.String()), "built-in demo catalog") {
 		t.Errorf("stderr %q, want one line about the demo catalog", errb.String())
 	}
 	// A read command creates no catalog of the user's; it keeps the demo
@@ -135,5 +136,32 @@ func TestDBFlagAndEnvironment(t *testing.T) {
 	}
 	if code := runCLI(e, "catalog", "list", "--format", "csv"); code != 0 || errb.Len() != 0 {
 		t.Errorf("list from CARDINAL_DB: exit %d, stderr %q", code, errb)
+	}
+}
+
+// Opening a catalog written by the previous version says once, on stderr,
+// that it was brought up to date; the next command says nothing of it.
+func TestUpgradeNotice(t *testing.T) {
+	b, err := os.ReadFile("../../catalog/testdata/schema6.db") // written by the version before the chunked index
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, args := range [][]string{{"searches", "list"}, {"find", "--efl", "50", "--elements", "1"}} {
+		t.Run(args[0], func(t *testing.T) {
+			db := filepath.Join(t.TempDir(), "old.db")
+			if err := os.WriteFile(db, b, 0o644); err != nil {
+				t.Fatal(err)
+			}
+			e, _, errb := storeEnv(t, nil)
+			runCLI(e, append([]string{"--db", db}, args...)...)
+			want := "(schema 6 to " + fmt.Sprint(catalog.SchemaVersion()) + "), once"
+			if !strings.Contains(unwrap(errb.String()), want) {
+				t.Errorf("first run's stderr %q does not say %q", errb.String(), want)
+			}
+			runCLI(e, append([]string{"--db", db}, args...)...)
+			if strings.Contains(errb.String(), "schema 6") {
+				t.Errorf("second run says the upgrade again: %q", errb.String())
+			}
+		})
 	}
 }

@@ -109,7 +109,7 @@ func TestRunDrawLayout(t *testing.T) {
 	if math.Abs(first) > 1e-4 || math.Abs(last-r.Envelope) > 1e-4 {
 		t.Errorf("vertices drawn at %.4f and %.4f, want 0 and %.4f", first, last, r.Envelope)
 	}
-	if !strings.Contains(unwrapped(errs), "wrote the layout of solution 1 of search 2") || strings.Contains(errs, "caution") {
+	if !strings.Contains(unwrap(errs), "wrote the layout of solution 1 of search 2") || strings.Contains(errs, "caution") {
 		t.Errorf("stderr %q", errs)
 	}
 }
@@ -220,7 +220,7 @@ func TestRunDrawFieldRange(t *testing.T) {
 	} {
 		t.Run(strings.Join(tc.args[:5], " "), func(t *testing.T) {
 			_, errs, code := cmdRun(t, db, tc.args...)
-			if code != 2 || !strings.Contains(unwrapped(errs), tc.want) {
+			if code != 2 || !strings.Contains(unwrap(errs), tc.want) {
 				t.Errorf("exit %d, %q; want exit 2 and %q", code, errs, tc.want)
 			}
 			if _, err := os.Stat(tc.args[len(tc.args)-1]); err == nil {

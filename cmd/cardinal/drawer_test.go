@@ -68,7 +68,7 @@ func TestRunDrawerCommands(t *testing.T) {
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			code := runCLI(e, tc.args...)
-			if code != tc.code || !strings.Contains(out.String(), tc.stdout) || !strings.Contains(unwrapped(errb.String()), tc.stderr) {
+			if code != tc.code || !strings.Contains(out.String(), tc.stdout) || !strings.Contains(unwrap(errb.String()), tc.stderr) {
 				t.Errorf("exit %d, stdout %q, stderr %q; want %d, %q, %q", code, out, errb, tc.code, tc.stdout, tc.stderr)
 			}
 		})

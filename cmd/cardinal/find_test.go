@@ -217,7 +217,7 @@ func TestRunFind(t *testing.T) {
 				}
 			}
 			for _, s := range tc.stderrIn {
-				if !strings.Contains(unwrapped(errs), s) {
+				if !strings.Contains(unwrap(errs), s) {
 					t.Errorf("stderr lacks %q:\n%s", s, errs)
 				}
 			}
@@ -346,7 +346,7 @@ func TestFindThenRequestOnDemo(t *testing.T) {
 		return out.String(), errb.String(), err
 	}
 	_, errs, err := run("find", "--efl", "75", "--beam", "6", "--top", "3")
-	if err != nil || !strings.Contains(unwrapped(errs), "saved as search 1 (in the demo catalog, until you import your own)") {
+	if err != nil || !strings.Contains(unwrap(errs), "saved as search 1 (in the demo catalog, until you import your own)") {
 		t.Fatalf("find: %v\n%s", err, errs)
 	}
 	out, errs, err := run("request", "last", "--pick", "1")

@@ -45,7 +45,7 @@ func TestInspectCatalogPart(t *testing.T) {
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			code := runCLI(e, tc.args...)
-			if code != tc.code || !strings.Contains(unwrapped(errb.String()), tc.stderr) {
+			if code != tc.code || !strings.Contains(unwrap(errb.String()), tc.stderr) {
 				t.Fatalf("exit %d, stderr %q; want %d, %q", code, errb, tc.code, tc.stderr)
 			}
 			if tc.check == nil {
@@ -77,7 +77,7 @@ func TestInspectNamesResolveAlike(t *testing.T) {
 	// The words each source adds to a not-found message, taken away to
 	// compare what is left: the same names suggested in the same order.
 	plain := func(s string) string {
-		s = unwrapped(s)
+		s = unwrap(s)
 		s = strings.ReplaceAll(s, " in "+file, " in the catalog")
 		s = strings.ReplaceAll(s, "; none of its 4 parts is close; run without --part to list them", "")
 		return strings.ReplaceAll(s, "; 'cardinal catalog list' lists every part", "")

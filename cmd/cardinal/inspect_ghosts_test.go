@@ -69,7 +69,7 @@ func TestRunInspectGhosts(t *testing.T) {
 				t.Fatal(err)
 			}
 			for _, want := range []string{"do not replace a safety assessment", "laser safety officer"} {
-				if !strings.Contains(unwrapped(errb.String()), want) { // notes wrap to the width
+				if !strings.Contains(unwrap(errb.String()), want) { // notes wrap to the width
 					t.Errorf("stderr lacks %q", want)
 				}
 			}

@@ -168,7 +168,7 @@ func TestInspectRaysWarningsAndCautions(t *testing.T) {
 			if err := runInspect(inspectOpts(e, tc.mod)); err != nil {
 				t.Fatal(err)
 			}
-			if !strings.Contains(unwrapped(errb.String()), tc.stderr) || !strings.Contains(out.String(), tc.stdout) {
+			if !strings.Contains(unwrap(errb.String()), tc.stderr) || !strings.Contains(out.String(), tc.stdout) {
 				t.Errorf("stdout %q lacks %q or stderr %q lacks %q", out.String(), tc.stdout, errb.String(), tc.stderr)
 			}
 			if got := strings.Contains(errb.String(), "caution: "); got != tc.caution {

@@ -152,7 +152,7 @@ func TestRunInspect(t *testing.T) {
 			if code := exitCode(err); code != tc.code {
 				t.Errorf("exit code %d, want %d (%v)", code, tc.code, err)
 			}
-			if tc.stderrIn != "" && !strings.Contains(unwrapped(errb.String()), tc.stderrIn) {
+			if tc.stderrIn != "" && !strings.Contains(unwrap(errb.String()), tc.stderrIn) {
 				t.Errorf("stderr %q does not contain %q", errb.String(), tc.stderrIn)
 			}
 			if tc.golden != "" {

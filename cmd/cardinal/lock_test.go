@@ -81,7 +81,7 @@ func TestLockWaiting(t *testing.T) {
 			e.ErrTerminal = true
 			code := runCLI(e, append([]string{"--db", db}, tc.args...)...)
 			release()
-			errs := unwrapped(errb.String())
+			errs := unwrap(errb.String())
 			if code != tc.code {
 				t.Errorf("exit %d, want %d\nstderr: %s", code, tc.code, errs)
 			}

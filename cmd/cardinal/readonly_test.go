@@ -67,7 +67,7 @@ func TestReadOnlyCatalog(t *testing.T) {
 				{[]string{"drawer", "set", "DEMO:PCX-50", "--quantity", "2"}, 2, "", []string{db, "read-only"}, "internal error"},
 			} {
 				code, out, errs := run(t, append([]string{"--db", db}, step.args...)...)
-				errs = unwrapped(errs)
+				errs = unwrap(errs)
 				name := strings.Join(step.args[:2], " ")
 				if code != step.code {
 					t.Errorf("%s: exit %d, want %d\nstderr: %s", name, code, step.code, errs)

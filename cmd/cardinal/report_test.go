@@ -52,7 +52,7 @@ func TestRunReport(t *testing.T) {
 		t.Error("the picks are not in the order asked")
 	}
 	mustContain(t, errs, "caution: Focused laser beams", "wrote the report on search 1")
-	if _, errs, code := cmdRun(t, db, "report", "1", "--pick", "1", "-o", file); code != exitUsage || !strings.Contains(unwrapped(errs), "--force") {
+	if _, errs, code := cmdRun(t, db, "report", "1", "--pick", "1", "-o", file); code != exitUsage || !strings.Contains(unwrap(errs), "--force") {
 		t.Errorf("overwrite without --force: exit %d, %q", code, errs)
 	}
 }

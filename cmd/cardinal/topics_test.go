@@ -63,9 +63,6 @@ func TestFormerFlagNames(t *testing.T) {
 	}
 }
 
-// unwrapped joins the continuation lines notef wraps (indented by two
-// spaces), so that tests can look for a message whatever the width.
-func unwrapped(s string) string { return strings.ReplaceAll(s, "\n  ", " ") }
 
 // The csv topic lists every limit of the input files as the readers check
 // it (importers.Limits): the help cannot drift from the readers.
