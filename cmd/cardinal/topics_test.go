@@ -63,7 +63,6 @@ func TestFormerFlagNames(t *testing.T) {
 	}
 }
 
-
 // The csv topic lists every limit of the input files as the readers check
 // it (importers.Limits): the help cannot drift from the readers.
 func TestCSVTopicLimits(t *testing.T) {
