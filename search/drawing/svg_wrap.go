@@ -3,6 +3,8 @@ package drawing
 import (
 	"math"
 	"strings"
+
+	"cardinal/search/present"
 )
 
 // Text sizes of the drawing, in units of its font size, and what wrapping
@@ -32,21 +34,5 @@ func runesIn(width, size float64) int {
 // wrapText breaks s between words into lines of at most n characters; a
 // single word longer than n has a line of its own.
 func wrapText(s string, n int) []string {
-	var lines []string
-	line := ""
-	for _, w := range strings.Fields(s) {
-		switch {
-		case line == "":
-			line = w
-		case len([]rune(line))+1+len([]rune(w)) <= n:
-			line += " " + w
-		default:
-			lines = append(lines, line)
-			line = w
-		}
-	}
-	if line != "" || len(lines) == 0 {
-		lines = append(lines, line)
-	}
-	return lines
+	return present.WrapWords(strings.Fields(s), func(line string) bool { return len([]rune(line)) <= n })
 }

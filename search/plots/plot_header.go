@@ -142,20 +142,7 @@ func (h header) draw(dc draw.Canvas, height vg.Length, what ...string) {
 // wrapStyled breaks s between words into lines no wider than width in the
 // style's font (a word wider than that has a line of its own).
 func wrapStyled(sty text.Style, s string, width vg.Length) []string {
-	var lines []string
-	line := ""
-	for _, w := range strings.Fields(s) {
-		switch {
-		case line == "":
-			line = w
-		case sty.Width(line+" "+w) <= width:
-			line += " " + w
-		default:
-			lines = append(lines, line)
-			line = w
-		}
-	}
-	return append(lines, line)
+	return present.WrapWords(strings.Fields(s), func(line string) bool { return sty.Width(line) <= width })
 }
 
 // widest is the width of the widest line.

@@ -231,23 +231,34 @@ func Wrap(s string, width int) string {
 	if width <= 0 {
 		return s
 	}
+	fits := func(line string) bool { return runewidth.StringWidth(line) <= width }
 	var out []string
 	for _, para := range strings.Split(s, "\n") {
-		line := ""
-		for _, word := range glue(strings.Fields(para)) {
-			switch {
-			case line == "":
-				line = word
-			case runewidth.StringWidth(line)+1+runewidth.StringWidth(word) <= width:
-				line += " " + word
-			default:
-				out = append(out, line)
-				line = word
-			}
-		}
-		out = append(out, line)
+		out = append(out, WrapWords(glue(strings.Fields(para)), fits)...)
 	}
 	return strings.Join(out, "\n")
+}
+
+// WrapWords fills lines greedily with the words in order, a space between
+// two, starting a new line when the next word would make the line not fit;
+// a word that does not fit alone stands on its own line. No words give one
+// empty line. It is the one wrap of every output: the terminal (display
+// width), the drawing (characters) and the plots (the font's width).
+func WrapWords(words []string, fits func(line string) bool) []string {
+	var lines []string
+	line := ""
+	for _, w := range words {
+		switch {
+		case line == "":
+			line = w
+		case fits(line + " " + w):
+			line += " " + w
+		default:
+			lines = append(lines, line)
+			line = w
+		}
+	}
+	return append(lines, line)
 }
 
 // glue keeps a lone "+" (between the parts of a pair) and "(reversed)"

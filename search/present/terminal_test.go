@@ -2,6 +2,7 @@ package present
 
 import (
 	"bytes"
+	"slices"
 	"strings"
 	"testing"
 
@@ -162,5 +163,26 @@ func TestPriceWrapsBetweenCurrencies(t *testing.T) {
 	}
 	if got := maxLine(out); got > 24 {
 		t.Errorf("widest line %d > 24:\n%s", got, out)
+	}
+}
+
+// WrapWords fills lines greedily by the fit it is given; a word too long
+// for a line stands alone, and no words give one empty line.
+func TestWrapWords(t *testing.T) {
+	upTo := func(n int) func(string) bool { return func(l string) bool { return len(l) <= n } }
+	for _, tc := range []struct {
+		words []string
+		n     int
+		want  []string
+	}{
+		{nil, 10, []string{""}},
+		{[]string{"a", "bb", "ccc"}, 4, []string{"a bb", "ccc"}},
+		{[]string{"a", "bb", "ccc"}, 8, []string{"a bb ccc"}},
+		{[]string{"abcdefgh", "b"}, 4, []string{"abcdefgh", "b"}},
+		{[]string{"a", "abcdefgh", "b"}, 3, []string{"a", "abcdefgh", "b"}},
+	} {
+		if got := WrapWords(tc.words, upTo(tc.n)); !slices.Equal(got, tc.want) {
+			t.Errorf("WrapWords(%q, %d) = %q, want %q", tc.words, tc.n, got, tc.want)
+		}
 	}
 }
