@@ -1,7 +1,6 @@
 package drawing
 
 import (
-	"bytes"
 	"regexp"
 	"strconv"
 	"testing"
@@ -42,14 +41,7 @@ func TestDimensionLabelsApart(t *testing.T) {
 	}
 	for name, s := range sols {
 		t.Run(name, func(t *testing.T) {
-			sc, err := NewScene(s, DrawOptions{})
-			if err != nil {
-				t.Fatal(err)
-			}
-			var b bytes.Buffer
-			if err := sc.WriteSVG(&b, DrawOptions{}); err != nil {
-				t.Fatal(err)
-			}
+			sc, b := drawBytes(t, s, DrawOptions{})
 			d := &svgDoc{sc: &sc, fs: fontSize(sc)}
 			x0, x1 := d.extent()
 			d.placeDims(x0, x1)
@@ -63,7 +55,7 @@ func TestDimensionLabelsApart(t *testing.T) {
 					}
 				}
 			}
-			labels := regexp.MustCompile(`class="dim-label" data-name="([a-z ]+)"`).FindAllStringSubmatch(b.String(), -1)
+			labels := regexp.MustCompile(`class="dim-label" data-name="([a-z ]+)"`).FindAllSubmatch(b, -1)
 			if len(labels) != len(sc.Dims) {
 				t.Errorf("the SVG has %d dimension labels for %d dimensions", len(labels), len(sc.Dims))
 			}

@@ -1,7 +1,6 @@
 package drawing
 
 import (
-	"bytes"
 	"encoding/xml"
 	"fmt"
 	"math"
@@ -102,15 +101,8 @@ func expectedVertices(s solution.Solution) []float64 {
 
 func drawSVG(t *testing.T, s solution.Solution) (Scene, svgNode) {
 	t.Helper()
-	sc, err := NewScene(s, DrawOptions{})
-	if err != nil {
-		t.Fatal(err)
-	}
-	var b bytes.Buffer
-	if err := sc.WriteSVG(&b, DrawOptions{}); err != nil {
-		t.Fatal(err)
-	}
-	return sc, parseSVG(t, b.Bytes())
+	sc, b := drawBytes(t, s, DrawOptions{})
+	return sc, parseSVG(t, b)
 }
 
 // The drawn vertices, planes and dimensions sit where the solution puts
