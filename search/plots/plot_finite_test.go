@@ -3,7 +3,6 @@ package plots
 import (
 	"bytes"
 	"errors"
-	"image/png"
 	"math"
 	"strconv"
 	"strings"
@@ -86,13 +85,7 @@ func TestNoRayReachedTheImage(t *testing.T) {
 	if got := spotNote(lost, 0); got != "no ray reached the image" {
 		t.Errorf("the panel says %q", got)
 	}
-	var b bytes.Buffer
-	if err := lost.WritePlot(&b, "every ray on axis lost", "png"); err != nil {
-		t.Fatal(err)
-	}
-	if _, err := png.Decode(&b); err != nil {
-		t.Error(err)
-	}
+	plotPNG(t, lost, "every ray on axis lost")
 }
 
 func itoa(n int) string { return strconv.Itoa(n) }

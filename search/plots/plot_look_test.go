@@ -3,7 +3,6 @@ package plots
 import (
 	"bytes"
 	"fmt"
-	"image/png"
 	"strings"
 	"testing"
 
@@ -25,14 +24,7 @@ func TestPlotColoursAndFont(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	var b bytes.Buffer
-	if err := sp.WritePlot(&b, "test", "png"); err != nil {
-		t.Fatal(err)
-	}
-	img, err := png.Decode(&b)
-	if err != nil {
-		t.Fatal(err)
-	}
+	img := plotPNG(t, sp, "test")
 	count := map[string]int{}
 	bounds := img.Bounds()
 	for y := bounds.Min.Y; y < bounds.Max.Y; y++ {
@@ -47,7 +39,7 @@ func TestPlotColoursAndFont(t *testing.T) {
 			t.Errorf("%g nm: %d pixels of its colour %s in the plot", wl, count[c], c)
 		}
 	}
-	b.Reset()
+	var b bytes.Buffer
 	if err := sp.WritePlot(&b, "test", "svg"); err != nil {
 		t.Fatal(err)
 	}

@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"encoding/xml"
 	"errors"
+	"image"
 	"image/png"
 	"math"
 	"slices"
@@ -105,21 +106,14 @@ func TestWritePlot(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
-			var b bytes.Buffer
-			if err := sp.WritePlot(&b, "test", "png"); err != nil {
-				t.Fatal(err)
-			}
-			img, err := png.Decode(&b)
-			if err != nil {
-				t.Fatal(err)
-			}
+			img := plotPNG(t, sp, "test")
 			if w := img.Bounds().Dx(); w != int(math.Round(3*2.8*plotDPI)) {
 				t.Errorf("width %d px", w)
 			}
 			if f := solutiontest.InkFraction(img); f < 0.01 {
 				t.Errorf("only %.4f of the plot is drawn on", f)
 			}
-			b.Reset()
+			var b bytes.Buffer
 			if err := sp.WritePlot(&b, "test", "svg"); err != nil {
 				t.Fatal(err)
 			}
@@ -197,4 +191,18 @@ func TestSpotsFieldTooWide(t *testing.T) {
 	if _, err := NewSpots(s, PlotOptions{Rings: 2, Field: fe.Widest + 0.02*asked}); !errors.As(err, &fe) {
 		t.Errorf("2 %% wider than the widest said to pass: err = %v, want a *FieldError", err)
 	}
+}
+
+// plotPNG writes the spot figure as PNG and decodes it.
+func plotPNG(t *testing.T, sp Spots, title string) image.Image {
+	t.Helper()
+	var b bytes.Buffer
+	if err := sp.WritePlot(&b, title, "png"); err != nil {
+		t.Fatal(err)
+	}
+	img, err := png.Decode(&b)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return img
 }
