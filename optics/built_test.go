@@ -10,12 +10,7 @@ func TestBuiltMatchesMatrix(t *testing.T) {
 	// The piece the real-ray trace sees and the matrix model of the same
 	// departure are one piece: the paraxial matrix of the built part
 	// equals Lens.Matrix's (an invariant of the two descriptions).
-	doublet := Part{Supplier: "TEST", Name: "D", Diameter: 25,
-		Surfaces:  []Surface{Sphere(61.5), Sphere(-44.2), Sphere(-129)},
-		Thickness: []float64{6, 2.5}, Media: []Medium{Constant{"crown", 1.517}, Constant{"flint", 1.717}}}
-	airSpaced := Part{Supplier: "TEST", Name: "A", Diameter: 25,
-		Surfaces:  []Surface{Sphere(80), Sphere(math.Inf(1)), Sphere(-120), Sphere(-60)},
-		Thickness: []float64{4, 1.5, 3.5}, Media: []Medium{Constant{"crown", 1.517}, Air, Constant{"crown", 1.517}}}
+	doublet, airSpaced := multiPieceParts()
 	for _, tc := range []struct {
 		name string
 		p    Part
@@ -79,4 +74,16 @@ func TestBuiltAsphereScaled(t *testing.T) {
 		old, _ := s.Sag(h / scale)
 		checkNear(t, fmt.Sprintf("sag at %g mm", h), got, scale*old, 1e-13, 1e-11)
 	}
+}
+
+// multiPieceParts are a cemented doublet and an air-spaced part, for the
+// tests that compare two descriptions of a built part.
+func multiPieceParts() (doublet, airSpaced Part) {
+	doublet = Part{Supplier: "TEST", Name: "D", Diameter: 25,
+		Surfaces:  []Surface{Sphere(61.5), Sphere(-44.2), Sphere(-129)},
+		Thickness: []float64{6, 2.5}, Media: []Medium{Constant{"crown", 1.517}, Constant{"flint", 1.717}}}
+	airSpaced = Part{Supplier: "TEST", Name: "A", Diameter: 25,
+		Surfaces:  []Surface{Sphere(80), Sphere(math.Inf(1)), Sphere(-120), Sphere(-60)},
+		Thickness: []float64{4, 1.5, 3.5}, Media: []Medium{Constant{"crown", 1.517}, Air, Constant{"crown", 1.517}}}
+	return doublet, airSpaced
 }

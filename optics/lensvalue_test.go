@@ -11,12 +11,7 @@ func TestMatrixValueIsMatrixBitForBit(t *testing.T) {
 	// derivative; a study's figures stay the same only if it returns the
 	// very same numbers (an invariant of the two forms, compared with ==,
 	// not a tolerance), for every kind of part and departure.
-	doublet := Part{Supplier: "TEST", Name: "D", Diameter: 25,
-		Surfaces:  []Surface{Sphere(61.5), Sphere(-44.2), Sphere(-129)},
-		Thickness: []float64{6, 2.5}, Media: []Medium{Constant{"crown", 1.517}, Constant{"flint", 1.717}}}
-	airSpaced := Part{Supplier: "TEST", Name: "A", Diameter: 25,
-		Surfaces:  []Surface{Sphere(80), Sphere(math.Inf(1)), Sphere(-120), Sphere(-60)},
-		Thickness: []float64{4, 1.5, 3.5}, Media: []Medium{Constant{"crown", 1.517}, Air, Constant{"crown", 1.517}}}
+	doublet, airSpaced := multiPieceParts()
 	rng := rand.New(rand.NewPCG(1, 2))
 	for _, tc := range []struct {
 		name   string
