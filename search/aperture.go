@@ -156,44 +156,57 @@ func (s *search) imageWindow(a *cand) iv {
 	return w
 }
 
-// imageOpen tells whether some b in node n, after a, can have a layout
-// with e in the given interval: the relation every image layout satisfies
-// (imageRelation), a working distance in win (imageWindow) and a positive
-// back clearance; when the search is strict, above its minimum and, when
-// ray heights are checked, with the marginal ray, of angle NA / m there,
-// within b's clear aperture at its last vertex.
-func (s *search) imageOpen(a *cand, n *node, e iv, win iv) bool {
-	wd, bc := iv{math.Inf(-1), math.Inf(1)}, iv{math.Inf(-1), math.Inf(1)}
-	var den [4]float64
-	var wq, bq [4]float64
+// imageOpen tells whether some b in the box's node, after its first part,
+// can have a layout with e in the given interval: the relation every image
+// layout satisfies (imageRelation), a working distance in win
+// (imageWindow) and a positive back clearance; when the search is strict,
+// above its minimum and, when ray heights are checked, with the marginal
+// ray, of angle NA / m there, within b's clear aperture at its last vertex.
+func (s *search) imageOpen(b *imageBox, e iv, win iv) bool {
+	var den, wq [4]float64
+	var xa [2]float64 // x phi1
 	k := 0
-	for _, x := range [2]float64{e.lo, e.hi} {
-		for _, p := range [2]float64{n.phiLo, n.phiHi} {
-			den[k] = a.phi + p - x*a.phi*p
+	for i, x := range [2]float64{e.lo, e.hi} {
+		xa[i] = x * b.a.phi
+		for j, p := range b.phi {
+			den[k] = b.sum[j] - xa[i]*p
 			wq[k] = (s.img.oneMinusInvM - x*p) / den[k]
-			bq[k] = (s.img.oneMinusM - x*a.phi) / den[k]
 			k++
 		}
 	}
-	if den[0] > 0 && den[1] > 0 && den[2] > 0 && den[3] > 0 || den[0] < 0 && den[1] < 0 && den[2] < 0 && den[3] < 0 {
-		wd = hull(wq).sub(pt(a.P))
-		bc = hull(bq).add(iv{n.ppMin, n.ppMax})
+	wd, bc := iv{math.Inf(-1), math.Inf(1)}, iv{math.Inf(-1), math.Inf(1)}
+	signed := den[0] > 0 && den[1] > 0 && den[2] > 0 && den[3] > 0 || den[0] < 0 && den[1] < 0 && den[2] < 0 && den[3] < 0
+	if signed {
+		wd = hull(wq).sub(pt(b.a.P))
 	}
 	slack := s.img.slack
 	if wd.hi+slack+1e-6*math.Abs(wd.hi) < win.lo || wd.lo-slack-1e-6*math.Abs(wd.lo) > win.hi {
 		return false
 	}
-	bcLo, bcHi := s.img.bcLo, math.Inf(1)
-	if s.img.naChecked {
-		bcHi = math.Abs(s.req.Mag) * n.semiMax * (1 + apertureSlack) / s.req.NA
+	if signed {
+		bq := [4]float64{(s.img.oneMinusM - xa[0]) / den[0], (s.img.oneMinusM - xa[0]) / den[1],
+			(s.img.oneMinusM - xa[1]) / den[2], (s.img.oneMinusM - xa[1]) / den[3]}
+		bc = hull(bq).add(b.pp)
 	}
-	if bc.hi+slack+1e-6*math.Abs(bc.hi) < bcLo || bc.lo-slack-1e-6*math.Abs(bc.lo) > bcHi {
+	if bc.hi+slack+1e-6*math.Abs(bc.hi) < s.img.bcLo || bc.lo-slack-1e-6*math.Abs(bc.lo) > b.bcHi {
 		return false
 	}
-	return s.imageRelation(a, n, e)
+	return b.imageRelation(e)
 }
 
-// hull is the least interval holding the four values.
+// hull is the least interval holding the four values, by comparisons
+// (cheaper than the builtin min and max, which also order NaNs and signed
+// zeros: imageOpen's values are never NaN, their denominators sharing a
+// sign).
 func hull(v [4]float64) iv {
-	return iv{min(v[0], v[1], v[2], v[3]), max(v[0], v[1], v[2], v[3])}
+	lo, hi := v[0], v[0]
+	for _, x := range v[1:] {
+		if x < lo {
+			lo = x
+		}
+		if x > hi {
+			hi = x
+		}
+	}
+	return iv{lo, hi}
 }

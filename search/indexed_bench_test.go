@@ -66,3 +66,30 @@ func BenchmarkFindIndexed(b *testing.B) {
 		return err
 	})
 }
+
+// BenchmarkFirstOrderIndexed is the first-order stage alone, on candidates
+// prepared once: the power trees and the pruned search (and, when too few
+// rows group out of what it kept, its reruns), as runPrepared calls it.
+func BenchmarkFirstOrderIndexed(b *testing.B) {
+	for _, n := range []int{5000, 50000, 200000} {
+		for _, kind := range []string{"focus-d", "image", "expand"} {
+			req := benchRequirements()[kind]
+			b.Run(fmt.Sprintf("%s/%d", kind, n), func(b *testing.B) {
+				ctx := context.Background()
+				ix, err := benchIndex(b, n).SearchIndex(ctx, catalog.IndexOptions{})
+				if err != nil {
+					b.Fatal(err)
+				}
+				defer ix.Close()
+				p := prepareIndex(ctx, ix, req)
+				class := twinClasses(p, p.cands)
+				b.ReportAllocs()
+				b.ResetTimer()
+				for b.Loop() {
+					p.forest = forest{}
+					firstOrderGroups(p, req, true, class)
+				}
+			})
+		}
+	}
+}

@@ -209,7 +209,8 @@ func (s *search) openImage(a *cand, n *node, gMin, gMax float64) (bool, float64)
 		return false, 0
 	}
 	e := iv{gMin + n.pMin - a.Pp, gMax + n.pMax - a.Pp}
-	lo, ok := s.leastImageE(a, n, e, imageDepth)
+	box := s.imageBoxOf(a, n)
+	lo, ok := s.leastImageE(&box, e, imageDepth)
 	if !ok {
 		return false, 0
 	}
@@ -222,35 +223,59 @@ const imageDepth = 6
 // leastImageE returns the lower end of the first piece of e, halved depth
 // times, on which imageOpen holds, or false when it holds on none: a lower
 // bound on e over the layouts of a and the node's parts.
-func (s *search) leastImageE(a *cand, n *node, e iv, depth int) (float64, bool) {
-	if !s.imageOpen(a, n, e, s.win) {
+func (s *search) leastImageE(box *imageBox, e iv, depth int) (float64, bool) {
+	if !s.imageOpen(box, e, s.win) {
 		return 0, false
 	}
 	if depth == 0 {
 		return e.lo, true
 	}
 	mid := (e.lo + e.hi) / 2
-	if lo, ok := s.leastImageE(a, n, iv{e.lo, mid}, depth-1); ok {
+	if lo, ok := s.leastImageE(box, iv{e.lo, mid}, depth-1); ok {
 		return lo, true
 	}
-	return s.leastImageE(a, n, iv{mid, e.hi}, depth-1)
+	return s.leastImageE(box, iv{mid, e.hi}, depth-1)
 }
 
-// imageRelation tells whether the relation every image layout satisfies
-// can hold for some b in n with e in the given interval.
-func (s *search) imageRelation(a *cand, n *node, e iv) bool {
+// imageBox is what the tests of a first part a and a node of second parts
+// use that does not depend on e, worked out once for the bisection of e
+// by the same operations as written out in full, so to the same values.
+type imageBox struct {
+	a     *cand
+	phi   [2]float64 // the node's least and greatest power
+	sum   [2]float64 // a.phi + phi
+	pp    iv         // the node's back principal points
+	R     iv         // T - (principal-point separations of a and b)
+	p12   iv         // phi1 phi2
+	base  iv         // M - R (phi1 + phi2)
+	scale float64    // |M| + |R| |phi1 + phi2|
+	bcHi  float64    // greatest back clearance the marginal ray allows
+}
+
+func (s *search) imageBoxOf(a *cand, n *node) imageBox {
 	T, sa := s.req.Track, a.sep()
 	R := iv{T - sa - n.dMax, T - sa - n.dMin}
 	phi1, phi2 := pt(a.phi), iv{n.phiLo, n.phiHi}
-	p12 := phi1.mul(phi2)
+	mm := s.img.mm
+	b := imageBox{a: a, phi: [2]float64{n.phiLo, n.phiHi}, pp: iv{n.ppMin, n.ppMax}, R: R,
+		p12: phi1.mul(phi2), base: pt(mm).sub(R.mul(phi1.add(phi2))),
+		scale: math.Abs(mm) + R.mag()*phi1.add(phi2).mag(), bcHi: math.Inf(1)}
+	b.sum = [2]float64{a.phi + n.phiLo, a.phi + n.phiHi}
+	if s.img.naChecked {
+		b.bcHi = math.Abs(s.req.Mag) * n.semiMax * (1 + apertureSlack) / s.req.NA
+	}
+	return b
+}
+
+// imageRelation tells whether the relation every image layout satisfies
+// can hold for some b in the box's node with e in the given interval.
+func (b *imageBox) imageRelation(e iv) bool {
 	// h = M - R (phi1 + phi2) + phi1 phi2 (R e - e^2), with the exact range
 	// of q = R e - e^2 over the box (concave in e, linear in R) so that e,
 	// the widest interval, is not counted twice.
-	q := reMinusESq(R, e)
-	mm := s.img.mm
-	h := pt(mm).sub(R.mul(phi1.add(phi2))).add(p12.mul(q))
-	scale := math.Abs(mm) + R.mag()*phi1.add(phi2).mag() + p12.mag()*q.mag()
-	return h.holdsZero(1e-9 * scale)
+	q := reMinusESq(b.R, e)
+	h := b.base.add(b.p12.mul(q))
+	return h.holdsZero(1e-9 * (b.scale + b.p12.mag()*q.mag()))
 }
 
 // reMinusESq is the exact range of R e - e^2 over a box: the least value at
