@@ -12,7 +12,9 @@
 // application_id is 0x43415244 ("CARD"): the program refuses a file that
 // is another program's, or that a newer version of cardinal wrote, and
 // changes nothing in it. Files use write-ahead logging, so a reader sees
-// the catalog as it was before or after an import, never half of it.
+// the catalog as it was before or after an import, never half of it. The
+// import that creates a catalog builds it beside its place and puts it
+// there when done (OpenNew, staged.go).
 //
 // Tables (lengths in mm, wavelengths in nm):
 //

@@ -29,14 +29,45 @@ type ImportReport struct {
 // nothing the second time. Media must be known to the catalog's glass table
 // (built-in glasses, six-digit codes, air, or the user's glasses). With
 // dryRun every check runs and nothing is kept.
+//
+// The first import into a store of OpenNew builds the catalog and puts it
+// in place.
 func (s *Store) Import(ctx context.Context, entries []record.Entry, dryRun bool) (_ ImportReport, err error) {
 	defer s.classify(&err)
+	building := s.stage != "" && !dryRun
+	rep, err := s.importTx(ctx, entries, dryRun, building)
+	if err != nil || !building {
+		return rep, err
+	}
+	published, err := s.publish()
+	switch {
+	case err != nil:
+		return rep, s.wrapWriteError(err)
+	case !published:
+		// A catalog appeared at the path meanwhile (or the file could not
+		// be linked there): import into it as usual.
+		return s.Import(ctx, entries, dryRun)
+	}
+	return rep, nil
+}
+
+// importTx runs an import in one transaction on one connection; building
+// is true for the first import into a new catalog (OpenNew), which is
+// written without a journal and left in write-ahead logging mode.
+func (s *Store) importTx(ctx context.Context, entries []record.Entry, dryRun, building bool) (_ ImportReport, err error) {
 	rep := ImportReport{DryRun: dryRun}
 	conn, err := s.db.Conn(ctx)
 	if err != nil {
 		return rep, s.wrapWriteError(err)
 	}
 	defer conn.Close()
+	if building {
+		for _, q := range buildPragmas {
+			if _, err := conn.ExecContext(ctx, q); err != nil {
+				return rep, s.wrapWriteError(err)
+			}
+		}
+	}
 	tx, err := conn.BeginTx(ctx, nil)
 	if err != nil {
 		return rep, s.wrapWriteError(err)
@@ -96,7 +127,14 @@ func (s *Store) Import(ctx context.Context, entries []record.Entry, dryRun bool)
 	if dryRun {
 		return rep, nil
 	}
-	return rep, s.wrapWriteError(tx.Commit())
+	if err := tx.Commit(); err != nil {
+		return rep, s.wrapWriteError(err)
+	}
+	if building {
+		w.close() // no statement may be open while the journal mode changes
+		return rep, s.wrapWriteError(finishBuild(ctx, conn))
+	}
+	return rep, nil
 }
 
 // A storedPart is the id and fingerprint of a part already stored.

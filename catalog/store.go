@@ -30,6 +30,9 @@ type Store struct {
 	wait     time.Duration // how long a write waits for another writer
 	readOnly bool
 	reading  bool // opened by OpenRead: never creates a schema
+	// stage is the file a new catalog is built in until its first import
+	// puts it in place at path (OpenNew); "" for every other store.
+	stage string
 	// upgradedFrom is the schema version the file had when this store
 	// brought it up to date, 0 when it did not.
 	upgradedFrom int
@@ -79,8 +82,16 @@ func openWith(path, mode string, reading bool) (*Store, error) {
 	return s, nil
 }
 
-// Close closes the database.
-func (s *Store) Close() error { return s.db.Close() }
+// Close closes the database (and deletes the file of a new catalog whose
+// import did not complete: OpenNew).
+func (s *Store) Close() error {
+	err := s.db.Close()
+	if s.stage != "" {
+		removeStage(s.stage)
+		s.stage = ""
+	}
+	return err
+}
 
 // dsn is the connection string for modernc.org/sqlite. Foreign keys are on
 // for every connection so that removing a part removes its surfaces,
@@ -191,8 +202,8 @@ func (s *Store) prepare(ctx context.Context) error {
 	if version > 0 && version < len(migrations) {
 		s.upgradedFrom = version
 	}
-	if s.path == Memory {
-		return nil
+	if s.path == Memory || s.stage != "" {
+		return nil // a catalog being built turns WAL on when done (finishBuild)
 	}
 	// WAL lets readers see the last committed catalog while an import
 	// writes the next one: a list during an import shows the old or the

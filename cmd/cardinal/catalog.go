@@ -170,7 +170,11 @@ func openImport(ctx context.Context, o *importOptions) ([]byte, *importTarget, e
 // without error) when there was none.
 func (t *importTarget) store() (*catalog.Store, error) {
 	if t.s == nil {
-		s, err := t.o.env.stores().Write(t.o.DB, true)
+		open := func(flag string) (*catalog.Store, error) { return t.o.env.stores().Write(flag, true) }
+		if c, ok := t.o.env.stores().(creator); ok {
+			open = c.Create
+		}
+		s, err := open(t.o.DB)
 		if err != nil {
 			return nil, err
 		}

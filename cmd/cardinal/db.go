@@ -112,6 +112,18 @@ func openDemo(loc catalogLocation, e *env) (*catalog.Store, error) {
 // otherwise a missing file is an error, so that a command with nothing to
 // change leaves no empty catalog behind.
 func openForWrite(flag string, e *env, create bool) (*catalog.Store, error) {
+	return openWriting(flag, e, create, catalog.Open)
+}
+
+// openForCreate opens the catalog an import of parts writes to, creating
+// it when missing as catalog.OpenNew does: built beside its place and put
+// there once the import is done.
+func openForCreate(flag string, e *env) (*catalog.Store, error) {
+	return openWriting(flag, e, true, catalog.OpenNew)
+}
+
+// openWriting is openForWrite opening a missing catalog with create.
+func openWriting(flag string, e *env, create bool, open func(string) (*catalog.Store, error)) (*catalog.Store, error) {
 	loc, err := locateCatalog(flag, e)
 	if err != nil {
 		return nil, err
@@ -127,6 +139,7 @@ func openForWrite(flag string, e *env, create bool) (*catalog.Store, error) {
 		if err := prepareDir(loc); err != nil {
 			return nil, err
 		}
+		return upgraded(e)(open(loc.Path))
 	}
 	return upgraded(e)(catalog.Open(loc.Path))
 }

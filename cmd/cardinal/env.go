@@ -52,6 +52,14 @@ func (c catalogFiles) Write(flag string, create bool) (*catalog.Store, error) {
 	return openForWrite(flag, c.e, create)
 }
 
+// A creator is Stores that can also create the catalog for the import
+// of parts that makes it (openForCreate).
+type creator interface {
+	Create(flag string) (*catalog.Store, error)
+}
+
+func (c catalogFiles) Create(flag string) (*catalog.Store, error) { return openForCreate(flag, c.e) }
+
 // stores is the env's Stores, the catalog files when none is set.
 func (e *env) stores() Stores {
 	if e.Stores == nil {

@@ -108,3 +108,61 @@ func catalogVersions(t *testing.T, path string) string {
 	}
 	return strings.Join(parts, " ")
 }
+
+// The first import, which builds the catalog beside its place and puts it
+// there when done (catalog.OpenNew), killed at any moment leaves no
+// catalog or the whole new one; an import after it creates the catalog as
+// usual (in place, as a file left beside it by the killed import may be
+// another import's).
+func TestKilledFirstImport(t *testing.T) {
+	if testing.Short() {
+		t.Skip("-short: starts and kills a dozen processes")
+	}
+	const n = 3000
+	dir := t.TempDir()
+	csv := filepath.Join(dir, "first.csv")
+	must(t, os.WriteFile(csv, []byte(killCSV(n, "v1")), 0o644))
+	self, err := os.Executable()
+	if err != nil {
+		t.Fatal(err)
+	}
+	whole := filepath.Join(dir, "whole.db")
+	start := time.Now()
+	if code, _, errs := runChild(t, childCommand(self, dir, []string{"--db", whole, "catalog", "import", csv})); code != 0 {
+		t.Fatalf("the whole import failed: %d %s", code, errs)
+	}
+	full := time.Since(start)
+	if got := catalogVersions(t, whole); got != fmt.Sprintf("v1:%d", n) {
+		t.Fatalf("the whole import left %s", got)
+	}
+	states := map[string]int{}
+	const moments = 10
+	for i := 0; i <= moments; i++ {
+		at := full * time.Duration(i) / moments * 5 / 4
+		db := filepath.Join(dir, fmt.Sprintf("killed-%02d.db", i))
+		c := childCommand(self, dir, []string{"--db", db, "catalog", "import", csv})
+		if err := c.Start(); err != nil {
+			t.Fatal(err)
+		}
+		time.Sleep(at)
+		c.Process.Kill()
+		c.Wait()
+		got := "none"
+		if _, err := os.Stat(db); err == nil {
+			got = catalogVersions(t, db)
+			if got != fmt.Sprintf("v1:%d", n) {
+				t.Errorf("killed after %s: the catalog holds %s, not the whole import (v1:%d)", at, got, n)
+			}
+		}
+		states[got]++
+		if got == "none" {
+			if code, _, errs := runChild(t, childCommand(self, dir, []string{"--db", db, "catalog", "import", csv})); code != 0 {
+				t.Fatalf("importing after the kill: %d %s", code, errs)
+			}
+			if got := catalogVersions(t, db); got != fmt.Sprintf("v1:%d", n) {
+				t.Errorf("the import after the kill left %s", got)
+			}
+		}
+	}
+	t.Logf("a whole first import took %s; after the kills: %v", full, states)
+}
