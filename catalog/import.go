@@ -77,28 +77,47 @@ func (s *Store) importTx(ctx context.Context, entries []record.Entry, dryRun, bu
 	if err != nil {
 		return rep, err
 	}
-	if bad := checkEntries(entries, glasses); len(bad) > 0 {
-		return rep, &ImportError{Rows: bad}
-	}
-	stored := parallel.Map(len(entries), func(i int) storedEntry { return newStoredEntry(entries[i]) })
 	w := newConnWriter(conn, tx)
 	defer w.close()
+	// Entries for parts the catalog holds are checked and worked out
+	// first; new parts are checked and worked out on the processors while
+	// the ones before them are written (writeNewParts). Any problem at all
+	// ends the import with every problem listed (checkEntries).
 	found, err := storedParts(ctx, w, entries)
 	if err != nil {
 		return rep, err
 	}
+	ids := make([]string, len(entries))
+	seen := make(map[string]bool, len(entries))
+	var known []int // entries of stored parts
+	for i := range entries {
+		ids[i] = entries[i].Part.ID()
+		if seen[ids[i]] {
+			return rep, &ImportError{Rows: checkEntries(entries, glasses)}
+		}
+		seen[ids[i]] = true
+		if _, ok := found[ids[i]]; ok {
+			known = append(known, i)
+		}
+	}
+	problems := parallel.Map(len(known), func(k int) bool { return len(checkEntry(entries[known[k]], glasses)) > 0 })
+	if slices.Contains(problems, true) {
+		return rep, &ImportError{Rows: checkEntries(entries, glasses)}
+	}
+	stored := make([]storedEntry, len(entries))
+	parallel.Map(len(known), func(k int) struct{} { stored[known[k]] = newStoredEntry(entries[known[k]]); return struct{}{} })
 	var next int64
 	if err := tx.QueryRowContext(ctx, "SELECT coalesce(max(id), 0) FROM parts").Scan(&next); err != nil {
 		return rep, err
 	}
 	var fresh []newPart // added parts, written in batches
-	for i, e := range stored {
-		id := e.Part.ID()
+	for i, id := range ids {
 		old, ok := found[id]
+		e := stored[i]
 		switch {
 		case !ok:
 			next++
-			fresh = append(fresh, newPart{id: next, key: id, e: &stored[i]})
+			fresh = append(fresh, newPart{id: next, key: id, e: &stored[i], src: &entries[i]})
 			rep.Added = append(rep.Added, id)
 		case old.fingerprint == e.fingerprint:
 			rep.Unchanged = append(rep.Unchanged, id)
@@ -108,9 +127,6 @@ func (s *Store) importTx(ctx context.Context, entries []record.Entry, dryRun, bu
 			}
 			rep.Updated = append(rep.Updated, id)
 		}
-		for _, msg := range e.warnings() {
-			rep.Warnings = append(rep.Warnings, RowError{Line: e.Line, ID: id, Reason: msg})
-		}
 	}
 	// New parts take ids in the order of their names, so that the tables
 	// keyed by name grow at their end.
@@ -118,8 +134,17 @@ func (s *Store) importTx(ctx context.Context, entries []record.Entry, dryRun, bu
 	for i := range fresh {
 		fresh[i].id = next - int64(len(fresh)) + int64(i) + 1
 	}
-	if err := writeNewParts(ctx, w, fresh, glasses, next-int64(len(fresh))); err != nil {
+	switch err := writeNewParts(ctx, w, fresh, glasses, next-int64(len(fresh))); {
+	case errors.Is(err, errBadEntry):
+		return rep, &ImportError{Rows: checkEntries(entries, glasses)}
+	case err != nil:
 		return rep, s.wrapWriteError(err)
+	}
+	// Every entry is worked out now.
+	for i, id := range ids {
+		for _, msg := range stored[i].warnings() {
+			rep.Warnings = append(rep.Warnings, RowError{Line: stored[i].Line, ID: id, Reason: msg})
+		}
 	}
 	if err := w.flushIndex(ctx); err != nil {
 		return rep, s.wrapWriteError(err)

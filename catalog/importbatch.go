@@ -2,10 +2,12 @@ package catalog
 
 import (
 	"context"
+	"errors"
 	"runtime"
 	"strings"
 	"sync/atomic"
 
+	"cardinal/catalog/record"
 	"cardinal/optics"
 )
 
@@ -79,7 +81,14 @@ type newPart struct {
 	id  int64
 	key string // SUPPLIER:PART
 	e   *storedEntry
+	// src, when set, is the entry not yet checked: writeNewParts checks
+	// it and works out *e from it.
+	src *record.Entry
 }
+
+// errBadEntry says that an entry writeNewParts checked has a problem
+// (checkEntry).
+var errBadEntry = errors.New("catalog: an entry has a problem")
 
 // newRows is what the catalog stores of a new part besides its
 // prescription, worked out ahead of the writer: the values of its rows in
@@ -87,6 +96,7 @@ type newPart struct {
 type newRows struct {
 	parts, surfaces, warnings, computed []any
 	record                              []byte
+	bad                                 bool // the entry has a problem: no rows
 }
 
 // newPartRows works out the rows of a new part.
@@ -154,7 +164,16 @@ func writeNewParts(ctx context.Context, w *txWriter, parts []newPart, glasses op
 	}
 	// The rows are worked out on the other processors while this goroutine
 	// writes the ones before them.
-	rows := pipeline(len(parts), func(i int) newRows { return newPartRows(parts[i], glasses) })
+	rows := pipeline(len(parts), func(i int) newRows {
+		np := parts[i]
+		if np.src != nil {
+			if len(checkEntry(*np.src, glasses)) > 0 {
+				return newRows{bad: true}
+			}
+			*np.e = newStoredEntry(*np.src)
+		}
+		return newPartRows(np, glasses)
+	})
 	defer rows.stop()
 	ins := []*batch{
 		newBatch(w, `INSERT INTO parts (id, supplier, part, description, diameter_mm, clear_aperture_mm, kind,
@@ -171,6 +190,9 @@ func writeNewParts(ctx context.Context, w *txWriter, parts []newPart, glasses op
 	}
 	for i, np := range parts {
 		r := rows.at(i)
+		if r.bad {
+			return errBadEntry
+		}
 		for _, t := range []struct {
 			b    *batch
 			vals []any
