@@ -58,7 +58,26 @@ type schema struct {
 // readTable reads the whole file, collecting every problem of syntax,
 // encoding and header; rows whose cells are all empty are skipped.
 func readTable(r io.Reader, file string, s schema) *table {
+	return streamTable(r, file, s, nil)
+}
+
+// streamRun is the number of rows streamTable hands on together.
+const streamRun = 256
+
+// streamTable is readTable handing the rows, when the header is right, to
+// ready as they are read, in runs of consecutive rows (ready may work on
+// them while the file is read on: they do not change, and the table's
+// columns and columnOrder are set before the first run).
+func streamTable(r io.Reader, file string, s schema, ready func(*table, []rawRow)) *table {
 	t := &table{file: file}
+	handed := 0
+	hand := func(all bool) {
+		if ready != nil && t.headerOK && (len(t.rows)-handed >= streamRun || all && len(t.rows) > handed) {
+			ready(t, t.rows[handed:len(t.rows):len(t.rows)])
+			handed = len(t.rows)
+		}
+	}
+	defer hand(true)
 	cr := csv.NewReader(skipBOM(r))
 	cr.Comment = '#'
 	cr.FieldsPerRecord = -1
@@ -84,10 +103,12 @@ func readTable(r io.Reader, file string, s schema) *table {
 		}
 		if header {
 			t.readHeader(line, cells, s)
+			t.columnOrder() // before the rows share it
 			header = false
 			continue
 		}
 		t.addRow(line, cells)
+		hand(false)
 	}
 	if header && len(t.errs) == 0 {
 		t.errs = append(t.errs, LineError{File: file, Reason: "no header line: the first line that is not a # comment must name the columns"})

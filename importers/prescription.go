@@ -6,12 +6,13 @@ import (
 	"io"
 	"math"
 	"regexp"
+	"runtime"
 	"slices"
 	"strconv"
 	"strings"
+	"sync"
 
 	"cardinal/catalog/record"
-	"cardinal/importers/parallel"
 	"cardinal/optics"
 )
 
@@ -71,45 +72,72 @@ func ReadPrescriptions(r io.Reader, file string, glasses optics.GlassTable) ([]r
 
 // ReadPrescriptionFile is ReadPrescriptions with the file's own warnings.
 func ReadPrescriptionFile(r io.Reader, file string, glasses optics.GlassTable) (File[record.Entry], error) {
-	t := readTable(r, file, prescriptionSchema)
-	errs := t.errs
-	var raw []rawRow
-	if t.headerOK {
-		raw = t.rows
-	}
-	// The rows are read on every processor (each row is read on its own),
-	// then checked against one another in file order.
-	t.columnOrder() // worked out before the rows share it
+	// The rows are read on every processor (each row is read on its own)
+	// as the file is read, then checked against one another in file order.
 	type parsed struct {
 		row *row
 		e   record.Entry
 	}
-	rows := parallel.Map(len(raw), func(i int) parsed {
-		row := t.row(raw[i])
-		e := parseEntry(row, glasses)
-		if len(row.errs) == 0 {
-			e.Warnings = ComputedWarnings(e)
-		}
-		return parsed{row, e}
-	})
-	var entries []record.Entry
-	if len(rows) > 0 {
-		entries = make([]record.Entry, 0, len(rows))
+	type run struct {
+		t     *table
+		first int // the number of its first row
+		rows  []rawRow
 	}
-	seen := make(map[string]int, len(rows))
-	for i := range rows {
-		row, e := rows[i].row, &rows[i].e
-		id := e.Part.ID()
-		if first, dup := seen[id]; dup && e.Part.Supplier != "" && e.Part.Name != "" {
-			row.fail("part", "%s is already on line %d; supplier and part together must be unique", id, first)
-		} else {
-			seen[id] = row.rec.line
+	runs := make(chan run, 2*runtime.GOMAXPROCS(0))
+	var (
+		mu      sync.Mutex
+		results = map[int][]parsed{} // by the number of the run's first row
+		wg      sync.WaitGroup
+	)
+	for range max(1, runtime.GOMAXPROCS(0)) {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for r := range runs {
+				out := make([]parsed, len(r.rows))
+				for i := range r.rows {
+					row := r.t.row(r.rows[i])
+					e := parseEntry(row, glasses)
+					if len(row.errs) == 0 {
+						e.Warnings = ComputedWarnings(e)
+					}
+					out[i] = parsed{row, e}
+				}
+				mu.Lock()
+				results[r.first] = out
+				mu.Unlock()
+			}
+		}()
+	}
+	n := 0
+	t := streamTable(r, file, prescriptionSchema, func(t *table, rows []rawRow) {
+		runs <- run{t, n, rows}
+		n += len(rows)
+	})
+	close(runs)
+	wg.Wait()
+	errs := t.errs
+	var entries []record.Entry
+	if n > 0 {
+		entries = make([]record.Entry, 0, n)
+	}
+	seen := make(map[string]int, n)
+	for k := 0; k < n; k += len(results[k]) {
+		rows := results[k]
+		for i := range rows {
+			row, e := rows[i].row, &rows[i].e
+			id := e.Part.ID()
+			if first, dup := seen[id]; dup && e.Part.Supplier != "" && e.Part.Name != "" {
+				row.fail("part", "%s is already on line %d; supplier and part together must be unique", id, first)
+			} else {
+				seen[id] = row.rec.line
+			}
+			if len(row.errs) > 0 {
+				errs = append(errs, row.errs...)
+				continue
+			}
+			entries = append(entries, *e)
 		}
-		if len(row.errs) > 0 {
-			errs = append(errs, row.errs...)
-			continue
-		}
-		entries = append(entries, *e)
 	}
 	if len(errs) > 0 {
 		sortErrors(errs)
@@ -197,7 +225,24 @@ func parseSurfaces(r *row, p *optics.Part, glasses optics.GlassTable) {
 	}
 }
 
-func col(prefix string, i int) string { return prefix + strconv.Itoa(i) }
+// col is the name of a numbered column: r1, t2, glass3, ... Those the
+// surfaces can have are made once, not once per row.
+func col(prefix string, i int) string {
+	if names := colNames[prefix]; i < len(names) {
+		return names[i]
+	}
+	return prefix + strconv.Itoa(i)
+}
+
+var colNames = func() map[string][]string {
+	m := map[string][]string{}
+	for _, prefix := range []string{"r", "t", "glass", "conic", "asph"} {
+		for i := range MaxSurfaces + 2 {
+			m[prefix] = append(m[prefix], prefix+strconv.Itoa(i))
+		}
+	}
+	return m
+}()
 
 // parseRadius reads a radius in mm; inf, infinity or plano (any case, any
 // sign) is a flat, stored as +Inf.

@@ -1,6 +1,8 @@
 package importers
 
 import (
+	"errors"
+	"fmt"
 	"math"
 	"os"
 	"strings"
@@ -227,5 +229,50 @@ func TestDemoFileImportsCleanly(t *testing.T) {
 	}
 	if !ids["DEMO:PCX-50"] || len(file.Rows) < 10 {
 		t.Errorf("demo has %d parts (want about 12, with DEMO:PCX-50)", len(file.Rows))
+	}
+}
+
+// A file of many rows, read in runs on several goroutines while it is
+// read, gives its entries in file order, and every problem, a part given
+// twice across runs among them, in line order (invented parts).
+func TestReadPrescriptionsManyRows(t *testing.T) {
+	const n = 1000 // several runs of streamRun rows
+	var good, bad strings.Builder
+	for _, b := range []*strings.Builder{&good, &bad} {
+		b.WriteString("supplier,part,diameter,r1,r2,t1,glass1\n")
+	}
+	wantBad := map[int]string{}
+	for i := range n {
+		line := i + 2
+		fmt.Fprintf(&good, "MANY,P%04d,12.7,%d,inf,3,517642\n", i, 20+i)
+		switch i {
+		case 3, 600:
+			fmt.Fprintf(&bad, "MANY,P%04d,12.7,%d,inf,-3,517642\n", i, 20+i) // a negative thickness
+			wantBad[line] = "t1"
+		case 700:
+			fmt.Fprintf(&bad, "MANY,P%04d,12.7,%d,inf,3,517642\n", 2, 20+i) // P0002 again
+			wantBad[line] = "part"
+		default:
+			fmt.Fprintf(&bad, "MANY,P%04d,12.7,%d,inf,3,517642\n", i, 20+i)
+		}
+	}
+	es, err := ReadPrescriptions(strings.NewReader(good.String()), "many.csv", optics.BuiltinGlasses())
+	if err != nil || len(es) != n {
+		t.Fatalf("%d entries, %v", len(es), err)
+	}
+	for i, e := range es {
+		if e.Line != i+2 || e.Part.Name != fmt.Sprintf("P%04d", i) {
+			t.Fatalf("entry %d is %s on line %d", i, e.Part.Name, e.Line)
+		}
+	}
+	_, err = ReadPrescriptions(strings.NewReader(bad.String()), "many.csv", optics.BuiltinGlasses())
+	var fe FileErrors
+	if !errors.As(err, &fe) || len(fe) != len(wantBad) {
+		t.Fatalf("errors %v, want one on each of lines %v", err, wantBad)
+	}
+	for i, e := range fe {
+		if wantBad[e.Line] != e.Column || i > 0 && fe[i-1].Line >= e.Line {
+			t.Errorf("error %d: %v; want lines %v in order", i, e, wantBad)
+		}
 	}
 }
