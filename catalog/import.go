@@ -79,6 +79,24 @@ func (s *Store) importTx(ctx context.Context, entries []record.Entry, dryRun, bu
 	}
 	w := newConnWriter(conn, tx)
 	defer w.close()
+	if building {
+		// Most of the file is written once the rows are in: the disk takes
+		// it while SQLite builds the indexes, so that the sync before the
+		// file is put in place (publish) finds little left to write.
+		var synced chan struct{}
+		w.rowsWritten = func() {
+			synced = make(chan struct{})
+			go func() {
+				defer close(synced)
+				syncFile(s.stage)
+			}()
+		}
+		defer func() {
+			if synced != nil {
+				<-synced
+			}
+		}()
+	}
 	// Entries for parts the catalog holds are checked and worked out
 	// first; new parts are checked and worked out on the processors while
 	// the ones before them are written (writeNewParts). Any problem at all

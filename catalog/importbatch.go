@@ -240,6 +240,9 @@ func writeNewParts(ctx context.Context, w *txWriter, parts []newPart, glasses op
 			return err
 		}
 	}
+	if w.rowsWritten != nil {
+		w.rowsWritten()
+	}
 	return nil
 }
 

@@ -154,6 +154,15 @@ func TestOpenNewFailedImport(t *testing.T) {
 			}
 			return nil
 		}},
+		{"bad part", func(s *Store) error {
+			es := sampleEntries(t)
+			es[3].Part.Thickness[0] = -1 // found while the parts before it are written
+			var ie *ImportError
+			if _, err := s.Import(ctx, es, false); !errors.As(err, &ie) || len(ie.Rows) != 1 {
+				return fmt.Errorf("a negative thickness gave %v", err)
+			}
+			return nil
+		}},
 		{"dry run", func(s *Store) error { _, err := s.Import(ctx, good, true); return err }},
 	} {
 		s, err := OpenNew(path)

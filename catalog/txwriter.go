@@ -22,6 +22,9 @@ type txWriter struct {
 	conn  *sql.Conn
 	raw   map[string]driver.Stmt
 	named []driver.NamedValue
+	// rowsWritten, when set, is called once the rows of new parts are
+	// written, before their tables' indexes are built (writeNewParts).
+	rowsWritten func()
 }
 
 func newTxWriter(tx *sql.Tx) *txWriter {
