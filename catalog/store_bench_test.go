@@ -78,28 +78,36 @@ func BenchmarkOpenDemo(b *testing.B) {
 
 // BenchmarkImportSynth imports a synthetic catalog (catalog/synth, seed 1)
 // into a new catalog file, as `cardinal catalog import` does after reading
-// the CSV: the figure the import targets are about.
+// the CSV (built beside its place and put there: OpenNew): the figure the
+// import targets are about. in-place-N imports into an empty catalog that
+// exists already (Open), as an import into a catalog emptied by hand does.
 func BenchmarkImportSynth(b *testing.B) {
 	for _, n := range []int{5000, 50000, 200000} {
-		b.Run(fmt.Sprint(n), func(b *testing.B) {
-			es := synth.Catalog(1, n)
-			dir := b.TempDir()
-			k := 0
-			for b.Loop() {
-				b.StopTimer()
-				k++
-				s, err := Open(filepath.Join(dir, fmt.Sprintf("import-%d.db", k)))
-				if err != nil {
-					b.Fatal(err)
-				}
-				b.StartTimer()
-				if _, err := s.Import(ctx, es, false); err != nil {
-					b.Fatal(err)
-				}
-				b.StopTimer()
-				s.Close()
-				b.StartTimer()
+		for _, place := range []string{"", "in-place-"} {
+			open := OpenNew
+			if place != "" {
+				open = Open
 			}
-		})
+			b.Run(fmt.Sprint(place, n), func(b *testing.B) {
+				es := synth.Catalog(1, n)
+				dir := b.TempDir()
+				k := 0
+				for b.Loop() {
+					b.StopTimer()
+					k++
+					s, err := open(filepath.Join(dir, fmt.Sprintf("import-%d.db", k)))
+					if err != nil {
+						b.Fatal(err)
+					}
+					b.StartTimer()
+					if _, err := s.Import(ctx, es, false); err != nil {
+						b.Fatal(err)
+					}
+					b.StopTimer()
+					s.Close()
+					b.StartTimer()
+				}
+			})
+		}
 	}
 }
