@@ -61,6 +61,17 @@ func OpenNew(path string) (*Store, error) {
 	return s, nil
 }
 
+// StagedBeside is the file a first import builds the catalog at path in
+// (OpenNew) when one is there, "" when none is: another import's at work,
+// or one left by an import that was stopped.
+func StagedBeside(path string) string {
+	stage := path + stageSuffix
+	if _, err := os.Lstat(stage); err != nil {
+		return ""
+	}
+	return stage
+}
+
 // removeStage deletes a file a new catalog was being built in, with the
 // files SQLite keeps beside it.
 func removeStage(stage string) {

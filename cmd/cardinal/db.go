@@ -139,6 +139,9 @@ func openWriting(flag string, e *env, create bool, open func(string) (*catalog.S
 		if err := prepareDir(loc); err != nil {
 			return nil, err
 		}
+		if p := catalog.StagedBeside(loc.Path); p != "" {
+			notef(e, "cardinal: %s is there: another import is building this catalog, or one was stopped before it finished; this one creates the catalog in place (delete that file when no import is running)\n", p)
+		}
 		return upgraded(e)(open(loc.Path))
 	}
 	return upgraded(e)(catalog.Open(loc.Path))

@@ -165,3 +165,31 @@ func TestUpgradeNotice(t *testing.T) {
 		})
 	}
 }
+
+// An import that finds the file a stopped first import was building
+// (catalog.OpenNew) says so, and creates the catalog in place.
+func TestLeftoverBuildNotice(t *testing.T) {
+	dir := t.TempDir()
+	db := filepath.Join(dir, "new.db")
+	left := db + ".importing"
+	if err := os.WriteFile(left, []byte("half a catalog"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	csv := filepath.Join(dir, "parts.csv")
+	if err := os.WriteFile(csv, []byte(killCSV(3, "v1")), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	e, _, errb := storeEnv(t, nil)
+	if code := runCLI(e, "--db", db, "catalog", "import", csv); code != 0 {
+		t.Fatalf("exit %d: %s", code, errb.String())
+	}
+	if !strings.Contains(unwrap(errb.String()), left+" is there") {
+		t.Errorf("stderr %q does not name %s", errb.String(), left)
+	}
+	if got := catalogVersions(t, db); got != "v1:3" {
+		t.Errorf("the catalog holds %s, not the 3 parts imported", got)
+	}
+	if b, err := os.ReadFile(left); err != nil || string(b) != "half a catalog" {
+		t.Errorf("the file left beside the catalog was changed: %q, %v", b, err)
+	}
+}
