@@ -389,13 +389,7 @@ func findIndexed(ctx context.Context, st *catalog.Store, req search.Requirement)
 	if err := req.Validate(); err != nil {
 		return search.Outcome{}, usageErrorf("%v", err)
 	}
-	// Most of what the index read allocates, the search then holds: the
-	// collections it set off as the heap grew found little to free, so
-	// the collector waits until it is read (on the 50,000-part catalog,
-	// three collections fewer; GODEBUG=gctrace=1 shows them).
-	gc := debug.SetGCPercent(-1)
 	ix, err := st.SearchIndex(ctx, catalog.IndexOptions{InDrawer: req.DrawerOnly})
-	debug.SetGCPercent(gc)
 	if err != nil {
 		return search.Outcome{}, catalogError(err)
 	}
