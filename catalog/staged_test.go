@@ -32,26 +32,8 @@ func tableRows(t *testing.T, path string) string {
 		"SELECT type, name, tbl_name, sql FROM sqlite_schema ORDER BY name",
 		"PRAGMA user_version", "PRAGMA application_id", "PRAGMA journal_mode", "PRAGMA integrity_check",
 	} {
-		rows, err := db.QueryContext(ctx, q)
-		if err != nil {
-			t.Fatal(err)
-		}
-		cols, _ := rows.Columns()
-		vals := make([]any, len(cols))
-		ptrs := make([]any, len(cols))
-		for i := range vals {
-			ptrs[i] = &vals[i]
-		}
-		n := 0
-		for rows.Next() {
-			if err := rows.Scan(ptrs...); err != nil {
-				t.Fatal(err)
-			}
-			fmt.Fprintf(&b, "%v\n", vals)
-			n++
-		}
-		rows.Close()
-		fmt.Fprintf(&b, "%s: %d rows\n", q, n)
+		writeRows(t, db, q, &b)
+		fmt.Fprintf(&b, "%s\n", q)
 	}
 	return b.String()
 }
@@ -130,7 +112,7 @@ func TestOpenNewMatchesOpen(t *testing.T) {
 		}
 	}
 	a, b := tableRows(t, inPlace), tableRows(t, built)
-	if !strings.Contains(b, "[wal]") || !strings.Contains(b, "[ok]") {
+	if !strings.Contains(b, `{"wal"}`) || !strings.Contains(b, `{"ok"}`) {
 		t.Errorf("the built catalog is not in WAL mode or not intact:\n%.300s", b[len(b)-300:])
 	}
 	if a != b {

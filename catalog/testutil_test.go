@@ -3,8 +3,10 @@ package catalog
 import (
 	"context"
 	"crypto/sha256"
+	"database/sql"
 	"encoding/hex"
 	"fmt"
+	"io"
 	"math"
 	"strings"
 	"testing"
@@ -96,29 +98,40 @@ func checksum(t *testing.T, s *Store) string {
 	t.Helper()
 	h := sha256.New()
 	for _, table := range []string{"parts", "surfaces", "glasses", "computed", "warnings", "drawer", "searches", "search_index"} {
-		rows, err := s.db.QueryContext(ctx, "SELECT * FROM "+table+" ORDER BY 1, 2")
-		if err != nil {
-			t.Fatal(err)
-		}
-		cols, _ := rows.Columns()
-		vals := make([]any, len(cols))
-		ptrs := make([]any, len(cols))
-		for i := range vals {
-			ptrs[i] = &vals[i]
-		}
+		cols := writeRows(t, s.db, "SELECT * FROM "+table+" ORDER BY 1, 2", h)
 		fmt.Fprintf(h, "table %s %s\n", table, strings.Join(cols, ","))
-		for rows.Next() {
-			if err := rows.Scan(ptrs...); err != nil {
-				t.Fatal(err)
-			}
-			fmt.Fprintf(h, "%#v\n", vals)
-		}
-		rows.Close()
 	}
 	var pv int
 	s.db.QueryRowContext(ctx, "PRAGMA user_version").Scan(&pv)
 	fmt.Fprintf(h, "version %d", pv)
 	return hex.EncodeToString(h.Sum(nil))
+}
+
+// writeRows writes every row q selects to w, one line each (%#v of its
+// values, so that a value's type counts too), and returns the columns.
+func writeRows(t *testing.T, db *sql.DB, q string, w io.Writer) []string {
+	t.Helper()
+	rows, err := db.QueryContext(ctx, q)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer rows.Close()
+	cols, _ := rows.Columns()
+	vals := make([]any, len(cols))
+	ptrs := make([]any, len(cols))
+	for i := range vals {
+		ptrs[i] = &vals[i]
+	}
+	for rows.Next() {
+		if err := rows.Scan(ptrs...); err != nil {
+			t.Fatal(err)
+		}
+		fmt.Fprintf(w, "%#v\n", vals)
+	}
+	if err := rows.Err(); err != nil {
+		t.Fatal(err)
+	}
+	return cols
 }
 
 func ids(rows []PartRow) []string {
