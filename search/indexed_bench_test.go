@@ -21,6 +21,17 @@ func benchIndex(b *testing.B, n int) *catalog.Store {
 	return st
 }
 
+// benchIndexRead is the search index of the catalog file of n synthetic
+// parts, read once and closed when the benchmark ends.
+func benchIndexRead(b *testing.B, n int) *catalog.Index {
+	ix, err := benchIndex(b, n).SearchIndex(context.Background(), catalog.IndexOptions{})
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.Cleanup(func() { ix.Close() })
+	return ix
+}
+
 // benchOnIndex runs body, timed, on the search index of each catalog size
 // read once, for each requirement kind.
 func benchOnIndex(b *testing.B, body func(ctx context.Context, ix *catalog.Index, req Requirement) error) {
@@ -28,12 +39,7 @@ func benchOnIndex(b *testing.B, body func(ctx context.Context, ix *catalog.Index
 		for _, kind := range []string{"focus", "focus-d", "image", "expand"} {
 			req := benchRequirements()[kind]
 			b.Run(fmt.Sprintf("%s/%d", kind, n), func(b *testing.B) {
-				ctx := context.Background()
-				ix, err := benchIndex(b, n).SearchIndex(ctx, catalog.IndexOptions{})
-				if err != nil {
-					b.Fatal(err)
-				}
-				defer ix.Close()
+				ctx, ix := context.Background(), benchIndexRead(b, n)
 				b.ReportAllocs()
 				b.ResetTimer()
 				for b.Loop() {
@@ -75,12 +81,7 @@ func BenchmarkFirstOrderIndexed(b *testing.B) {
 		for _, kind := range []string{"focus-d", "image", "expand"} {
 			req := benchRequirements()[kind]
 			b.Run(fmt.Sprintf("%s/%d", kind, n), func(b *testing.B) {
-				ctx := context.Background()
-				ix, err := benchIndex(b, n).SearchIndex(ctx, catalog.IndexOptions{})
-				if err != nil {
-					b.Fatal(err)
-				}
-				defer ix.Close()
+				ctx, ix := context.Background(), benchIndexRead(b, n)
 				p := prepareIndex(ctx, ix, req)
 				class := twinClasses(p, p.cands)
 				b.ReportAllocs()

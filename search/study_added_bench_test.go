@@ -5,8 +5,6 @@ import (
 	"fmt"
 	"testing"
 	"time"
-
-	"cardinal/catalog"
 )
 
 // BenchmarkFindStudyAdded measures what the build study adds to find: the
@@ -26,12 +24,7 @@ func BenchmarkFindStudyAdded(b *testing.B) {
 	for _, n := range []int{5000, 50000} {
 		for _, kind := range []string{"focus", "image", "expand"} {
 			b.Run(fmt.Sprintf("%s/%d", kind, n), func(b *testing.B) {
-				ctx := context.Background()
-				ix, err := benchIndex(b, n).SearchIndex(ctx, catalog.IndexOptions{})
-				if err != nil {
-					b.Fatal(err)
-				}
-				defer ix.Close()
+				ctx, ix := context.Background(), benchIndexRead(b, n)
 				with := benchRequirements()[kind]
 				without := with
 				without.noBuildStudy = true
