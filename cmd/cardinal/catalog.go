@@ -132,7 +132,7 @@ func runCatalogImport(co *catalogImportOptions) error {
 	for _, w := range rep.Warnings {
 		notef(o.env, "cardinal: warning: %s:%d: %s: %s\n", o.File, w.Line, w.ID, w.Reason)
 	}
-	printChanges(o.env, s.Path(), o.File, "parts", rep.Added, rep.Updated, len(rep.Unchanged), len(rep.Warnings), o.DryRun)
+	printChanges(o.env, t.name(), o.File, "parts", rep.Added, rep.Updated, len(rep.Unchanged), len(rep.Warnings), o.DryRun)
 	return nil
 }
 
@@ -143,6 +143,7 @@ type importTarget struct {
 	o       *importOptions
 	s       *catalog.Store // nil until store() while there is no catalog yet
 	glasses optics.GlassTable
+	into    string // the catalog a dry run with none yet names (openForImport)
 }
 
 // openImport reads the file to import and opens the catalog it goes to
@@ -152,11 +153,11 @@ func openImport(ctx context.Context, o *importOptions) ([]byte, *importTarget, e
 	if err != nil {
 		return nil, nil, err
 	}
-	s, err := openForImport(o.DB, o.env, o.DryRun)
+	s, into, err := openForImport(o.DB, o.env, o.DryRun)
 	if err != nil {
 		return nil, nil, err
 	}
-	t := &importTarget{o: o, s: s, glasses: optics.BuiltinGlasses()}
+	t := &importTarget{o: o, s: s, glasses: optics.BuiltinGlasses(), into: into}
 	if s != nil {
 		if t.glasses, err = s.Glasses(ctx); err != nil {
 			s.Close()
@@ -183,6 +184,15 @@ func (t *importTarget) store() (*catalog.Store, error) {
 	return t.s, nil
 }
 
+// name is the catalog the import's report names: the store's file, or
+// the file a dry run with no catalog yet would create.
+func (t *importTarget) name() string {
+	if t.into != "" {
+		return t.into
+	}
+	return t.s.Path()
+}
+
 func (t *importTarget) Close() {
 	if t.s != nil {
 		t.s.Close()
@@ -192,17 +202,19 @@ func (t *importTarget) Close() {
 // openForImport opens the catalog an import writes to. It returns nil
 // when the catalog does not exist yet, so that it is created only once the
 // input reads without error; a dry run then checks against an empty
-// in-memory catalog and creates nothing.
-func openForImport(flag string, e *env, dryRun bool) (*catalog.Store, error) {
-	s, err := e.stores().Write(flag, false)
+// in-memory catalog and creates nothing, and into names the file the
+// import would create, for the report ("" in every other case).
+func openForImport(flag string, e *env, dryRun bool) (s *catalog.Store, into string, err error) {
+	s, err = e.stores().Write(flag, false)
+	var none errNoCatalog
 	switch {
-	case !errors.As(err, new(errNoCatalog)):
-		return s, err
+	case !errors.As(err, &none):
+		return s, "", err
 	case dryRun:
 		s, err := catalog.Open(catalog.Memory)
-		return s, catalogError(err)
+		return s, none.path + " (a new catalog; a dry run creates none)", catalogError(err)
 	}
-	return nil, nil
+	return nil, "", nil
 }
 
 // printChanges prints the outcome of an import on stdout: counts of what

@@ -54,7 +54,7 @@ func runGlassImport(o *importOptions) error {
 	for _, w := range f.Warnings {
 		notef(o.env, "cardinal: warning: %v\n", w)
 	}
-	s, err := openForImport(o.DB, o.env, o.DryRun)
+	s, into, err := openForImport(o.DB, o.env, o.DryRun)
 	if err == nil && s == nil {
 		s, err = o.env.stores().Write(o.DB, true)
 	}
@@ -70,7 +70,10 @@ func runGlassImport(o *importOptions) error {
 	if err != nil {
 		return importErrorf(o.File, err)
 	}
-	printChanges(o.env, s.Path(), o.File, "glasses", rep.Added, rep.Updated, len(rep.Unchanged), 0, o.DryRun)
+	if into == "" {
+		into = s.Path()
+	}
+	printChanges(o.env, into, o.File, "glasses", rep.Added, rep.Updated, len(rep.Unchanged), 0, o.DryRun)
 	if len(rep.Recomputed) > 0 {
 		fmt.Fprintf(o.env.Out, "  recomputed %d part(s) made of a changed glass\n", len(rep.Recomputed))
 	}

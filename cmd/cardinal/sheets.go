@@ -86,7 +86,7 @@ func runMappedImport(o *catalogImportOptions) error {
 	if o.DryRun && o.Format != "table" {
 		pe.Out = o.env.Err // keep the preview alone on stdout
 	}
-	printChanges(&pe, s.Path(), where, "parts", rep.Added, rep.Updated, len(rep.Unchanged), len(rep.Warnings), o.DryRun)
+	printChanges(&pe, t.name(), where, "parts", rep.Added, rep.Updated, len(rep.Unchanged), len(rep.Warnings), o.DryRun)
 	return nil
 }
 
@@ -383,7 +383,7 @@ func runCatalogMapping(o *catalogMappingOptions) error {
 // knownGlasses is the glass table of the user's catalog, with aliases; the
 // built-in glasses when there is no catalog yet.
 func knownGlasses(flag string, e *env) (optics.GlassTable, error) {
-	s, err := openForImport(flag, e, false)
+	s, _, err := openForImport(flag, e, false)
 	if err != nil || s == nil {
 		return optics.BuiltinGlasses(), err
 	}
@@ -483,7 +483,7 @@ type listedAlias struct {
 
 func runGlassAliases(o *glassAliasesOptions) error {
 	ctx := context.Background()
-	s, err := openForImport(o.DB, o.env, true)
+	s, _, err := openForImport(o.DB, o.env, true)
 	if err != nil {
 		return err
 	}
