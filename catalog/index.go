@@ -338,15 +338,25 @@ func encodeChunk(records [][]byte) []byte {
 	return buf
 }
 
-// splitChunk returns the records of a stored chunk (slices of b).
-func splitChunk(b []byte) ([][]byte, error) {
+// openChunk checks a stored chunk's format and returns a reader at its
+// first record and the number of records it says it holds.
+func openChunk(b []byte) (recordReader, uint64, error) {
 	if len(b) < 1 || b[0] != chunkFormat {
-		return nil, errRecord
+		return recordReader{}, 0, errRecord
 	}
 	r := recordReader{b: b[1:]}
 	n := r.uvarint()
 	if n > uint64(len(r.b)) {
-		return nil, errRecord
+		return recordReader{}, 0, errRecord
+	}
+	return r, n, nil
+}
+
+// splitChunk returns the records of a stored chunk (slices of b).
+func splitChunk(b []byte) ([][]byte, error) {
+	r, n, err := openChunk(b)
+	if err != nil {
+		return nil, err
 	}
 	out := make([][]byte, 0, n)
 	for range n {
@@ -374,13 +384,9 @@ func recordID(b []byte) (int64, error) {
 // decodeChunk appends to parts the parts of a stored chunk that keep
 // accepts, their names sharing one string.
 func (d *indexDecoder) decodeChunk(b []byte, parts []IndexPart, keep func(*IndexPart) bool) ([]IndexPart, error) {
-	if len(b) < 1 || b[0] != chunkFormat {
-		return parts, errRecord
-	}
-	r := recordReader{b: b[1:]}
-	n := r.uvarint()
-	if n > uint64(len(r.b)) {
-		return parts, errRecord
+	r, n, err := openChunk(b)
+	if err != nil {
+		return parts, err
 	}
 	start := len(parts)
 	d.names, d.nameEnd = d.names[:0], d.nameEnd[:0]
