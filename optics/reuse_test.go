@@ -168,12 +168,8 @@ func reuseSystems(t *testing.T) []struct {
 	field float64
 } {
 	t.Helper()
+	pcx, ach := plano51AndAchromat()
 	crown, _ := GlassCode("517642")
-	flint, _ := GlassCode("620364")
-	pcx := singletOf(51.7, math.Inf(1), 4, crown)
-	ach := Part{Supplier: "B", Name: "ACH", Diameter: 25.4,
-		Surfaces:  []Surface{Sphere(61.5), Sphere(-44.6), Sphere(-129)},
-		Thickness: []float64{6, 2.5}, Media: []Medium{crown, flint}}
 	small := singletOf(20, -20, 5, crown)
 	small.Diameter = 8
 	inf := func(beam float64) Object { return Object{Z: math.Inf(-1), Aperture: Aperture{Beam: beam}} }
